@@ -1,0 +1,25 @@
+import type { Metadata, Viewport } from "next";
+import type { ReactNode } from "react";
+import { inter, jetbrains } from "./fonts";
+import "./globals.css";
+
+export const metadata: Metadata = {
+  title: { default: "Pinchpoint", template: "%s · Pinchpoint" },
+  description: "Where your service estate pinches: dependency inventory, single points of failure, blast radius.",
+};
+
+export const viewport: Viewport = { colorScheme: "dark light" };
+
+// Runs before paint so a stored light theme does not flash dark first.
+const themeScript = `try{var t=localStorage.getItem("pp-theme");if(t==="light"||t==="dark")document.documentElement.dataset.theme=t}catch(e){}`;
+
+export default function RootLayout({ children }: { children: ReactNode }) {
+  return (
+    <html lang="en" data-theme="dark" className={`${inter.variable} ${jetbrains.variable}`} suppressHydrationWarning>
+      <head>
+        <script dangerouslySetInnerHTML={{ __html: themeScript }} />
+      </head>
+      <body className="min-h-screen bg-canvas font-sans text-ink antialiased">{children}</body>
+    </html>
+  );
+}

@@ -1,0 +1,72 @@
+"use client";
+
+import { signIn } from "next-auth/react";
+import { useRouter } from "next/navigation";
+import { useState, type FormEvent } from "react";
+import { Button } from "@/components/ui/Button";
+
+// next-auth reports its own failures with codes; ours arrive as readable messages.
+function describe(error: string | undefined | null): string | null {
+  if (!error) return null;
+  if (error === "CredentialsSignin") return "That e-mail and password do not match an active account.";
+  if (/^[A-Z][A-Za-z]+$/.test(error)) return "Sign-in failed. Try again, or ask an admin to check your account.";
+  return error;
+}
+
+export function SignInForm({ callbackUrl, initialError }: { callbackUrl: string; initialError?: string }) {
+  const router = useRouter();
+  const [error, setError] = useState<string | null>(describe(initialError));
+  const [pending, setPending] = useState(false);
+
+  async function onSubmit(event: FormEvent<HTMLFormElement>) {
+    event.preventDefault();
+    const form = new FormData(event.currentTarget);
+    setPending(true);
+    setError(null);
+    const result = await signIn("credentials", {
+      email: String(form.get("email") ?? ""),
+      password: String(form.get("password") ?? ""),
+      redirect: false,
+    });
+    setPending(false);
+    if (!result || result.error || !result.ok) {
+      setError(describe(result?.error) ?? "Sign-in failed.");
+      return;
+    }
+    router.replace(callbackUrl);
+    router.refresh();
+  }
+
+  return (
+    <form onSubmit={onSubmit} className="mt-6 space-y-4" aria-describedby={error ? "signin-error" : undefined}>
+      <label className="block">
+        <span className="text-sm font-medium">E-mail</span>
+        <input
+          name="email"
+          type="email"
+          autoComplete="username"
+          required
+          className="mt-1 w-full rounded-md border border-line bg-raised px-3 py-2 text-ink outline-none focus:border-brass"
+        />
+      </label>
+      <label className="block">
+        <span className="text-sm font-medium">Password</span>
+        <input
+          name="password"
+          type="password"
+          autoComplete="current-password"
+          required
+          className="mt-1 w-full rounded-md border border-line bg-raised px-3 py-2 text-ink outline-none focus:border-brass"
+        />
+      </label>
+      {error && (
+        <p id="signin-error" role="alert" className="rounded-md border border-down/50 bg-down/10 px-3 py-2 text-sm text-ink">
+          {error}
+        </p>
+      )}
+      <Button type="submit" variant="primary" className="w-full py-2" disabled={pending}>
+        {pending ? "Signing in…" : "Sign in"}
+      </Button>
+    </form>
+  );
+}

@@ -1,0 +1,71 @@
+"use client";
+
+import Link from "next/link";
+import { usePathname } from "next/navigation";
+import { signOut } from "next-auth/react";
+import type { ReactNode } from "react";
+import { Logo } from "@/components/ui/Logo";
+import { ThemeToggle } from "./ThemeToggle";
+import { ROLE_LABELS, roleHas, type Role } from "@/lib/auth/roles";
+
+interface NavItem {
+  label: string;
+  href: (env: string) => string;
+  match: (path: string, env: string) => boolean;
+  adminOnly?: boolean;
+}
+
+const envPath = (env: string, rest = "") => `/environments/${env}${rest}`;
+const under = (rest: string) => (path: string, env: string) => path.startsWith(envPath(env, rest));
+
+export const NAV: NavItem[] = [
+  { label: "Overview", href: (env) => envPath(env), match: (p, env) => p === "/" || p === envPath(env) },
+];
+
+export function envFromPath(path: string, fallback: string): string {
+  const match = /^\/environments\/([a-z0-9][a-z0-9-]{0,62})/.exec(path);
+  return match?.[1] ?? fallback;
+}
+
+export function AppShell({ user, defaultEnv, children }: { user: { name: string; email: string; role: Role }; defaultEnv: string; children: ReactNode }) {
+  const path = usePathname();
+  const env = envFromPath(path, defaultEnv);
+  const items = NAV.filter((item) => !item.adminOnly || roleHas(user.role, "admin"));
+  return (
+    <div className="flex min-h-screen flex-col">
+      <header className="sticky top-0 z-30 flex h-12 items-center gap-6 border-b border-line bg-surface/95 px-4 backdrop-blur">
+        <Link href="/" aria-label="Pinchpoint home">
+          <Logo size={22} />
+        </Link>
+        <span className="rounded border border-line px-2 py-0.5 font-mono text-xs text-muted" title="Environment">
+          {env}
+        </span>
+        <nav aria-label="Main" className="flex items-center gap-1 overflow-x-auto">
+          {items.map((item) => {
+            const active = item.match(path, env);
+            return (
+              <Link
+                key={item.label}
+                href={item.href(env)}
+                aria-current={active ? "page" : undefined}
+                className={`whitespace-nowrap rounded px-2.5 py-1 text-sm ${active ? "bg-raised text-ink" : "text-muted hover:text-ink"}`}
+              >
+                {item.label}
+              </Link>
+            );
+          })}
+        </nav>
+        <div className="ml-auto flex items-center gap-3 text-sm">
+          <ThemeToggle />
+          <span className="hidden text-muted sm:inline" data-testid="signed-in-as">
+            {user.email} · <span className="text-ink">{ROLE_LABELS[user.role]}</span>
+          </span>
+          <button type="button" onClick={() => signOut({ callbackUrl: "/signin" })} className="text-muted hover:text-ink">
+            Sign out
+          </button>
+        </div>
+      </header>
+      <main className="mx-auto w-full max-w-[1400px] flex-1 px-4 py-6">{children}</main>
+    </div>
+  );
+}

@@ -1,0 +1,66 @@
+// Who is calling: a signed-in user (session cookie) or an API token (Authorization: Bearer ppt_…).
+import { getToken } from "next-auth/jwt";
+import { NextRequest } from "next/server";
+import { authSecret } from "./options";
+import { roleHas, type Permission, type Role, type TokenScope } from "./roles";
+import { authenticateToken } from "@/lib/data/tokens";
+import { getUserById } from "@/lib/data/users";
+import { AppError } from "@/lib/errors";
+
+export type Actor =
+  | { type: "user"; id: string; email: string; name: string; role: Role; label: string }
+  | {
+      type: "token";
+      id: string;
+      name: string;
+      scopes: TokenScope[];
+      environmentId: string | null;
+      sourceName: string | null;
+      label: string;
+    };
+
+/** What a token scope allows, in the same terms as roles. */
+const SCOPE_PERMISSIONS: Record<TokenScope, readonly Permission[]> = {
+  read: ["read"],
+  "inventory:write": ["inventory:write"],
+};
+
+export function actorCan(actor: Actor, permission: Permission): boolean {
+  if (actor.type === "user") return roleHas(actor.role, permission);
+  return actor.scopes.some((scope) => SCOPE_PERMISSIONS[scope].includes(permission));
+}
+
+function bearer(headers: Headers): string | null {
+  const value = headers.get("authorization");
+  if (!value) return null;
+  const match = /^Bearer\s+(\S+)$/i.exec(value.trim());
+  if (!match?.[1]) throw new AppError("unauthorized", "Malformed Authorization header: expected `Bearer ppt_…`");
+  return match[1];
+}
+
+/** The caller, or null when anonymous. A bad token is an error, never a silent fall-back to the session. */
+export async function resolveActor(headers: Headers): Promise<Actor | null> {
+  const token = bearer(headers);
+  if (token !== null) {
+    const row = await authenticateToken({ token });
+    if (!row) throw new AppError("unauthorized", "Unknown or revoked API token");
+    return {
+      type: "token",
+      id: row.id,
+      name: row.name,
+      scopes: row.scopes,
+      environmentId: row.environmentId,
+      sourceName: row.sourceName,
+      label: `token ${row.name} (${row.prefix}…)`,
+    };
+  }
+  // The session is next-auth's signed JWT cookie, read from the request's own headers (the same
+  // way in route handlers, server actions and pages, and in tests that carry a real cookie).
+  const jwt = await getToken({ req: new NextRequest("http://pinchpoint.invalid/", { headers }), secret: authSecret() });
+  const id = jwt?.sub;
+  if (!id) return null;
+  // Re-read the user: a deactivation or role change takes effect on the next request.
+  const user = await getUserById({ id });
+  if (!user || !user.active) return null;
+  return { type: "user", id: user.id, email: user.email, name: user.name, role: user.role, label: user.email };
+}

@@ -1,0 +1,61 @@
+// One wrapper for every route handler and server action: resolve the caller, check the permission
+// on the server, render errors in the shape of DESIGN §4.
+import { headers as nextHeaders } from "next/headers";
+import type { NextRequest } from "next/server";
+import { actorCan, resolveActor, type Actor } from "./actor";
+import type { Permission } from "./roles";
+import { AppError, errorResponse, forbidden, unauthorized } from "@/lib/errors";
+
+export interface HandlerContext<P> {
+  req: NextRequest;
+  actor: Actor;
+  params: P;
+}
+
+type RouteContext<P> = { params: Promise<P> };
+
+/** The permission a route needs; `public` routes run without a caller. */
+export type RouteRule = Permission | "public";
+
+export function withPermission<P = Record<string, never>>(
+  permission: RouteRule,
+  handler: (ctx: HandlerContext<P>) => Promise<Response>,
+): ((req: NextRequest, ctx: RouteContext<P>) => Promise<Response>) & { permission: RouteRule } {
+  const wrapped = async (req: NextRequest, ctx: RouteContext<P>) => {
+    try {
+      const params = (await ctx?.params) ?? ({} as P);
+      const actor = await resolveActor(req.headers);
+      if (permission !== "public") {
+        if (!actor) throw unauthorized();
+        if (!actorCan(actor, permission)) throw forbidden(`This needs the ${permission} permission`);
+      }
+      return await handler({ req, actor: actor as Actor, params });
+    } catch (error) {
+      return errorResponse(error);
+    }
+  };
+  return Object.assign(wrapped, { permission });
+}
+
+export type ActionResult<T> = { ok: true; data: T } | { ok: false; error: string; message: string; issues?: { path: string; message: string }[] };
+
+/** Server actions are public endpoints: same check as route handlers, errors as values for forms. */
+export function actionWithPermission<I, T>(
+  permission: Permission,
+  action: (input: I, actor: Actor) => Promise<T>,
+): (input: I) => Promise<ActionResult<T>> {
+  return async (input: I) => {
+    try {
+      const actor = await resolveActor(await nextHeaders());
+      if (!actor) throw unauthorized();
+      if (!actorCan(actor, permission)) throw forbidden(`This needs the ${permission} permission`);
+      return { ok: true, data: await action(input, actor) };
+    } catch (error) {
+      if (error instanceof AppError) {
+        return { ok: false, error: error.code, message: error.message, issues: error.issues };
+      }
+      console.error("[action] unexpected error:", error);
+      return { ok: false, error: "internal", message: "Something went wrong on our side; it has been logged" };
+    }
+  };
+}

@@ -1,0 +1,35 @@
+// The audit log: every write, with who, when, what, before and after. Written in the same
+// transaction as the change it records, so neither exists without the other.
+import type { Transaction } from "sequelize";
+import { db } from "@/models";
+import type { Actor } from "@/lib/auth/actor";
+
+export type SystemActor = { type: "system"; label: string };
+
+export async function recordAudit(
+  input: {
+    actor: Actor | SystemActor;
+    action: string;
+    targetType: string;
+    targetId: string;
+    environmentId?: string | null;
+    before?: unknown;
+    after?: unknown;
+  },
+  transaction?: Transaction,
+): Promise<void> {
+  await db().models.AuditEvent.create(
+    {
+      actorType: input.actor.type,
+      actorId: input.actor.type === "system" ? null : input.actor.id,
+      actorLabel: input.actor.label,
+      action: input.action,
+      targetType: input.targetType,
+      targetId: input.targetId,
+      environmentId: input.environmentId ?? null,
+      before: input.before ?? null,
+      after: input.after ?? null,
+    },
+    { transaction },
+  );
+}

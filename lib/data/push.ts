@@ -1,0 +1,251 @@
+// A push: parse → authorise the source → merge into the environment's graph → snapshot → queue
+// analysis. All or nothing: one transaction, serialised per environment by an advisory lock, so
+// concurrent pushes never lose each other's work and a failed push writes nothing at all.
+import { QueryTypes, type Transaction } from "sequelize";
+import { db } from "@/models";
+import type { Actor } from "@/lib/auth/actor";
+import { recordAudit, type SystemActor } from "./audit";
+import { loadCurrentContent, writeSourceRows } from "./graph-content";
+import { queueAnalysis } from "./analysis-jobs";
+import { AppError, notFound } from "@/lib/errors";
+import { importInventory } from "@/importers";
+import { mergeSources } from "@/lib/inventory/merge";
+import { diffSnapshots, snapshotHash, type SnapshotContent, type SnapshotDiff } from "@/lib/inventory/snapshot";
+import type { ImportFormat, InventoryIssue, NormalisedInventory } from "@/lib/inventory/types";
+
+export type PushActor = Actor | (SystemActor & { canCreateEnvironments: true });
+
+export interface PushInput {
+  environment: string;
+  format: ImportFormat;
+  body: string | Buffer;
+  contentType?: string | null;
+  /** required for every format but `pinchpoint`, whose files name their source */
+  source?: string | null;
+  dryRun: boolean;
+  actor: PushActor;
+}
+
+export interface PushResult {
+  changed: boolean;
+  dryRun: boolean;
+  snapshot: { id: string; number: number; createdAt: string } | null;
+  diff: DiffSummary;
+  warnings: InventoryIssue[];
+  observed?: { edges: number };
+}
+
+export interface DiffSummary extends SnapshotDiff {
+  counts: { componentsAdded: number; componentsRemoved: number; componentsChanged: number; dependenciesAdded: number; dependenciesRemoved: number };
+}
+
+function summarise(diff: SnapshotDiff): DiffSummary {
+  return {
+    ...diff,
+    counts: {
+      componentsAdded: diff.componentsAdded.length,
+      componentsRemoved: diff.componentsRemoved.length,
+      componentsChanged: diff.componentsChanged.length,
+      dependenciesAdded: diff.dependenciesAdded.length,
+      dependenciesRemoved: diff.dependenciesRemoved.length,
+    },
+  };
+}
+
+/** May this caller create an environment on its first push? Admin users, and tokens bound to no environment. */
+function mayCreateEnvironment(actor: PushActor): boolean {
+  if (actor.type === "system") return actor.canCreateEnvironments;
+  if (actor.type === "user") return actor.role === "admin";
+  return actor.environmentId === null;
+}
+
+function checkBinding(actor: PushActor, environmentId: string | null, source: string): void {
+  if (actor.type !== "token") return;
+  if (actor.environmentId && actor.environmentId !== environmentId) {
+    throw new AppError("forbidden", "This token is bound to another environment");
+  }
+  if (actor.sourceName && actor.sourceName !== source) {
+    throw new AppError("forbidden", `This token may push only source "${actor.sourceName}", not "${source}"`);
+  }
+}
+
+function parse(input: PushInput): NormalisedInventory {
+  if (input.format !== "pinchpoint" && !input.source) {
+    throw new AppError("invalid_request", `The ${input.format} format needs ?source=<name>: the file does not say who declared it`);
+  }
+  const result = importInventory({
+    format: input.format,
+    body: input.body,
+    contentType: input.contentType ?? undefined,
+    source: input.source ?? undefined,
+    environment: input.environment,
+  });
+  if (!result.ok) {
+    throw new AppError(result.status === 413 ? "payload_too_large" : "invalid_inventory", result.status === 413 ? "The inventory is over a limit" : "The inventory has errors; nothing was changed", result.issues);
+  }
+  const inventory = result.inventory;
+  if (input.format === "pinchpoint" && input.source && input.source !== inventory.source) {
+    throw new AppError("invalid_inventory", "The file's source does not match ?source=", [
+      { path: "source", message: `the file says "${inventory.source}" but the request says "${input.source}"` },
+    ]);
+  }
+  if (inventory.environment && inventory.environment !== input.environment) {
+    throw new AppError("invalid_inventory", "The file names another environment", [
+      { path: "environment", message: `the file says "${inventory.environment}" but it was pushed to "${input.environment}"` },
+    ]);
+  }
+  return inventory;
+}
+
+class DryRunRollback extends Error {
+  constructor(readonly result: PushResult) {
+    super("dry run");
+  }
+}
+
+export async function pushInventory(input: PushInput): Promise<PushResult> {
+  const inventory = parse(input);
+  const { sequelize } = db();
+  try {
+    return await sequelize.transaction(async (transaction) => {
+      const environment = await lockEnvironment(input, inventory.source, transaction);
+      const result = await applyInventory({ input, inventory, environment, transaction });
+      // A dry run does every step of a real push, then rolls it all back.
+      if (input.dryRun) throw new DryRunRollback(result);
+      return result;
+    });
+  } catch (error) {
+    if (error instanceof DryRunRollback) return error.result;
+    throw error;
+  }
+}
+
+async function lockEnvironment(input: PushInput, source: string, transaction: Transaction): Promise<{ id: string; slug: string }> {
+  const { sequelize, models } = db();
+  // Serialise pushes per environment slug (the environment may not exist yet).
+  await sequelize.query("SELECT pg_advisory_xact_lock(hashtext('pinchpoint-env:' || :slug))", {
+    replacements: { slug: input.environment },
+    transaction,
+  });
+  let env = await models.Environment.findOne({ where: { slug: input.environment }, transaction });
+  if (!env) {
+    if (!mayCreateEnvironment(input.actor)) throw notFound(`Environment "${input.environment}"`);
+    checkBinding(input.actor, null, source);
+    env = await models.Environment.create({ slug: input.environment, name: input.environment, pinchWeights: null }, { transaction });
+    await recordAudit({ actor: input.actor, action: "environment.create", targetType: "environment", targetId: env.slug, environmentId: env.id, after: { slug: env.slug } }, transaction);
+  } else {
+    checkBinding(input.actor, env.id, source);
+  }
+  return { id: env.id, slug: env.slug };
+}
+
+async function applyInventory({
+  input,
+  inventory,
+  environment,
+  transaction,
+}: {
+  input: PushInput;
+  inventory: NormalisedInventory;
+  environment: { id: string; slug: string };
+  transaction: Transaction;
+}): Promise<PushResult> {
+  const { sequelize, models } = db();
+  const [sourceRow] = await models.Source.findOrCreate({
+    where: { environmentId: environment.id, name: inventory.source },
+    defaults: { environmentId: environment.id, name: inventory.source, lastFormat: input.format, lastPushAt: new Date() },
+    transaction,
+  });
+  const previous = await loadCurrentContent({ environmentId: environment.id }, transaction);
+  let next: SnapshotContent = previous;
+  let warnings = [...inventory.warnings];
+
+  if (input.format === "otlp") {
+    // Traces declare nothing: they replace the source's observed edges and leave the declared graph alone.
+    await models.ObservedDependency.destroy({ where: { sourceId: sourceRow.id }, transaction });
+    const now = new Date();
+    await models.ObservedDependency.bulkCreate(
+      inventory.observedEdges.map((e) => ({ environmentId: environment.id, sourceId: sourceRow.id, fromKey: e.from, toKey: e.to, count: e.count, evidence: e.evidence, lastSeenAt: now })),
+      { transaction },
+    );
+  } else {
+    const merged = mergeSources({ existing: previous, source: inventory.source, incoming: inventory });
+    if (merged.conflicts.length) {
+      const first = merged.conflicts[0];
+      throw new AppError(
+        "conflict",
+        first
+          ? `"${first.key}" is already declared by source "${first.sources.find((s) => s !== inventory.source) ?? first.sources[0]}"; a key belongs to one source (this push is "${inventory.source}")`
+          : "Conflicting sources",
+        merged.conflicts.map((c) => ({ path: `components[key=${c.key}]`, message: `declared by both ${c.sources.map((s) => `"${s}"`).join(" and ")}` })),
+      );
+    }
+    next = merged.content;
+    warnings = [...warnings, ...merged.warnings];
+    await writeSourceRows({ environmentId: environment.id, sourceId: sourceRow.id, sourceName: inventory.source, content: next }, transaction);
+  }
+
+  const [latest] = await sequelize.query<{ number: number; hash: string }>(
+    "SELECT number, hash FROM snapshots WHERE environment_id = :id ORDER BY number DESC LIMIT 1",
+    { type: QueryTypes.SELECT, replacements: { id: environment.id }, transaction },
+  );
+  const hash = snapshotHash(next);
+  const changed = latest ? latest.hash !== hash : next.components.length > 0;
+  const diff = summarise(diffSnapshots(previous, next));
+
+  let snapshot: PushResult["snapshot"] = null;
+  if (changed && !input.dryRun) {
+    const row = await models.Snapshot.create(
+      {
+        environmentId: environment.id,
+        number: (latest?.number ?? 0) + 1,
+        hash,
+        content: next,
+        componentCount: next.components.length,
+        dependencyCount: next.dependencies.length,
+        undeclaredCount: next.components.filter((c) => c.kind === "undeclared").length,
+        sourceName: inventory.source,
+        format: input.format,
+        actorLabel: input.actor.label,
+      },
+      { transaction },
+    );
+    snapshot = { id: row.id, number: row.number, createdAt: row.createdAt.toISOString() };
+    await queueAnalysis({ environmentId: environment.id, snapshotId: row.id }, transaction);
+  }
+
+  await sourceRow.update({ lastFormat: input.format, lastPushAt: new Date() }, { transaction });
+  await models.ImportRecord.create(
+    {
+      environmentId: environment.id,
+      sourceName: inventory.source,
+      format: input.format,
+      actorLabel: input.actor.label,
+      graphChanged: changed,
+      snapshotNumber: snapshot?.number ?? null,
+      summary: { ...diff.counts, components: next.components.length, dependencies: next.dependencies.length, observedEdges: inventory.observedEdges.length },
+      warnings,
+    },
+    { transaction },
+  );
+  await recordAudit(
+    {
+      actor: input.actor,
+      action: "inventory.push",
+      targetType: "source",
+      targetId: `${environment.slug}/${inventory.source}`,
+      environmentId: environment.id,
+      before: latest ? { snapshot: latest.number } : null,
+      after: { snapshot: snapshot?.number ?? latest?.number ?? null, changed, format: input.format, ...diff.counts },
+    },
+    transaction,
+  );
+  return {
+    changed,
+    dryRun: input.dryRun,
+    snapshot,
+    diff,
+    warnings,
+    ...(input.format === "otlp" ? { observed: { edges: inventory.observedEdges.length } } : {}),
+  };
+}

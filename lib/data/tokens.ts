@@ -1,0 +1,117 @@
+// API tokens: `ppt_` + 40 random characters, shown once, stored as a sha256 hash.
+import { createHash, randomBytes } from "node:crypto";
+import { db } from "@/models";
+import type { TokenScope } from "@/lib/auth/roles";
+
+export const TOKEN_PREFIX = "ppt_";
+
+export interface TokenInfo {
+  id: string;
+  name: string;
+  prefix: string;
+  scopes: TokenScope[];
+  environment: string | null;
+  source: string | null;
+  createdBy: string | null;
+  createdAt: string;
+  lastUsedAt: string | null;
+  revokedAt: string | null;
+}
+
+export const hashToken = (token: string) => createHash("sha256").update(token).digest("hex");
+
+function newSecret(): string {
+  // base64url of 30 random bytes: 40 characters, 240 bits.
+  return TOKEN_PREFIX + randomBytes(30).toString("base64url");
+}
+
+type TokenRow = InstanceType<ReturnType<typeof db>["models"]["ApiToken"]>;
+
+async function toTokenInfo(row: TokenRow, envSlugs?: Map<string, string>): Promise<TokenInfo> {
+  let environment: string | null = null;
+  if (row.environmentId) {
+    environment =
+      envSlugs?.get(row.environmentId) ?? (await db().models.Environment.findByPk(row.environmentId))?.slug ?? null;
+  }
+  return {
+    id: row.id,
+    name: row.name,
+    prefix: row.prefix,
+    scopes: row.scopes,
+    environment,
+    source: row.sourceName,
+    createdBy: row.createdBy,
+    createdAt: row.createdAt.toISOString(),
+    lastUsedAt: row.lastUsedAt?.toISOString() ?? null,
+    revokedAt: row.revokedAt?.toISOString() ?? null,
+  };
+}
+
+export async function createToken(input: {
+  name: string;
+  scopes: TokenScope[];
+  environmentId: string | null;
+  source: string | null;
+  createdBy: string;
+}): Promise<{ token: string; info: TokenInfo }> {
+  const token = newSecret();
+  const row = await db().models.ApiToken.create({
+    name: input.name,
+    prefix: token.slice(0, 12),
+    secretHash: hashToken(token),
+    scopes: [...new Set(input.scopes)],
+    environmentId: input.environmentId,
+    sourceName: input.source,
+    createdBy: input.createdBy,
+    lastUsedAt: null,
+    revokedAt: null,
+  });
+  return { token, info: await toTokenInfo(row) };
+}
+
+export async function listTokens(): Promise<TokenInfo[]> {
+  const { ApiToken, Environment } = db().models;
+  const [rows, envs] = await Promise.all([ApiToken.findAll({ order: [["createdAt", "DESC"]] }), Environment.findAll()]);
+  const slugs = new Map(envs.map((e) => [e.id, e.slug]));
+  return Promise.all(rows.map((row) => toTokenInfo(row, slugs)));
+}
+
+/** Revoke; returns the token as it was before, or null when no such token exists. */
+export async function revokeToken({ id }: { id: string }): Promise<{ before: TokenInfo; after: TokenInfo } | null> {
+  const row = await db().models.ApiToken.findByPk(id);
+  if (!row) return null;
+  const before = await toTokenInfo(row);
+  if (!row.revokedAt) {
+    row.revokedAt = new Date();
+    await row.save();
+  }
+  return { before, after: await toTokenInfo(row) };
+}
+
+export interface TokenActorRow {
+  id: string;
+  name: string;
+  prefix: string;
+  scopes: TokenScope[];
+  environmentId: string | null;
+  sourceName: string | null;
+}
+
+/** The live token for this secret, touching its last-used time; null when unknown or revoked. */
+export async function authenticateToken({ token }: { token: string }): Promise<TokenActorRow | null> {
+  if (!token.startsWith(TOKEN_PREFIX)) return null;
+  const row = await db().models.ApiToken.findOne({ where: { secretHash: hashToken(token) } });
+  if (!row || row.revokedAt) return null;
+  // Last-used is informational: write it at most once a minute to keep pushes cheap.
+  if (!row.lastUsedAt || Date.now() - row.lastUsedAt.getTime() > 60_000) {
+    await row.update({ lastUsedAt: new Date() });
+  }
+  return {
+    id: row.id,
+    name: row.name,
+    prefix: row.prefix,
+    scopes: row.scopes,
+    environmentId: row.environmentId,
+    sourceName: row.sourceName,
+  };
+}

@@ -1,0 +1,41 @@
+// Users: the only module that reads or writes the users table for the app.
+import bcrypt from "bcryptjs";
+import { db } from "@/models";
+import type { Role } from "@/lib/auth/roles";
+
+export interface AppUser {
+  id: string;
+  email: string;
+  name: string;
+  role: Role;
+  active: boolean;
+}
+
+type UserRow = InstanceType<ReturnType<typeof db>["models"]["User"]>;
+
+export function toAppUser(row: UserRow): AppUser {
+  return { id: row.id, email: row.email, name: row.name, role: row.role, active: row.active };
+}
+
+let dummyHash: string | undefined;
+
+export const normaliseEmail = (email: string) => email.trim().toLowerCase();
+
+export async function getUserById({ id }: { id: string }): Promise<AppUser | null> {
+  const row = await db().models.User.findByPk(id);
+  return row ? toAppUser(row) : null;
+}
+
+/** The user whose password matches, or null (unknown, inactive and wrong all look the same). */
+export async function verifyPassword({ email, password }: { email: string; password: string }): Promise<AppUser | null> {
+  const row = await db().models.User.findOne({ where: { email: normaliseEmail(email) } });
+  // Compare against a throwaway hash when the account is missing so timing does not tell accounts apart.
+  const hash = row?.passwordHash ?? (dummyHash ??= await bcrypt.hash("not-a-password", 10));
+  const ok = await bcrypt.compare(password, hash);
+  if (!row || !ok || !row.active || !row.passwordHash) return null;
+  return toAppUser(row);
+}
+
+export async function hashPassword(password: string): Promise<string> {
+  return bcrypt.hash(password, 10);
+}

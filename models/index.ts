@@ -1,0 +1,80 @@
+// The one Sequelize instance and its initialised models.
+//
+// Next copies a module into each server bundle, so module-level singletons can exist twice.
+// The instance and the model classes it initialised are kept together on globalThis, and every
+// caller reaches models through `db().models`, never by importing a class directly.
+import pg from "pg";
+import { Sequelize } from "sequelize";
+import { ApiToken } from "./ApiToken";
+import { AuditEvent } from "./AuditEvent";
+import { Component } from "./Component";
+import { ComponentAnnotation } from "./ComponentAnnotation";
+import { Dependency } from "./Dependency";
+import { Environment } from "./Environment";
+import { ImportRecord } from "./ImportRecord";
+import { Membership } from "./Membership";
+import { ObservedDependency } from "./ObservedDependency";
+import { SignInAttempt } from "./SignInAttempt";
+import { Snapshot } from "./Snapshot";
+import { Source } from "./Source";
+import { Team } from "./Team";
+import { User } from "./User";
+import { AnalysisRun } from "./AnalysisRun";
+import { ComponentMetric } from "./ComponentMetric";
+
+function initModels(sequelize: Sequelize) {
+  return {
+    User: User.initModel(sequelize),
+    Team: Team.initModel(sequelize),
+    Membership: Membership.initModel(sequelize),
+    Environment: Environment.initModel(sequelize),
+    Source: Source.initModel(sequelize),
+    Component: Component.initModel(sequelize),
+    Dependency: Dependency.initModel(sequelize),
+    ObservedDependency: ObservedDependency.initModel(sequelize),
+    ComponentAnnotation: ComponentAnnotation.initModel(sequelize),
+    Snapshot: Snapshot.initModel(sequelize),
+    ImportRecord: ImportRecord.initModel(sequelize),
+    ApiToken: ApiToken.initModel(sequelize),
+    AuditEvent: AuditEvent.initModel(sequelize),
+    SignInAttempt: SignInAttempt.initModel(sequelize),
+    AnalysisRun: AnalysisRun.initModel(sequelize),
+    ComponentMetric: ComponentMetric.initModel(sequelize),
+  };
+}
+
+export type Models = ReturnType<typeof initModels>;
+export interface Db {
+  sequelize: Sequelize;
+  models: Models;
+}
+
+const holder = globalThis as unknown as { __pinchpointDb?: Db };
+
+export function databaseUrl(): string {
+  const url = process.env.DATABASE_URL;
+  if (!url) {
+    throw new Error("DATABASE_URL is not set: start PostgreSQL with `npm start` (or scripts/pg.sh start) first");
+  }
+  return url;
+}
+
+export function db(): Db {
+  if (!holder.__pinchpointDb) {
+    const sequelize = new Sequelize(databaseUrl(), {
+      dialect: "postgres",
+      dialectModule: pg,
+      logging: process.env.PINCHPOINT_SQL_LOG === "1" ? console.log : false,
+      pool: { max: Number(process.env.PINCHPOINT_DB_POOL ?? 10), min: 0, idle: 10_000 },
+    });
+    holder.__pinchpointDb = { sequelize, models: initModels(sequelize) };
+  }
+  return holder.__pinchpointDb;
+}
+
+/** For scripts and tests: close the pool so the process can exit. */
+export async function closeDb(): Promise<void> {
+  const current = holder.__pinchpointDb;
+  holder.__pinchpointDb = undefined;
+  if (current) await current.sequelize.close();
+}

@@ -1,0 +1,39 @@
+// The analysis worker: takes jobs from the queue in PostgreSQL and runs them, off the request path.
+// Run any number of these (npm start runs one); they share the queue without stepping on each other.
+import { closeDb } from "../models";
+import { claimNextJob, runJob, workerId } from "../lib/data/analysis-jobs";
+
+const POLL_MS = Number(process.env.PINCHPOINT_WORKER_POLL_MS ?? 500);
+let stopping = false;
+
+async function main() {
+  const id = workerId();
+  console.log(`[worker] ${id} waiting for analysis jobs`);
+  while (!stopping) {
+    const job = await claimNextJob(id).catch((error: unknown) => {
+      console.error("[worker] could not reach the queue:", error instanceof Error ? error.message : error);
+      return null;
+    });
+    if (!job) {
+      await new Promise((r) => setTimeout(r, POLL_MS));
+      continue;
+    }
+    const started = Date.now();
+    const outcome = await runJob(job, id);
+    console.log(`[worker] snapshot ${job.snapshot_id}: ${outcome} in ${Date.now() - started} ms`);
+  }
+  await closeDb();
+}
+
+for (const signal of ["SIGINT", "SIGTERM"] as const) {
+  process.on(signal, () => {
+    // Finish the job in hand; an interrupted one is re-queued by its stale heartbeat anyway.
+    stopping = true;
+    setTimeout(() => process.exit(0), 5_000).unref();
+  });
+}
+
+main().catch((error: unknown) => {
+  console.error("[worker] stopped:", error);
+  process.exit(1);
+});

@@ -1,0 +1,53 @@
+# Shared by scripts/start.sh and scripts/test.sh. Sourced, not run.
+root=$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)
+export NEXT_TELEMETRY_DISABLED=1
+
+log() { echo "[pinchpoint] $*" >&2; }
+
+# npm dependencies: install when node_modules is missing or older than the lockfile.
+ensure_node_modules() {
+  if [ ! -f "$root/node_modules/.package-lock.json" ] || [ "$root/package-lock.json" -nt "$root/node_modules/.package-lock.json" ]; then
+    log "installing npm dependencies (npm ci)"
+    (cd "$root" && npm ci --no-audit --no-fund --loglevel=error) >&2
+  fi
+}
+
+# Debian packages, installed only when a command they provide is missing.
+ensure_apt() {
+  local missing=()
+  while [ $# -gt 0 ]; do
+    local probe=$1 pkg=$2
+    shift 2
+    eval "$probe" >/dev/null 2>&1 || missing+=("$pkg")
+  done
+  [ ${#missing[@]} -eq 0 ] && return 0
+  if [ "$(id -u)" != 0 ]; then log "missing Debian packages (${missing[*]}) and not root: install them first"; return 1; fi
+  log "installing Debian packages: ${missing[*]}"
+  DEBIAN_FRONTEND=noninteractive apt-get update -qq >&2
+  DEBIAN_FRONTEND=noninteractive apt-get install -y -qq --no-install-recommends "${missing[@]}" >&2
+}
+
+# A secret kept in .data/, generated once.
+ensure_secret() {
+  local file="$root/.data/$1"
+  mkdir -p "$root/.data"
+  [ -s "$file" ] || { head -c 32 /dev/urandom | base64 | tr -d '\n' > "$file"; chmod 600 "$file"; }
+  cat "$file"
+}
+
+# Rebuild when any source file is newer than the last build.
+needs_build() {
+  local stamp="$root/.next/BUILD_ID"
+  [ -f "$stamp" ] || return 0
+  [ -n "$(cd "$root" && find app components lib models importers fonts public proxy.ts next.config.mjs package-lock.json postcss.config.mjs \
+      -newer "$stamp" -type f -print -quit 2>/dev/null)" ]
+}
+
+wait_for_http() {
+  local url=$1 tries=0
+  until curl -fsS -o /dev/null "$url" 2>/dev/null; do
+    tries=$((tries + 1))
+    [ $tries -gt 150 ] && { log "no answer from $url after 30 s"; return 1; }
+    sleep 0.2
+  done
+}

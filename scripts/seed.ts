@@ -1,0 +1,26 @@
+// npm run db:seed — the Harbor Pantry demo (demo mode only), then analysis of what it pushed.
+import path from "node:path";
+import { closeDb } from "../models";
+import { migrateToLatest } from "../models/migrate";
+import { db } from "../models";
+import { drainAnalysisQueue } from "../lib/data/analysis-jobs";
+import { seedDemo } from "../lib/data/seed";
+
+async function main() {
+  if (process.env.PINCHPOINT_DEMO !== "1") {
+    console.log("[seed] not in demo mode (PINCHPOINT_DEMO=1): no demo data, no default password");
+    return;
+  }
+  await migrateToLatest(db().sequelize);
+  await seedDemo({ examplesDir: path.resolve(__dirname, "../examples/harbor-pantry") });
+  const ran = await drainAnalysisQueue();
+  if (ran) console.log(`[seed] analysed ${ran} snapshot(s)`);
+}
+
+main()
+  .then(() => closeDb())
+  .catch(async (error: unknown) => {
+    console.error("[seed] failed:", error);
+    await closeDb();
+    process.exit(1);
+  });

@@ -1,0 +1,40 @@
+#!/usr/bin/env bash
+# npm test: the whole suite from a fresh machine — installs what is missing (npm packages,
+# Debian's PostgreSQL, Chromium and the Python reference libraries), starts its own PostgreSQL
+# (never the demo's), then lint, typecheck, unit, integration and end-to-end tests.
+set -euo pipefail
+source "$(dirname "${BASH_SOURCE[0]}")/lib.sh"
+cd "$root"
+started=$(date +%s)
+step() { log "── $* ($(( $(date +%s) - started )) s)"; }
+
+ensure_node_modules
+ensure_apt \
+  "test -x /usr/bin/chromium" chromium \
+  "python3 -c 'import networkx'" python3-networkx \
+  "python3 -c 'import igraph'" python3-igraph \
+  "command -v curl" curl
+
+# Our own cluster: another port and folder than the demo's, fsync off (throwaway data).
+export PINCHPOINT_PG_PORT=${PINCHPOINT_TEST_PG_PORT:-54339}
+export PINCHPOINT_PG_NAME=pg-test
+export PINCHPOINT_PG_OPTIONS="-c fsync=off -c synchronous_commit=off -c full_page_writes=off"
+eval "$(bash scripts/pg.sh start)"
+export PINCHPOINT_TEST_ADMIN_URL=$DATABASE_URL
+export NEXTAUTH_SECRET=test-secret-not-for-production
+export PINCHPOINT_DEMO=1
+
+step "lint"
+npx eslint --max-warnings=0 .
+step "typecheck"
+npx tsc --noEmit
+step "unit tests"
+npx vitest run --project unit
+step "integration tests"
+npx vitest run --project integration
+
+step "end-to-end: build"
+if needs_build; then npx next build >/dev/null; fi
+step "end-to-end: tests"
+npx tsx tests/e2e/run.ts
+step "all passed"

@@ -1,0 +1,201 @@
+#!/bin/sh
+# Push one inventory file to Pinchpoint: a dry run on pull requests, a real push on the
+# main branch. Needs curl; uses jq for readable output when it is installed.
+#
+#   push-inventory.sh [--dry-run | --push] [--env ENV] [--format F --source S] FILE
+#
+# Environment:
+#   PINCHPOINT_URL          base URL, e.g. https://pinchpoint.example.org (required)
+#   PINCHPOINT_TOKEN        API token with the inventory:write scope (required)
+#   PINCHPOINT_ENV          environment slug (default: production)
+#   PINCHPOINT_MODE         dry-run | push | auto (default: auto; a flag wins over it)
+#   PINCHPOINT_MAIN_BRANCH  the branch whose builds really push (default: main)
+#   PINCHPOINT_BRANCH       the branch being built, when the CI's own variable is not
+#                           one of GITHUB_REF_NAME, CI_COMMIT_BRANCH, BRANCH_NAME, GIT_BRANCH
+#
+# In auto mode the script looks at common CI variables (an event in CI_EVENT,
+# GITHUB_EVENT_NAME or CI_PIPELINE_SOURCE; the branch): a pull- or merge-request event
+# gives a dry run; a build of the main branch gives a push; anything it cannot tell is a
+# dry run, so a misconfigured pipeline never changes the stored graph by accident.
+#
+# Exit status: 0 accepted (or dry run passed), 1 rejected by the server, 2 usage or
+# set-up problem, 3 the server could not be reached.
+set -eu
+
+usage() {
+  # The header comment above is the help text.
+  awk 'NR > 1 && /^#/ { sub(/^# ?/, ""); print; next } NR > 1 { exit }' "$0" >&2
+  exit 2
+}
+
+die() {
+  printf 'push-inventory: %s\n' "$1" >&2
+  exit 2
+}
+
+mode_flag=""
+env_slug="${PINCHPOINT_ENV:-production}"
+format=""
+source_name=""
+file=""
+
+while [ "$#" -gt 0 ]; do
+  case "$1" in
+    --dry-run) mode_flag="dry-run" ;;
+    --push) mode_flag="push" ;;
+    --env) [ "$#" -ge 2 ] || usage; env_slug="$2"; shift ;;
+    --format) [ "$#" -ge 2 ] || usage; format="$2"; shift ;;
+    --source) [ "$#" -ge 2 ] || usage; source_name="$2"; shift ;;
+    -h | --help) usage ;;
+    -*) die "unknown option $1" ;;
+    *) [ -z "$file" ] || die "one file at a time (push-all.sh pushes several)"; file="$1" ;;
+  esac
+  shift
+done
+
+[ -n "$file" ] || usage
+[ -f "$file" ] || die "no such file: $file"
+[ -n "${PINCHPOINT_URL:-}" ] || die "PINCHPOINT_URL is not set"
+[ -n "${PINCHPOINT_TOKEN:-}" ] || die "PINCHPOINT_TOKEN is not set"
+command -v curl >/dev/null 2>&1 || die "curl is not installed"
+case "$env_slug" in
+  "" | -* | *[!a-z0-9-]*) die "not an environment slug: $env_slug" ;;
+esac
+
+# --- decide between a dry run and a real push ---------------------------------------
+main_branch="${PINCHPOINT_MAIN_BRANCH:-main}"
+mode="${mode_flag:-${PINCHPOINT_MODE:-auto}}"
+reason="requested"
+if [ "$mode" = "auto" ]; then
+  event="${CI_EVENT:-${GITHUB_EVENT_NAME:-${CI_PIPELINE_SOURCE:-}}}"
+  branch="${PINCHPOINT_BRANCH:-${GITHUB_REF_NAME:-${CI_COMMIT_BRANCH:-${BRANCH_NAME:-${GIT_BRANCH:-}}}}}"
+  branch="${branch#origin/}"
+  case "$event" in
+    *pull_request* | *merge_request*)
+      mode="dry-run"; reason="CI event '$event'" ;;
+    *)
+      if [ -n "$branch" ] && [ "$branch" = "$main_branch" ]; then
+        mode="push"; reason="branch '$branch'"
+      elif [ -n "$branch" ]; then
+        mode="dry-run"; reason="branch '$branch' is not '$main_branch'"
+      else
+        mode="dry-run"; reason="no CI event or branch found"
+      fi ;;
+  esac
+fi
+case "$mode" in
+  dry-run | push) ;;
+  *) die "PINCHPOINT_MODE must be dry-run, push or auto (got '$mode')" ;;
+esac
+
+# --- build the request ---------------------------------------------------------------
+case "$file" in
+  *.json) content_type="application/json" ;;
+  *.csv) content_type="text/csv" ;;
+  *) content_type="application/yaml" ;;
+esac
+
+query=""
+add_query() {
+  if [ -z "$query" ]; then query="?$1"; else query="$query&$1"; fi
+}
+[ "$mode" = "dry-run" ] && add_query "dry_run=true"
+[ -n "$format" ] && add_query "format=$format"
+[ -n "$source_name" ] && add_query "source=$source_name"
+
+url="${PINCHPOINT_URL%/}/api/v1/environments/$env_slug/inventory$query"
+body="$(mktemp)"
+trap 'rm -f "$body"' EXIT
+trap 'exit 130' HUP INT TERM
+
+printf '%s %s to %s (%s)\n' "$mode" "$file" "$env_slug" "$reason"
+
+# The token goes to curl on stdin, not on its command line, so it never shows in `ps`.
+if ! status="$(printf 'Authorization: Bearer %s\n' "$PINCHPOINT_TOKEN" |
+  curl --silent --show-error --location --max-time 120 \
+    --request POST \
+    --header @- \
+    --header "Content-Type: $content_type" \
+    --header "Accept: application/json" \
+    --data-binary "@$file" \
+    --output "$body" \
+    --write-out '%{http_code}' \
+    "$url")"; then
+  printf 'push-inventory: could not reach %s\n' "$PINCHPOINT_URL" >&2
+  exit 3
+fi
+
+have_jq=false
+if command -v jq >/dev/null 2>&1 && jq -e . "$body" >/dev/null 2>&1; then
+  have_jq=true
+fi
+
+# Issues and warnings as file:line:column: message, the shape editors and CI log
+# viewers turn into links.
+print_issues() { # $1 = jq path to the list, $2 = error | warning
+  jq -r --arg file "$file" --arg level "$2" '
+    ('"$1"' // [])[]
+    | (if .line then "\($file):\(.line):\(.column // 1)" else $file end) as $where
+    | "\($where): \($level): \(.message)" + (if .path and .path != "" then " (at \(.path))" else "" end)
+  ' "$body"
+}
+
+# GitHub Actions reads workflow commands from standard output.
+annotate() { # $1 = jq path to the list, $2 = error | warning
+  if [ "${GITHUB_ACTIONS:-}" = "true" ]; then
+    jq -r --arg file "$file" --arg level "$2" '
+      ('"$1"' // [])[]
+      | "::\($level) file=\($file)" + (if .line then ",line=\(.line),col=\(.column // 1)" else "" end)
+        + "::" + (.message | gsub("%"; "%25") | gsub("\r"; "%0D") | gsub("\n"; "%0A"))
+    ' "$body"
+  fi
+}
+
+case "$status" in
+  2??)
+    if $have_jq; then
+      jq -r '
+        "changed: \(.changed)",
+        (if .snapshot then "snapshot: #\(.snapshot.number) (\(.snapshot.createdAt))"
+         else "snapshot: none" end),
+        ((.diff // {}) | to_entries[]
+          | "  \(.key): \(.value | if type == "array" then length else . end)")
+      ' "$body"
+      count="$(jq -r '(.warnings // []) | length' "$body")"
+      printf 'warnings: %s\n' "$count"
+      print_issues .warnings warning
+      annotate .warnings warning
+    else
+      cat "$body"; echo
+    fi
+    if [ "$mode" = "dry-run" ]; then
+      echo "dry run: nothing was stored"
+    fi
+    exit 0
+    ;;
+  422)
+    printf 'rejected (HTTP 422): the file is not a valid inventory\n' >&2
+    if $have_jq; then
+      print_issues .issues error >&2
+      annotate .issues error
+    else
+      cat "$body" >&2; echo >&2
+    fi
+    exit 1
+    ;;
+  000)
+    printf 'push-inventory: no HTTP answer from %s\n' "$PINCHPOINT_URL" >&2
+    exit 3
+    ;;
+  *)
+    if $have_jq; then
+      jq -r --arg status "$status" \
+        '"rejected (HTTP \($status)): \(.error // "error"): \(.message // "")"' "$body" >&2
+      print_issues .issues error >&2
+    else
+      printf 'rejected (HTTP %s):\n' "$status" >&2
+      cat "$body" >&2; echo >&2
+    fi
+    exit 1
+    ;;
+esac

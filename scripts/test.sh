@@ -36,5 +36,5 @@ npx vitest run --project integration
 step "end-to-end: build"
 if needs_build; then npx next build >/dev/null; fi
 step "end-to-end: tests"
-npx tsx tests/e2e/run.ts
+npx vitest run --project e2e
 step "all passed"

@@ -1,0 +1,147 @@
+// Benchmark of the analysis engine (npm run bench). Speed is measured here, never in tests.
+//   npx tsx scripts/bench.ts                     all sections
+//   npx tsx scripts/bench.ts --only measures     one section (measures | igraph)
+//   npx tsx scripts/bench.ts --compare-igraph    also time python3-igraph on the 20k graph
+//   npx tsx scripts/bench.ts --edge-list FILE    one JSON line for a `from to` edge list
+import { execFileSync } from "node:child_process";
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { analyse } from "../lib/analysis";
+import { betweennessParallel } from "../lib/analysis/betweenness";
+import { buildGraph, type CompactGraph } from "../lib/analysis/graph";
+import { pagerank } from "../lib/analysis/pagerank";
+import type { AnalysisInput } from "../lib/analysis/types";
+import { generateGraph, toEdgeList } from "./bench/generate";
+
+const PYTHON = process.env.PINCHPOINT_PYTHON ?? "/usr/bin/python3";
+const args = process.argv.slice(2);
+const flag = (name: string): boolean => args.includes(name);
+const value = (name: string): string | undefined => {
+  const i = args.indexOf(name);
+  return i >= 0 ? args[i + 1] : undefined;
+};
+
+const ms = (t0: number): number => Math.round((performance.now() - t0) * 10) / 10;
+const mib = (bytes: number): string => `${(bytes / 1048576).toFixed(0)} MiB`;
+
+interface Section {
+  name: string;
+  /** Run when no --only is given (otherwise only on request). */
+  byDefault: boolean;
+  run: () => Promise<void>;
+}
+
+async function timeAll(label: string, input: AnalysisInput): Promise<void> {
+  const t0 = performance.now();
+  const graph = buildGraph(input);
+  const build = ms(t0);
+  const t1 = performance.now();
+  const r = await analyse(graph);
+  const total = ms(t1);
+  const parts = Object.entries(r.timings)
+    .filter(([k]) => k !== "graph")
+    .map(([k, v]) => `${k} ${Math.round(v ?? 0)}`)
+    .join(", ");
+  const bc = r.graph.exact ? "exact" : `sampled ${r.graph.sampleSize}`;
+  console.log(
+    `${label.padEnd(5)} n=${graph.n} m=${graph.edgeCount} build ${build} ms, all measures ${total} ms ` +
+      `(betweenness ${bc}, ${r.graph.betweennessThreads} thread(s); ${parts} ms)`,
+  );
+}
+
+const sections: Section[] = [
+  {
+    name: "measures",
+    byDefault: true,
+    run: async () => {
+      console.log("# per-measure times, seeded preferential-attachment graphs, out-degree 3, 5 cycles closed");
+      for (const n of [1000, 5000, 20000]) await timeAll(`${n / 1000}k`, generateGraph({ n, seed: 42 }));
+      const before = process.memoryUsage();
+      await timeAll("100k", generateGraph({ n: 100_000, seed: 42 }));
+      const after = process.memoryUsage();
+      const peak = process.resourceUsage().maxRSS * 1024;
+      console.log(
+        `100k memory: peak rss ${mib(peak)}, rss ${mib(after.rss)}, heap used ${mib(after.heapUsed)} ` +
+          `(before 100k: rss ${mib(before.rss)}), array buffers ${mib(after.arrayBuffers)}`,
+      );
+    },
+  },
+  {
+    name: "igraph",
+    byDefault: false,
+    run: async () => {
+      const input = generateGraph({ n: 20_000, seed: 42 });
+      const dir = mkdtempSync(join(tmpdir(), "pinchpoint-bench-"));
+      try {
+        const file = join(dir, "20k.txt");
+        writeFileSync(file, toEdgeList(input));
+        const graph = buildGraph(input);
+        const ours: number[] = [];
+        let threads = 1;
+        for (let i = 0; i < 3; i++) {
+          const t0 = performance.now();
+          threads = (await betweennessParallel(graph)).threadsUsed;
+          ours.push(ms(t0));
+        }
+        const out = execFileSync(PYTHON, [join(__dirname, "bench", "igraph_betweenness.py"), file, "3"], {
+          encoding: "utf8",
+        });
+        const ig = JSON.parse(out) as { igraph: string; nodes: number; edges: number; ms: number[] };
+        console.log(`# exact directed betweenness, same 20k edge list (n=${graph.n}, m=${graph.edgeCount}; igraph sees n=${ig.nodes}, m=${ig.edges})`);
+        console.log(`pinchpoint typed arrays: ${ours.join(" / ")} ms (3 calls, ${threads} thread(s) on the last)`);
+        console.log(`python3-igraph ${ig.igraph} (C):   ${ig.ms.map((x) => x.toFixed(1)).join(" / ")} ms (3 calls, load not timed)`);
+        console.log(`best-of-3 ratio pinchpoint / igraph: ${(Math.min(...ours) / Math.min(...ig.ms)).toFixed(2)}`);
+      } finally {
+        rmSync(dir, { recursive: true, force: true });
+      }
+    },
+  },
+];
+
+function readEdgeList(file: string): AnalysisInput {
+  const keys = new Set<string>();
+  const edges: AnalysisInput["edges"] = [];
+  for (const line of readFileSync(file, "utf8").split("\n")) {
+    const [from, to] = line.trim().split(/\s+/);
+    if (!from || !to || from.startsWith("#")) continue;
+    keys.add(from);
+    keys.add(to);
+    edges.push({ from, to, strength: "hard", group: null });
+  }
+  return { nodes: [...keys].map((key) => ({ key, tier: 3, replicas: 1, zones: [], team: null })), edges };
+}
+
+async function edgeListLine(file: string): Promise<void> {
+  const graph: CompactGraph = buildGraph(readEdgeList(file));
+  let t0 = performance.now();
+  await betweennessParallel(graph);
+  const betweennessMs = ms(t0);
+  t0 = performance.now();
+  pagerank(graph);
+  const pagerankMs = ms(t0);
+  t0 = performance.now();
+  await analyse(graph);
+  const allMs = ms(t0);
+  console.log(
+    JSON.stringify({ nodes: graph.n, edges: graph.edgeCount, betweenness_ms: betweennessMs, pagerank_ms: pagerankMs, all_measures_ms: allMs }),
+  );
+}
+
+async function main(): Promise<void> {
+  const edgeList = value("--edge-list");
+  if (edgeList) return edgeListLine(edgeList);
+  const only = value("--only");
+  if (only && !sections.some((s) => s.name === only)) {
+    throw new Error(`unknown section ${only}; sections: ${sections.map((s) => s.name).join(", ")}`);
+  }
+  for (const s of sections) {
+    const wanted = only ? s.name === only : s.byDefault || (s.name === "igraph" && flag("--compare-igraph"));
+    if (wanted) await s.run();
+  }
+}
+
+main().catch((err: unknown) => {
+  console.error(err);
+  process.exit(1);
+});

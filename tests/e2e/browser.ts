@@ -1,0 +1,26 @@
+// Headless Chromium from Debian, driven by playwright-core (no browser download).
+import { mkdirSync } from "node:fs";
+import path from "node:path";
+import { chromium, type Browser, type Page } from "playwright-core";
+
+export const baseUrl = () => {
+  const url = process.env.PINCHPOINT_E2E_URL;
+  if (!url) throw new Error("PINCHPOINT_E2E_URL is not set: the e2e global setup starts the app");
+  return url;
+};
+
+export const SCREENSHOT_DIR = path.resolve(__dirname, "../../test-results/screenshots");
+
+export async function launch(): Promise<Browser> {
+  return chromium.launch({
+    executablePath: process.env.PINCHPOINT_CHROMIUM ?? "/usr/bin/chromium",
+    args: ["--headless", "--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run", "--disable-background-networking", "--disable-component-update", "--disable-sync"],
+  });
+}
+
+export async function screenshot(page: Page, name: string): Promise<string> {
+  mkdirSync(SCREENSHOT_DIR, { recursive: true });
+  const file = path.join(SCREENSHOT_DIR, `${name}.png`);
+  await page.screenshot({ path: file, fullPage: true });
+  return file;
+}

@@ -7,30 +7,12 @@ import type { ReactNode } from "react";
 import { Logo } from "@/components/ui/Logo";
 import { ThemeToggle } from "./ThemeToggle";
 import { ROLE_LABELS, roleHas, type Role } from "@/lib/auth/roles";
-
-interface NavItem {
-  label: string;
-  href: (env: string) => string;
-  match: (path: string, env: string) => boolean;
-  adminOnly?: boolean;
-}
-
-const envPath = (env: string, rest = "") => `/environments/${env}${rest}`;
-const under = (rest: string) => (path: string, env: string) => path.startsWith(envPath(env, rest));
-
-export const NAV: NavItem[] = [
-  { label: "Overview", href: (env) => envPath(env), match: (p, env) => p === "/" || p === envPath(env) },
-];
-
-export function envFromPath(path: string, fallback: string): string {
-  const match = /^\/environments\/([a-z0-9][a-z0-9-]{0,62})/.exec(path);
-  return match?.[1] ?? fallback;
-}
+import { NAV, envFromPath } from "./nav";
 
 export function AppShell({ user, defaultEnv, children }: { user: { name: string; email: string; role: Role }; defaultEnv: string; children: ReactNode }) {
   const path = usePathname();
   const env = envFromPath(path, defaultEnv);
-  const items = NAV.filter((item) => !item.adminOnly || roleHas(user.role, "admin"));
+  const items = NAV.filter((item) => !item.permission || roleHas(user.role, item.permission));
   return (
     <div className="flex min-h-screen flex-col">
       <header className="sticky top-0 z-30 flex h-12 items-center gap-6 border-b border-line bg-surface/95 px-4 backdrop-blur">

@@ -1,0 +1,27 @@
+// GET /api/v1/environments/{env}/components/{key} — everything known about one component.
+// PATCH — `{ team?, notes? }`: owner and notes (lead of the team, architect, admin), audited.
+import { NextResponse } from "next/server";
+import { parseParams, readJson } from "@/lib/api/query";
+import { annotateBodySchema } from "@/lib/api/schemas/analysis";
+import { componentParamsSchema } from "@/lib/api/schemas/common";
+import { withPermission } from "@/lib/auth/with-permission";
+import { getAnalysisView } from "@/lib/data/analysis-results";
+import { annotateComponent } from "@/lib/data/annotations";
+import { getComponentDetail, getComponentMetrics } from "@/lib/data/component-detail";
+import { getEnvironmentOrThrow } from "@/lib/data/environments";
+import { parseOrThrow } from "@/lib/errors";
+
+export const GET = withPermission<{ env: string; key: string }>("read", async ({ params }) => {
+  const { env, key } = parseParams(params, componentParamsSchema);
+  const environment = await getEnvironmentOrThrow({ slug: env });
+  const [detail, view] = await Promise.all([getComponentDetail({ environmentId: environment.id, key }), getAnalysisView({ environmentId: environment.id })]);
+  const metrics = view.served ? await getComponentMetrics({ snapshotId: view.served.id, key }) : null;
+  return NextResponse.json({ ...detail, metrics, snapshot: view.served ? { number: view.served.number, createdAt: view.served.createdAt } : null });
+});
+
+export const PATCH = withPermission<{ env: string; key: string }>("components:annotate", async ({ req, params, actor }) => {
+  const { env, key } = parseParams(params, componentParamsSchema);
+  const input = parseOrThrow(annotateBodySchema, await readJson(req), "body");
+  const environment = await getEnvironmentOrThrow({ slug: env });
+  return NextResponse.json(await annotateComponent({ environmentId: environment.id, key, input, actor }));
+});

@@ -1,0 +1,30 @@
+// The main navigation: every screen of DESIGN §6 at its stable URL.
+import type { Permission } from "@/lib/auth/roles";
+
+export interface NavItem {
+  label: string;
+  href: (env: string) => string;
+  match: (path: string, env: string) => boolean;
+  /** shown only to callers with this permission (the page checks again on the server) */
+  permission?: Permission;
+}
+
+const envPath = (env: string, rest = "") => `/environments/${env}${rest}`;
+const under = (rest: string) => (path: string, env: string) => path.startsWith(envPath(env, rest));
+
+export const NAV: NavItem[] = [
+  { label: "Overview", href: (env) => envPath(env), match: (p, env) => p === "/" || p === envPath(env) },
+  { label: "Map", href: (env) => envPath(env, "/map"), match: under("/map") },
+  { label: "Pinch points", href: (env) => envPath(env, "/pinch-points"), match: under("/pinch-points") },
+  { label: "Drills", href: (env) => envPath(env, "/drills"), match: under("/drills") },
+  { label: "Components", href: (env) => envPath(env, "/components"), match: under("/components") },
+  { label: "Imports", href: (env) => envPath(env, "/imports"), match: under("/imports") },
+  { label: "History", href: (env) => envPath(env, "/history"), match: under("/history") },
+  { label: "Teams", href: () => "/teams", match: (p) => p.startsWith("/teams") },
+  { label: "Admin", href: () => "/admin/users", match: (p) => p.startsWith("/admin"), permission: "admin" },
+];
+
+export function envFromPath(path: string, fallback: string): string {
+  const match = /^\/environments\/([a-z0-9][a-z0-9-]{0,62})/.exec(path);
+  return match?.[1] ?? fallback;
+}

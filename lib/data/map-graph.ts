@@ -1,0 +1,74 @@
+// The map's data: the served snapshot's components and dependencies with their measures and
+// effective owners, in the shape components/map/types.ts parses.
+import { QueryTypes } from "sequelize";
+import { db } from "@/models";
+import type { MapGraph } from "@/components/map/types";
+import { getAnalysisView } from "./analysis-results";
+import { listTeams } from "./teams";
+import { effectiveOwners, getSnapshotGraph } from "./snapshot-graph";
+
+export async function getMapGraph({ environmentId, slug }: { environmentId: string; slug: string }): Promise<MapGraph> {
+  const view = await getAnalysisView({ environmentId, withGraph: true });
+  const snapshot = view.served ?? view.latest;
+  const teams = (await listTeams()).map((t) => ({ slug: t.slug, name: t.name }));
+  if (!snapshot) return { environment: slug, snapshot: null, nodes: [], edges: [], teams };
+  const [{ content }, owners, metrics] = await Promise.all([
+    getSnapshotGraph({ snapshotId: snapshot.id }),
+    effectiveOwners({ environmentId }),
+    view.served
+      ? db().sequelize.query<{
+          key: string;
+          betweenness: number;
+          pagerank: number;
+          eigenvector: number;
+          clustering: number;
+          blast_down: number;
+          blast_degraded: number;
+          pinch_score: number;
+          articulation: boolean;
+          in_cycle: boolean;
+        }>("SELECT key, betweenness, pagerank, eigenvector, clustering, blast_down, blast_degraded, pinch_score, articulation, in_cycle FROM component_metrics WHERE snapshot_id = :id", {
+          type: QueryTypes.SELECT,
+          replacements: { id: view.served.id },
+        })
+      : Promise.resolve([]),
+  ]);
+  const byKey = new Map(metrics.map((m) => [m.key, m]));
+  const cycleOf = new Map<string, number>();
+  (view.graph?.cycles ?? []).forEach((cycle, i) => cycle.forEach((k) => cycleOf.set(k, i)));
+  return {
+    environment: slug,
+    snapshot: { number: snapshot.number, createdAt: snapshot.createdAt },
+    teams,
+    nodes: content.components.map((c) => {
+      const m = byKey.get(c.key);
+      return {
+        key: c.key,
+        name: c.name,
+        kind: c.kind,
+        team: owners.has(c.key) ? (owners.get(c.key) ?? null) : c.team,
+        tier: c.tier,
+        replicas: c.replicas,
+        zones: c.zones,
+        undeclared: c.kind === "undeclared",
+        metrics: m
+          ? {
+              betweenness: m.betweenness,
+              pagerank: m.pagerank,
+              eigenvector: m.eigenvector,
+              clustering: m.clustering,
+              blastDown: m.blast_down,
+              blastDegraded: m.blast_degraded,
+              pinchScore: m.pinch_score,
+              articulation: m.articulation,
+              inCycle: m.in_cycle,
+            }
+          : null,
+      };
+    }),
+    edges: content.dependencies.map((d) => {
+      const a = cycleOf.get(d.from);
+      return { from: d.from, to: d.to, strength: d.strength, group: d.group, inCycle: a !== undefined && a === cycleOf.get(d.to) };
+    }),
+  };
+}

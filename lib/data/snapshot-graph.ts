@@ -1,0 +1,116 @@
+// The compact graph of a snapshot, built once and kept in memory (snapshots are immutable, so a
+// snapshot id is a perfect cache key). Drills and the map read from here, never from the tables.
+import { QueryTypes } from "sequelize";
+import { db } from "@/models";
+import { buildGraph, drill, type CompactGraph, type DrillRequest } from "@/lib/analysis";
+import type { SnapshotContent } from "@/lib/inventory/snapshot";
+import { AppError } from "@/lib/errors";
+import { analysisInputFromContent } from "./analysis-jobs";
+
+interface Entry {
+  content: SnapshotContent;
+  graph: CompactGraph;
+}
+
+const CACHE_SIZE = 8;
+const holder = globalThis as unknown as { __pinchpointGraphs?: Map<string, Promise<Entry>> };
+const cache = (holder.__pinchpointGraphs ??= new Map());
+
+export async function getSnapshotGraph({ snapshotId }: { snapshotId: string }): Promise<Entry> {
+  const hit = cache.get(snapshotId);
+  if (hit) {
+    // refresh its place in the LRU order
+    cache.delete(snapshotId);
+    cache.set(snapshotId, hit);
+    return hit;
+  }
+  const load = (async () => {
+    const row = await db().models.Snapshot.findByPk(snapshotId, { attributes: ["content"] });
+    if (!row) throw new AppError("not_found", "Snapshot not found");
+    return { content: row.content, graph: buildGraph(analysisInputFromContent(row.content)) };
+  })();
+  cache.set(snapshotId, load);
+  load.catch(() => cache.delete(snapshotId));
+  while (cache.size > CACHE_SIZE) {
+    const oldest = cache.keys().next().value;
+    if (oldest === undefined) break;
+    cache.delete(oldest);
+  }
+  return load;
+}
+
+export interface TeamContact {
+  slug: string;
+  name: string;
+  email: string | null;
+  oncall: string | null;
+}
+
+export interface DrillResponse {
+  snapshot: { number: number; createdAt: string };
+  failed: { components: string[]; zones: string[] };
+  down: string[];
+  degraded: string[];
+  teams: Array<{ team: string | null; contact: TeamContact | null; down: string[]; degraded: string[] }>;
+  byTier: Record<"1" | "2" | "3" | "4", number>;
+}
+
+/** Owner of every component of the environment: the assigned team, else the declared one. */
+export async function effectiveOwners({ environmentId }: { environmentId: string }): Promise<Map<string, string | null>> {
+  const rows = await db().sequelize.query<{ key: string; owner_team: string | null }>(
+    "SELECT key, owner_team FROM component_annotations WHERE environment_id = :environmentId AND owner_team IS NOT NULL",
+    { type: QueryTypes.SELECT, replacements: { environmentId } },
+  );
+  return new Map(rows.map((r) => [r.key, r.owner_team]));
+}
+
+export async function teamContacts(): Promise<Map<string, TeamContact>> {
+  const rows = await db().models.Team.findAll();
+  return new Map(rows.map((t) => [t.slug, { slug: t.slug, name: t.name, email: t.email, oncall: t.oncall }]));
+}
+
+export async function runDrill({
+  environmentId,
+  snapshot,
+  request,
+}: {
+  environmentId: string;
+  snapshot: { id: string; number: number; createdAt: string };
+  request: DrillRequest;
+}): Promise<DrillResponse> {
+  const { graph } = await getSnapshotGraph({ snapshotId: snapshot.id });
+  const knownZones = new Set(graph.zones.flat());
+  const unknownZones = (request.zones ?? []).filter((z) => !knownZones.has(z));
+  if (unknownZones.length) {
+    throw new AppError("invalid_request", `No component runs in ${unknownZones.join(", ")}`, unknownZones.map((z) => ({ path: "fail.zones", message: `no component declares zone "${z}"; known zones: ${[...knownZones].sort().join(", ") || "none"}` })));
+  }
+  const result = drill(graph, request);
+  if (result.unknown.length) {
+    throw new AppError("invalid_request", `Unknown component${result.unknown.length > 1 ? "s" : ""}: ${result.unknown.join(", ")}`, result.unknown.map((k) => ({ path: "fail.components", message: `no component "${k}" in snapshot #${snapshot.number}` })));
+  }
+  const [assigned, contacts] = await Promise.all([effectiveOwners({ environmentId }), teamContacts()]);
+  const teamOf = (key: string): string | null => {
+    if (assigned.has(key)) return assigned.get(key) ?? null;
+    const i = graph.indexOf.get(key);
+    return i === undefined ? null : (graph.team[i] ?? null);
+  };
+  const byTeam = new Map<string | null, { down: string[]; degraded: string[] }>();
+  const slot = (team: string | null) => {
+    let e = byTeam.get(team);
+    if (!e) byTeam.set(team, (e = { down: [], degraded: [] }));
+    return e;
+  };
+  for (const k of result.down) slot(teamOf(k)).down.push(k);
+  for (const k of result.degraded) slot(teamOf(k)).degraded.push(k);
+  const teams = [...byTeam.entries()]
+    .map(([team, e]) => ({ team, contact: team ? (contacts.get(team) ?? null) : null, ...e }))
+    .sort((a, b) => b.down.length - a.down.length || b.degraded.length - a.degraded.length || (a.team ?? "~").localeCompare(b.team ?? "~"));
+  return {
+    snapshot: { number: snapshot.number, createdAt: snapshot.createdAt },
+    failed: { components: [...(request.components ?? [])], zones: [...(request.zones ?? [])] },
+    down: result.down,
+    degraded: result.degraded,
+    teams,
+    byTier: result.byTier,
+  };
+}

@@ -21,6 +21,11 @@ import { Team } from "./Team";
 import { User } from "./User";
 import { AnalysisRun } from "./AnalysisRun";
 import { ComponentMetric } from "./ComponentMetric";
+import { MapPosition } from "./MapPosition";
+// invites (admin users screen)
+import { Invite } from "./Invite";
+import { RiskReview } from "./RiskReview";
+import { OutboxMessage } from "./OutboxMessage";
 
 function initModels(sequelize: Sequelize) {
   return {
@@ -40,6 +45,11 @@ function initModels(sequelize: Sequelize) {
     SignInAttempt: SignInAttempt.initModel(sequelize),
     AnalysisRun: AnalysisRun.initModel(sequelize),
     ComponentMetric: ComponentMetric.initModel(sequelize),
+    MapPosition: MapPosition.initModel(sequelize),
+    // invites (admin users screen)
+    Invite: Invite.initModel(sequelize),
+    RiskReview: RiskReview.initModel(sequelize),
+    OutboxMessage: OutboxMessage.initModel(sequelize),
   };
 }
 

@@ -1,0 +1,179 @@
+"use client";
+// Custom React Flow nodes and edge for the map. Decoration (palette, selection) comes from
+// context so a colour-mode change does not rebuild the node array.
+import { createContext, memo, useContext } from "react";
+import { BaseEdge, Handle, Position, getSmoothStepPath, type EdgeProps, type NodeProps } from "@xyflow/react";
+import type { ComponentFlowNode, GroupFlowNode, MapFlowEdge, TeamFlowNode } from "./layout";
+import { polylineMidpoint, polylinePath } from "./layout";
+import { paintNode, type Palette } from "./colour";
+import { KIND_LABEL, shapePaths, textInset } from "./shapes";
+import { teamSlotOf } from "./view";
+
+export interface Decor {
+  palette: Palette;
+  teamNames: ReadonlyMap<string, string>;
+  selected: string | null;
+  /** components adjacent to the selection: their edges are drawn emphasised */
+  focus: string | null;
+  onToggleTeam(team: string): void;
+}
+
+export const DecorContext = createContext<Decor | null>(null);
+
+function useDecor(): Decor {
+  const d = useContext(DecorContext);
+  if (!d) throw new Error("map nodes rendered outside MapCanvas");
+  return d;
+}
+
+const hidden = { opacity: 0, pointerEvents: "none" as const };
+
+export const ComponentNode = memo(function ComponentNode(props: NodeProps<ComponentFlowNode>) {
+  const decor = useDecor();
+  const { node } = props.data.item;
+  const w = props.width ?? 184;
+  const h = props.height ?? 60;
+  const paint = paintNode(node, decor.palette);
+  const shape = shapePaths(node.kind, w, h);
+  const inset = textInset(node.kind);
+  const selected = decor.selected === node.key;
+  const showTeam = decor.palette.mode === "team";
+  const sub = showTeam ? `${KIND_LABEL[node.kind]} · ${decor.teamNames.get(teamSlotOf(node)) ?? ""}` : `${KIND_LABEL[node.kind]} · tier ${node.tier}`;
+  return (
+    <div
+      className="pp-node"
+      data-kind={node.kind}
+      data-selected={selected || undefined}
+      data-focus={decor.focus === node.key || undefined}
+      style={{ width: w, height: h }}
+      title={`${node.name} (${node.key})`}
+    >
+      <Handle type="target" position={Position.Top} isConnectable={false} style={hidden} />
+      <svg width={w} height={h} className="pp-node-shape" aria-hidden="true" overflow="visible">
+        <path
+          d={shape.outline}
+          fill={paint.fill}
+          className={paint.dashed ? "pp-outline pp-outline-dashed" : "pp-outline"}
+        />
+        {shape.detail ? <path d={shape.detail} fill="none" stroke={paint.text} strokeOpacity={0.45} /> : null}
+      </svg>
+      <div className="pp-node-text" style={{ color: paint.text, paddingLeft: inset.left, paddingRight: inset.right }}>
+        <span className="pp-node-name">{node.undeclared ? `? ${node.key}` : node.name}</span>
+        <span className="pp-node-kind">{sub}</span>
+      </div>
+      {node.metrics?.articulation ? (
+        <span className="pp-badge" title="Splits the graph: removing it disconnects parts of the estate">
+          splits
+        </span>
+      ) : null}
+      {props.data.pinned ? (
+        <span className="pp-pin" title="Position pinned">
+          pinned
+        </span>
+      ) : null}
+      <Handle type="source" position={Position.Bottom} isConnectable={false} style={hidden} />
+    </div>
+  );
+});
+
+export const TeamNode = memo(function TeamNode(props: NodeProps<TeamFlowNode>) {
+  const decor = useDecor();
+  const { item } = props.data;
+  const fill = decor.palette.mode === "team" ? (decor.palette.teamColours.get(item.team) ?? "var(--pp-raised)") : "var(--pp-raised)";
+  return (
+    <div className="pp-team" data-selected={decor.selected === item.id || undefined} style={{ width: props.width, height: props.height }}>
+      <Handle type="target" position={Position.Top} isConnectable={false} style={hidden} />
+      <span className="pp-team-swatch" style={{ background: fill }} aria-hidden="true" />
+      <span className="pp-team-name">{item.name}</span>
+      <span className="pp-team-count">{item.members.length} components · collapsed</span>
+      <button
+        type="button"
+        className="pp-team-toggle nodrag"
+        onClick={(e) => {
+          e.stopPropagation();
+          decor.onToggleTeam(item.team);
+        }}
+        aria-label={`Expand team ${item.name}`}
+      >
+        Expand
+      </button>
+      <Handle type="source" position={Position.Bottom} isConnectable={false} style={hidden} />
+    </div>
+  );
+});
+
+export const GroupNode = memo(function GroupNode(props: NodeProps<GroupFlowNode>) {
+  const decor = useDecor();
+  const { group } = props.data;
+  return (
+    <div className="pp-group" style={{ width: props.width, height: props.height }}>
+      <div className="pp-group-header">
+        <span>
+          {group.name} <span className="pp-group-count">({group.memberCount})</span>
+        </span>
+        <button
+          type="button"
+          className="pp-team-toggle nodrag"
+          onClick={() => decor.onToggleTeam(group.team)}
+          aria-label={`Collapse team ${group.name}`}
+        >
+          Collapse
+        </button>
+      </div>
+    </div>
+  );
+});
+
+export const RoutedEdge = memo(function RoutedEdge(props: EdgeProps<MapFlowEdge>) {
+  const decor = useDecor();
+  const data = props.data;
+  const edge = data?.edge;
+  const route = data?.route ?? null;
+  // A pinned or dragged endpoint makes ELK's route stale; fall back to a step path from the handles.
+  // Handles sit centred on the node border, a few pixels off the box, hence the tolerance.
+  const tol = 8;
+  const stale =
+    !route ||
+    !data?.expect ||
+    Math.abs(props.sourceX - data.expect.sx) > tol ||
+    Math.abs(props.sourceY - data.expect.sy) > tol ||
+    Math.abs(props.targetX - data.expect.tx) > tol ||
+    Math.abs(props.targetY - data.expect.ty) > tol;
+  const [stepPath] = getSmoothStepPath({
+    sourceX: props.sourceX,
+    sourceY: props.sourceY,
+    targetX: props.targetX,
+    targetY: props.targetY,
+    sourcePosition: props.sourcePosition,
+    targetPosition: props.targetPosition,
+    borderRadius: 4,
+  });
+  const path = !stale && route ? polylinePath(route) : stepPath;
+  const mid = !stale && route ? polylineMidpoint(route) : { x: (props.sourceX + props.targetX) / 2, y: (props.sourceY + props.targetY) / 2 };
+  const touched = decor.selected !== null && (props.source === decor.selected || props.target === decor.selected);
+  const cls = ["pp-edge", edge?.strength === "soft" ? "pp-edge-soft" : "", edge?.inCycle ? "pp-edge-cycle" : "", touched ? "pp-edge-touched" : ""]
+    .filter(Boolean)
+    .join(" ");
+  return (
+    <>
+      <BaseEdge id={props.id} path={path} markerEnd={props.markerEnd} className={cls} interactionWidth={0} />
+      {edge?.inCycle && mid ? (
+        <g className="pp-cycle-mark" transform={`translate(${mid.x},${mid.y})`}>
+          <title>Dependency cycle</title>
+          <circle r={8} />
+          <text textAnchor="middle" dy="3.5">
+            ↻
+          </text>
+        </g>
+      ) : null}
+      {edge && edge.count > 1 && mid ? (
+        <text className="pp-edge-count" x={mid.x + 10} y={mid.y - 6}>
+          {edge.count}
+        </text>
+      ) : null}
+    </>
+  );
+});
+
+export const nodeTypes = { component: ComponentNode, team: TeamNode, teamGroup: GroupNode };
+export const edgeTypes = { routed: RoutedEdge };

@@ -1,0 +1,63 @@
+// The map's input, exactly as `GET /api/v1/environments/{env}/graph` serves it.
+// The schema lets the client parse the response (a boundary) rather than trust it.
+import { z } from "zod";
+import { COMPONENT_KINDS, type ComponentKind } from "@/lib/inventory/types";
+
+export const MAP_KINDS = [...COMPONENT_KINDS, "undeclared"] as const satisfies readonly ComponentKind[];
+
+const metricsSchema = z.object({
+  betweenness: z.number(),
+  pagerank: z.number(),
+  eigenvector: z.number(),
+  clustering: z.number(),
+  blastDown: z.number(),
+  blastDegraded: z.number(),
+  pinchScore: z.number(),
+  articulation: z.boolean(),
+  inCycle: z.boolean(),
+});
+
+export const mapNodeSchema = z.object({
+  key: z.string(),
+  name: z.string(),
+  kind: z.enum(MAP_KINDS),
+  team: z.string().nullable(),
+  tier: z.union([z.literal(1), z.literal(2), z.literal(3), z.literal(4)]),
+  replicas: z.number().int(),
+  zones: z.array(z.string()),
+  undeclared: z.boolean(),
+  metrics: metricsSchema.nullable(),
+});
+
+export const mapEdgeSchema = z.object({
+  from: z.string(),
+  to: z.string(),
+  strength: z.enum(["hard", "soft"]),
+  group: z.string().nullable(),
+  inCycle: z.boolean(),
+});
+
+export const mapGraphSchema = z.object({
+  environment: z.string(),
+  snapshot: z.object({ number: z.number().int(), createdAt: z.string() }).nullable(),
+  nodes: z.array(mapNodeSchema),
+  edges: z.array(mapEdgeSchema),
+  teams: z.array(z.object({ slug: z.string(), name: z.string() })),
+});
+
+export type MapMetrics = z.infer<typeof metricsSchema>;
+export type MapNode = z.infer<typeof mapNodeSchema>;
+export type MapEdge = z.infer<typeof mapEdgeSchema>;
+export type MapGraph = z.infer<typeof mapGraphSchema>;
+
+// Compile-time guard: the schema's kind must stay the inventory's ComponentKind.
+type Same<A, B> = [A] extends [B] ? ([B] extends [A] ? true : false) : false;
+const kindsAgree: Same<MapNode["kind"], ComponentKind> = true;
+void kindsAgree;
+
+export type Position = { x: number; y: number };
+export type PinnedPositions = Record<string, Position>;
+
+/** What the map colours nodes by. */
+export const COLOUR_MODES = ["betweenness", "pinchScore", "blastDown", "tier", "team"] as const;
+export type ColourMode = (typeof COLOUR_MODES)[number];

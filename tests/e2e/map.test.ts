@@ -48,8 +48,10 @@ describe("map", () => {
     await page.locator(".react-flow__node").first().waitFor({ timeout: 60_000 });
     const all = await countFromApi();
     await expect.poll(async () => Number(await page.getByTestId("map-count").getAttribute("data-count")), { timeout: 30_000 }).toBeLessThan(all);
-    await page.locator('.react-flow__node[data-id="session-service"]').click();
-    await expect.poll(() => page.getByText("Betweenness").first().isVisible(), { timeout: 10_000 }).toBe(true);
+    await page.getByText(/laid out in/).waitFor({ timeout: 60_000 });
     await screenshot(page, "map-focus-session-service");
+    await page.locator('.react-flow__node[data-id="session-service"]').click();
+    await screenshot(page, "map-focus-inspector");
+    await expect.poll(() => page.getByText("Down with it").first().isVisible(), { timeout: 10_000 }).toBe(true);
   });
 });

@@ -1,0 +1,62 @@
+// A local stand-in for the company's single sign-on: an OpenID Connect provider (the
+// `oidc-provider` package) on loopback with a few invented demo identities. Started by `npm start`
+// and by the end-to-end tests; production points PINCHPOINT_OIDC_ISSUER at the real provider.
+import type { AddressInfo } from "node:net";
+import Provider, { type Configuration } from "oidc-provider";
+
+/** Invented people of the Harbor Pantry demo who sign in only through single sign-on. */
+export const DEMO_SSO_IDENTITIES: Record<string, { email: string; name: string }> = {
+  "sso-mara": { email: "mara.tideway@harbor-pantry.example", name: "Mara Tideway" },
+  "sso-jonas": { email: "jonas.bollard@harbor-pantry.example", name: "Jonas Bollard" },
+  // The same address as a password account: SSO links to that account instead of creating one.
+  "sso-viewer": { email: "viewer@harbor-pantry.example", name: "Iris Pollard (viewer)" },
+};
+
+export interface OidcStandInOptions {
+  port: number;
+  clientId: string;
+  clientSecret: string;
+  redirectUris: string[];
+}
+
+export async function startOidcStandIn(opts: OidcStandInOptions): Promise<{ issuer: string; close(): Promise<void> }> {
+  const issuer = `http://127.0.0.1:${opts.port}`;
+  const configuration: Configuration = {
+    clients: [
+      {
+        client_id: opts.clientId,
+        client_secret: opts.clientSecret,
+        redirect_uris: opts.redirectUris,
+        grant_types: ["authorization_code"],
+        response_types: ["code"],
+        token_endpoint_auth_method: "client_secret_basic",
+      },
+    ],
+    claims: { openid: ["sub"], email: ["email", "email_verified"], profile: ["name"] },
+    // The built-in development login and consent pages: the stand-in needs no UI of ours.
+    features: { devInteractions: { enabled: true } },
+    cookies: { keys: ["pinchpoint-oidc-stand-in-cookie-key"] },
+    async findAccount(_ctx, id) {
+      const person = DEMO_SSO_IDENTITIES[id];
+      if (!person) return undefined;
+      return {
+        accountId: id,
+        async claims() {
+          return { sub: id, email: person.email, email_verified: true, name: person.name };
+        },
+      };
+    },
+    pkce: { required: () => false },
+  };
+  const provider = new Provider(issuer, configuration);
+  const server = provider.listen(opts.port, "127.0.0.1");
+  await new Promise<void>((resolve, reject) => {
+    server.once("listening", () => resolve());
+    server.once("error", reject);
+  });
+  const port = (server.address() as AddressInfo).port;
+  return {
+    issuer: `http://127.0.0.1:${port}`,
+    close: () => new Promise((resolve) => server.close(() => resolve())),
+  };
+}

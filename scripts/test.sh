@@ -11,8 +11,8 @@ step() { log "── $* ($(( $(date +%s) - started )) s)"; }
 ensure_node_modules
 ensure_apt \
   "test -x /usr/bin/chromium" chromium \
-  "python3 -c 'import networkx'" python3-networkx \
-  "python3 -c 'import igraph'" python3-igraph \
+  "/usr/bin/python3 -c 'import networkx'" python3-networkx \
+  "/usr/bin/python3 -c 'import igraph'" python3-igraph \
   "command -v curl" curl
 
 # Our own cluster: another port and folder than the demo's, fsync off (throwaway data).

@@ -1,4 +1,5 @@
 // Input and output shapes of the analysis. Pure data: no database, no framework.
+import { z } from "zod";
 import type { Strength, Tier } from "../inventory/types";
 
 export interface AnalysisNode {
@@ -7,7 +8,7 @@ export interface AnalysisNode {
   replicas: number;
   zones: string[];
   team: string | null;
-  /** true when the node has no dependents and tier 1: an entry point for dominators */
+  /** true for a placeholder created for a key that no source declares */
   undeclared?: boolean;
 }
 
@@ -32,3 +33,97 @@ export interface PinchWeights {
 }
 
 export const DEFAULT_PINCH_WEIGHTS: PinchWeights = { betweenness: 0.4, reach: 0.4, single: 0.2 };
+
+/** Weights come from architects through the API: finite, non-negative, not all zero. */
+export const pinchWeightsSchema = z
+  .strictObject({
+    betweenness: z.number().min(0).max(1),
+    reach: z.number().min(0).max(1),
+    single: z.number().min(0).max(1),
+  })
+  .refine((w) => w.betweenness + w.reach + w.single > 0, { message: "at least one weight must be positive" });
+
+export const analysisOptionsSchema = z.strictObject({
+    weights: pinchWeightsSchema.optional(),
+    exactLimit: z.number().int().positive().optional(),
+    sampleSize: z.number().int().positive().optional(),
+    seed: z.number().int().optional(),
+    threads: z.number().int().min(1).max(64).optional(),
+    parallelThreshold: z.number().int().min(0).optional(),
+    minParallelMs: z.number().min(0).optional(),
+    maxDominatorTreeEntries: z.number().int().min(0).optional(),
+});
+
+export type AnalysisOptions = z.infer<typeof analysisOptionsSchema>;
+
+export interface DominatorInfo {
+  /** Entry components (tier 1, no dependents; not this one) that reach this component. */
+  reachedFrom: number;
+  /** Of those, how many it strictly dominates at least one component from. */
+  dominatesFrom: number;
+  /** Most components it strictly dominates from any one entry. */
+  maxDominated: number;
+}
+
+export interface NodeMetrics {
+  key: string;
+  betweenness: number;
+  pagerank: number;
+  eigenvector: number;
+  clustering: number;
+  articulation: boolean;
+  inCycle: boolean;
+  /** Components down when this one alone fails, itself excluded. */
+  blastDown: number;
+  blastDegraded: number;
+  pinchScore: number;
+  /** Stage in the boot order (0 = needs nothing). */
+  bootStage: number;
+  dominator: DominatorInfo;
+}
+
+export interface DominatorTreeResult {
+  root: string;
+  /** Immediate dominator of every component reachable from the root (the root maps to itself). */
+  idom: Record<string, string>;
+}
+
+export type AnalysisPhase =
+  | "graph"
+  | "betweenness"
+  | "pagerank"
+  | "eigenvector"
+  | "clustering"
+  | "articulation"
+  | "scc"
+  | "boot-order"
+  | "dominators"
+  | "blast-radius"
+  | "pinch-score"
+  | "done";
+
+export interface AnalysisResult {
+  nodes: NodeMetrics[];
+  graph: {
+    nodeCount: number;
+    edgeCount: number;
+    selfLoops: string[];
+    implicitKeys: string[];
+    bridges: Array<[string, string]>;
+    cycles: string[][];
+    bootOrder: { stages: string[][]; cycles: string[][]; waitingOnCycle: string[] };
+    exact: boolean;
+    sampleSize: number;
+    betweennessThreads: number;
+    pagerankConverged: boolean;
+    eigenvectorConverged: boolean;
+    dominatorRoots: string[];
+    /** null when the trees were larger than the configured cap (compute one on demand instead). */
+    dominatorTrees: DominatorTreeResult[] | null;
+    weights: PinchWeights;
+  };
+  /** Milliseconds per phase. */
+  timings: Partial<Record<AnalysisPhase, number>>;
+}
+
+export type ProgressCallback = (fraction: number, phase: AnalysisPhase) => void;

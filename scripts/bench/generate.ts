@@ -14,6 +14,8 @@ export interface GenerateOptions {
   /** Share of components with an any_of group of two alternatives. */
   anyOfShare?: number;
   softShare?: number;
+  /** Close one long dependency cycle through this many random components (a stress case). */
+  ring?: number;
 }
 
 const ZONES = ["zone-a", "zone-b", "zone-c"];
@@ -74,6 +76,13 @@ export function generateGraph(options: GenerateOptions): AnalysisInput {
       v = pick(next);
     }
     if (v !== start) edges.push({ from: key(v), to: key(start), strength: "hard", group: null });
+  }
+  const ring = Math.min(n, options.ring ?? 0);
+  if (ring > 1) {
+    const members = new Set<number>();
+    while (members.size < ring) members.add(Math.floor(rand() * n));
+    const list = [...members];
+    list.forEach((v, i) => edges.push({ from: key(v), to: key(list[(i + 1) % list.length]!), strength: "hard", group: null }));
   }
   return { nodes, edges };
 }

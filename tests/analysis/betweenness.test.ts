@@ -1,0 +1,87 @@
+// Betweenness beyond the closed forms: Float64 path counts, sampling, worker threads.
+import { DirectedGraph } from "graphology";
+import betweennessCentrality from "graphology-metrics/centrality/betweenness";
+import { describe, expect, it } from "vitest";
+import { betweenness, betweennessParallel } from "@/lib/analysis/betweenness";
+import { buildGraph } from "@/lib/analysis/graph";
+import { generateGraph } from "@/scripts/bench/generate";
+import { graphOf, range, type Pair } from "./helpers";
+
+describe("layered graph with more than 2^32 shortest paths", () => {
+  // 40 layers of width 3, every node of a layer needing every node of the next. From a node in
+  // layer 0 to one in layer 39 there are 3^38 ≈ 1.35·10^18 shortest paths, far beyond 2^32
+  // (3^21 already is). Closed form: a node in layer j lies, with share 1/w by symmetry, on the
+  // shortest paths of every pair (layer < j, layer > j): raw = w·j·w(L−1−j)/w = w·j·(L−1−j).
+  const L = 40;
+  const w = 3;
+  const pairs: Pair[] = [];
+  for (let j = 0; j + 1 < L; j++) for (const a of range(w)) for (const b of range(w)) pairs.push([`l${j}-${a}`, `l${j + 1}-${b}`]);
+  const g = graphOf(pairs);
+  const n = w * L;
+  const expected = (j: number): number => (w * j * (L - 1 - j)) / ((n - 1) * (n - 2));
+
+  it("matches the closed form on every node (Float64 path counts)", () => {
+    expect(3 ** 38).toBeGreaterThan(2 ** 32);
+    const values = betweenness(g).values;
+    for (let j = 0; j < L; j++) {
+      for (const a of range(w)) {
+        const v = g.indexOf.get(`l${j}-${a}`)!;
+        expect(Math.abs(values[v]! - expected(j)) / Math.max(expected(j), 1e-300)).toBeLessThan(1e-9);
+      }
+    }
+  });
+
+  it("graphology-metrics 2.4 does not (its 32-bit path counts wrap): why our own code is used", () => {
+    const dg = new DirectedGraph();
+    for (const [a, b] of pairs) dg.mergeEdge(a, b);
+    const gb = betweennessCentrality(dg, { normalized: true, getEdgeWeight: null });
+    const worst = Math.max(...range(L).map((j) => Math.abs(gb[`l${j}-0`]! - expected(j))));
+    expect(worst).toBeGreaterThan(1e-3);
+  });
+});
+
+describe("source sampling (Brandes & Pich 2007)", () => {
+  const g = buildGraph(generateGraph({ n: 800, seed: 7 }));
+
+  it("is exact up to the limit and sampled beyond it, reporting the sample size", () => {
+    const exact = betweenness(g);
+    expect(exact.exact).toBe(true);
+    expect(exact.sampleSize).toBe(800);
+    const sampled = betweenness(g, { exactLimit: 500, sampleSize: 200 });
+    expect(sampled.exact).toBe(false);
+    expect(sampled.sampleSize).toBe(200);
+  });
+
+  it("is deterministic for a seed and differs between seeds", () => {
+    const a = betweenness(g, { exactLimit: 0, sampleSize: 100, seed: 3 }).values;
+    const b = betweenness(g, { exactLimit: 0, sampleSize: 100, seed: 3 }).values;
+    const c = betweenness(g, { exactLimit: 0, sampleSize: 100, seed: 4 }).values;
+    expect(Array.from(a)).toEqual(Array.from(b));
+    expect(Array.from(a)).not.toEqual(Array.from(c));
+  });
+
+  it("finds the same top component as the exact ranking on a preferential-attachment graph", () => {
+    const top = (v: Float64Array): number => v.indexOf(Math.max(...v));
+    expect(top(betweenness(g, { exactLimit: 0, sampleSize: 400 }).values)).toBe(top(betweenness(g).values));
+  });
+});
+
+describe("worker threads", () => {
+  const g = buildGraph(generateGraph({ n: 1500, seed: 11 }));
+  const single = betweenness(g).values;
+
+  it("two threads give the single-thread result (also under vitest)", async () => {
+    const r = await betweennessParallel(g, { threads: 2, parallelThreshold: 0, minParallelMs: 0 });
+    expect(r.threadsUsed).toBe(2);
+    let d = 0;
+    for (let v = 0; v < g.n; v++) d = Math.max(d, Math.abs(r.values[v]! - single[v]!));
+    expect(d).toBeLessThan(1e-15);
+  });
+
+  it("stays on one thread for small graphs and reports progress up to 1", async () => {
+    const seen: number[] = [];
+    const r = await betweennessParallel(g, { onProgress: (f) => seen.push(f) });
+    expect(r.threadsUsed).toBe(1);
+    expect(seen.at(-1)).toBe(1);
+  });
+});

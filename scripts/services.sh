@@ -1,6 +1,13 @@
-# Local stand-ins for outside services (DESIGN §7). Sourced by start.sh and test.sh.
-# start_services ARRAY_NAME: starts each stand-in in the background and appends its pid.
+# Local stand-ins for outside services (DESIGN §7), started by start.sh. Sourced, not run.
+# start_services ARRAY_NAME: starts each stand-in in the background, appends its pid, and exports
+# the settings the app needs to reach it. A setting already given in the environment wins, and
+# pointing one at a real service (PINCHPOINT_OIDC_ISSUER, PINCHPOINT_SMTP_URL) skips its stand-in.
 start_services() {
   local -n _pids=$1
-  : "${_pids[@]+}"
+  if [ -z "${PINCHPOINT_OIDC_ISSUER:-}" ]; then
+    export PINCHPOINT_OIDC_PORT=${PINCHPOINT_OIDC_PORT:-3001}
+    export PINCHPOINT_OIDC_ISSUER="http://127.0.0.1:$PINCHPOINT_OIDC_PORT"
+    npx tsx scripts/oidc-standin.ts & _pids+=($!)
+    wait_for_http "$PINCHPOINT_OIDC_ISSUER/.well-known/openid-configuration"
+  fi
 }

@@ -6,7 +6,7 @@ source "$(dirname "${BASH_SOURCE[0]}")/lib.sh"
 cd "$root"
 
 ensure_node_modules
-eval "$(bash scripts/pg.sh start)"
+if [ -z "${DATABASE_URL:-}" ]; then eval "$(bash scripts/pg.sh start)"; fi
 export DATABASE_URL
 
 host=${PINCHPOINT_HOST:-127.0.0.1}

@@ -13,7 +13,7 @@ function describe(error: string | undefined | null): string | null {
   return error;
 }
 
-export function SignInForm({ callbackUrl, initialError }: { callbackUrl: string; initialError?: string }) {
+export function SignInForm({ callbackUrl, initialError, ssoName }: { callbackUrl: string; initialError?: string; ssoName: string | null }) {
   const router = useRouter();
   const [error, setError] = useState<string | null>(describe(initialError));
   const [pending, setPending] = useState(false);
@@ -38,6 +38,17 @@ export function SignInForm({ callbackUrl, initialError }: { callbackUrl: string;
   }
 
   return (
+    <>
+    {ssoName && (
+      <div className="mt-6">
+        <Button type="button" className="w-full py-2" onClick={() => signIn("oidc", { callbackUrl })}>
+          Continue with {ssoName}
+        </Button>
+        <div className="mt-6 flex items-center gap-3 text-xs text-faint" aria-hidden="true">
+          <span className="h-px flex-1 bg-line" /> or with a password <span className="h-px flex-1 bg-line" />
+        </div>
+      </div>
+    )}
     <form onSubmit={onSubmit} className="mt-6 space-y-4" aria-describedby={error ? "signin-error" : undefined}>
       <label className="block">
         <span className="text-sm font-medium">E-mail</span>
@@ -68,5 +79,6 @@ export function SignInForm({ callbackUrl, initialError }: { callbackUrl: string;
         {pending ? "Signing in…" : "Sign in"}
       </Button>
     </form>
+    </>
   );
 }

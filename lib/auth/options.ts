@@ -2,10 +2,39 @@
 // every request re-reads the user on the server, so a role change or deactivation applies at once.
 import type { NextAuthOptions } from "next-auth";
 import CredentialsProvider from "next-auth/providers/credentials";
+import type { OAuthConfig } from "next-auth/providers/oauth";
 import { z } from "zod";
 import { isRole } from "./roles";
 import { clearFailedSignIns, isSignInBlocked, recordFailedSignIn } from "@/lib/data/sign-in-attempts";
 import { normaliseEmail, verifyPassword } from "@/lib/data/users";
+import { userForOidcIdentity } from "@/lib/data/sso-users";
+
+interface OidcProfile {
+  sub: string;
+  email?: string;
+  email_verified?: boolean;
+  name?: string;
+}
+
+/** The company's OpenID Connect provider, when PINCHPOINT_OIDC_ISSUER names one (npm start runs a stand-in). */
+export function oidcProvider(): OAuthConfig<OidcProfile> | null {
+  const issuer = process.env.PINCHPOINT_OIDC_ISSUER;
+  if (!issuer) return null;
+  return {
+    id: "oidc",
+    name: process.env.PINCHPOINT_OIDC_NAME ?? "company single sign-on",
+    type: "oauth",
+    wellKnown: `${issuer.replace(/\/$/, "")}/.well-known/openid-configuration`,
+    clientId: process.env.PINCHPOINT_OIDC_CLIENT_ID ?? "pinchpoint",
+    clientSecret: process.env.PINCHPOINT_OIDC_CLIENT_SECRET ?? "pinchpoint-stand-in-secret",
+    authorization: { params: { scope: "openid email profile" } },
+    idToken: true,
+    checks: ["pkce", "state"],
+    profile(profile) {
+      return { id: profile.sub, email: profile.email ?? null, name: profile.name ?? profile.email ?? profile.sub };
+    },
+  };
+}
 
 const credentialsSchema = z.object({
   email: z.string().trim().min(3).max(320),
@@ -36,6 +65,7 @@ export const authOptions: NextAuthOptions = {
   session: { strategy: "jwt", maxAge: 12 * 60 * 60 },
   pages: { signIn: "/signin", error: "/signin" },
   providers: [
+    ...(oidcProvider() ? [oidcProvider() as OAuthConfig<OidcProfile>] : []),
     CredentialsProvider({
       id: "credentials",
       name: "E-mail and password",
@@ -60,7 +90,24 @@ export const authOptions: NextAuthOptions = {
     }),
   ],
   callbacks: {
-    async jwt({ token, user }) {
+    async signIn({ account, profile }) {
+      if (account?.provider !== "oidc") return true;
+      const p = profile as OidcProfile | undefined;
+      const user = await userForOidcIdentity({ subject: account.providerAccountId, email: p?.email ?? null, emailVerified: p?.email_verified === true, name: p?.name ?? null });
+      return user ? true : "/signin?error=" + encodeURIComponent("Single sign-on worked, but this identity has no active Pinchpoint account. Ask an admin.");
+    },
+    async jwt({ token, user, account, profile }) {
+      if (account?.provider === "oidc") {
+        const p = profile as OidcProfile | undefined;
+        const linked = await userForOidcIdentity({ subject: account.providerAccountId, email: p?.email ?? null, emailVerified: p?.email_verified === true, name: p?.name ?? null });
+        if (linked) {
+          token.sub = linked.id;
+          token.role = linked.role;
+          token.email = linked.email;
+          token.name = linked.name;
+        }
+        return token;
+      }
       if (user) {
         token.sub = user.id;
         if ("role" in user && isRole(user.role)) token.role = user.role;

@@ -7,6 +7,7 @@ import { migrateToLatest } from "@/models/migrate";
 import { drainAnalysisQueue } from "@/lib/data/analysis-jobs";
 import { seedDemo } from "@/lib/data/seed";
 import { dropDatabase, urlFor, withAdmin } from "./test-db";
+import { startOidcStandIn } from "../../scripts/standins/oidc";
 
 const DB = "pp_e2e";
 const PORT = Number(process.env.PINCHPOINT_E2E_PORT ?? 3100);
@@ -37,12 +38,19 @@ export default async function setup() {
   await closeDb();
 
   const baseUrl = `http://127.0.0.1:${PORT}`;
+  const sso = await startOidcStandIn({
+    port: Number(process.env.PINCHPOINT_E2E_OIDC_PORT ?? 3111),
+    clientId: "pinchpoint",
+    clientSecret: "pinchpoint-stand-in-secret",
+    redirectUris: [`${baseUrl}/api/auth/callback/oidc`],
+  });
   const env = {
     ...process.env,
     DATABASE_URL: databaseUrl,
     NEXTAUTH_URL: baseUrl,
     NEXTAUTH_SECRET: process.env.NEXTAUTH_SECRET ?? "test-secret-not-for-production",
     PINCHPOINT_DEMO: "1",
+    PINCHPOINT_OIDC_ISSUER: sso.issuer,
     NEXT_TELEMETRY_DISABLED: "1",
   };
   const children: ChildProcess[] = [];
@@ -63,6 +71,7 @@ export default async function setup() {
   return async () => {
     for (const child of children) child.kill("SIGTERM");
     await Promise.all(children.map((c) => new Promise((r) => (c.exitCode !== null ? r(null) : c.once("exit", r)))));
+    await sso.close();
     await dropDatabase(DB);
   };
 }

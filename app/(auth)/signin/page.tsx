@@ -3,7 +3,7 @@ import { redirect } from "next/navigation";
 import { getServerSession } from "next-auth";
 import { SignInForm } from "@/components/auth/SignInForm";
 import { Logo } from "@/components/ui/Logo";
-import { authOptions } from "@/lib/auth/options";
+import { authOptions, oidcProvider } from "@/lib/auth/options";
 import { demoMode } from "@/lib/config";
 
 export const metadata: Metadata = { title: "Sign in" };
@@ -38,7 +38,7 @@ export default async function SignInPage({ searchParams }: { searchParams: Promi
           </div>
           <h2 className="text-xl font-semibold">Sign in</h2>
           <p className="mt-1 text-sm text-muted">Use your work e-mail and password.</p>
-          <SignInForm callbackUrl={target} initialError={error} />
+          <SignInForm callbackUrl={target} initialError={error} ssoName={oidcProvider()?.name ?? null} />
           {demoMode() && (
             <p className="mt-8 rounded-md border border-line bg-surface p-3 text-xs text-muted">
               Demo mode: accounts are <span className="font-mono text-ink">&lt;role&gt;@harbor-pantry.example</span> (admin,

@@ -75,3 +75,18 @@ export type ImportFormat = "pinchpoint" | "compose" | "csv" | "otlp";
 export type ImportResult =
   | { ok: true; inventory: NormalisedInventory }
   | { ok: false; status: 413 | 422; issues: InventoryIssue[] };
+
+/**
+ * Who declared a set of components (usually a repository). Slug-like, like keys: lower-case
+ * letters, digits, `.`, `_` and `-`, so `storefront-repo` or `harbor.storefront`.
+ */
+export const SOURCE_PATTERN = /^[a-z0-9][a-z0-9._-]{0,127}$/;
+
+/** What a caller hands to `importInventory`; `source` is required for every format but `pinchpoint`. */
+export interface ImportRequest {
+  format: ImportFormat;
+  body: string | Uint8Array;
+  contentType?: string;
+  source?: string;
+  environment?: string;
+}

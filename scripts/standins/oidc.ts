@@ -47,6 +47,9 @@ export async function startOidcStandIn(opts: OidcStandInOptions): Promise<{ issu
       };
     },
     pkce: { required: () => false },
+    // Put the e-mail and name claims in the ID token, as company providers commonly do;
+    // next-auth reads the profile from the ID token.
+    conformIdTokenClaims: false,
   };
   const provider = new Provider(issuer, configuration);
   const server = provider.listen(opts.port, "127.0.0.1");

@@ -1,0 +1,34 @@
+// One entry point for every inventory format. Pure: no database, no HTTP framework.
+import type { ImportRequest, ImportResult } from "@/lib/inventory/types";
+import { parseCompose } from "./compose";
+import { parseCsv } from "./csv";
+import { parseOtlp } from "./otlp";
+import { parsePinchpoint } from "./pinchpoint/parse";
+import { checkedText } from "./shared/body";
+
+export function importInventory(req: ImportRequest): ImportResult {
+  // Size first: a 413 must not cost a decode or a parse.
+  const text = checkedText(req.body);
+  if (!text.ok) return text;
+  const opts = { text: text.text, contentType: req.contentType, source: req.source, environment: req.environment };
+  switch (req.format) {
+    case "pinchpoint":
+      return parsePinchpoint(opts);
+    case "compose":
+      return parseCompose(opts);
+    case "csv":
+      return parseCsv(opts);
+    case "otlp":
+      return parseOtlp(opts);
+    default: {
+      // Unreachable for typed callers; a route passing an unchecked query string lands here.
+      const format: never = req.format;
+      return { ok: false, status: 422, issues: [{ path: "format", message: `unsupported format ${JSON.stringify(format)}: expected pinchpoint, compose, csv or otlp` }] };
+    }
+  }
+}
+
+export { importCompose } from "./compose";
+export { importCsv } from "./csv";
+export { importOtlp } from "./otlp";
+export { importPinchpoint } from "./pinchpoint";

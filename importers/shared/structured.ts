@@ -1,0 +1,339 @@
+// Reads YAML or JSON into a plain value while keeping a way back from a value's path to its
+// line and column, so every later issue (zod's or ours) can point into the file.
+import {
+  type Document,
+  isAlias,
+  isMap,
+  isPair,
+  isScalar,
+  isSeq,
+  LineCounter,
+  type Node,
+  parseDocument,
+  type YAMLMap,
+} from "yaml";
+import { MAX_NESTING_DEPTH, MAX_YAML_ALIAS_COUNT, MAX_YAML_ALIAS_EXPANSION } from "@/lib/inventory/limits";
+import type { InventoryIssue } from "@/lib/inventory/types";
+import { scanJson } from "./json-syntax";
+import { findExcessiveNesting } from "./nesting";
+import { formatPath, lineIndex, type PathSegment } from "./text";
+
+export interface Position {
+  line?: number;
+  column?: number;
+}
+
+export interface StructuredSource {
+  value: unknown;
+  warnings: InventoryIssue[];
+  /** Where the value at `path` starts; with `key`, where its member name starts. */
+  locate(path: readonly PathSegment[], opts?: { key?: boolean }): Position;
+}
+
+export type Loaded =
+  | { ok: true; source: StructuredSource }
+  | { ok: false; status: 413 | 422; issues: InventoryIssue[] };
+
+/** A collection whose size is checked before the document is expanded and validated. */
+export interface CountLimit {
+  key: string;
+  max: number;
+  /** e.g. "components" */
+  noun: string;
+}
+
+/** JSON when the first significant character opens an object or array; YAML otherwise. */
+export function looksLikeJson(text: string, contentType?: string): boolean {
+  if (contentType !== undefined && /\bjson\b/i.test(contentType)) return true;
+  if (contentType !== undefined && /\byaml\b/i.test(contentType)) return false;
+  return /^\s*[{[]/.test(text);
+}
+
+export function loadStructured(text: string, opts: { json: boolean; limit?: CountLimit }): Loaded {
+  if (text.trim() === "") {
+    return { ok: false, status: 422, issues: [{ path: "", line: 1, column: 1, message: "the file is empty" }] };
+  }
+  const deep = findExcessiveNesting(text);
+  if (deep !== null) {
+    const at = lineIndex(text)(deep);
+    const message = `nested more than ${MAX_NESTING_DEPTH} levels deep; an inventory needs far fewer`;
+    return { ok: false, status: 422, issues: [{ path: "", ...at, message }] };
+  }
+  return opts.json ? loadJson(text, opts.limit) : loadYaml(text, opts.limit);
+}
+
+// JSON.parse does the work; the YAML parser (JSON is YAML 1.2) is only run when an issue
+// needs a position, which keeps a clean 20 MiB push fast.
+function loadJson(text: string, limit: CountLimit | undefined): Loaded {
+  const toPos = lineIndex(text);
+  let value: unknown;
+  try {
+    value = JSON.parse(text);
+  } catch (err) {
+    const found = scanJson(text).error;
+    const at = found ? toPos(found.offset) : {};
+    // No grammar error found means JSON.parse gave up for another reason, in practice depth.
+    const message = found ? found.message : err instanceof RangeError ? "the document is nested too deeply" : String(err);
+    return { ok: false, status: 422, issues: [{ path: "", ...at, message: `invalid JSON: ${message}` }] };
+  }
+  const dupes = scanJson(text).duplicates;
+  if (dupes.length > 0) {
+    return {
+      ok: false,
+      status: 422,
+      issues: dupes.map((d) => ({
+        path: formatPath(d.path),
+        ...toPos(d.offset),
+        message: `duplicate member name ${JSON.stringify(d.key)} in one object`,
+      })),
+    };
+  }
+  let locator: Locator | undefined;
+  const locate = (path: readonly PathSegment[], o?: { key?: boolean }): Position => {
+    if (!locator) {
+      const lineCounter = new LineCounter();
+      const doc = parseDocument(text, { lineCounter, uniqueKeys: false, prettyErrors: false });
+      locator = new Locator(doc, lineCounter, new Map());
+    }
+    return locator.locate(path, o);
+  };
+  if (limit !== undefined && isRecord(value)) {
+    const coll = value[limit.key];
+    const size = Array.isArray(coll) ? coll.length : isRecord(coll) ? Object.keys(coll).length : 0;
+    if (size > limit.max) {
+      // Pointing at the member name is enough here, and spares a YAML parse of a file that is refused anyway.
+      const at = text.indexOf(JSON.stringify(limit.key));
+      return { ok: false, status: 413, issues: [tooMany(limit, size, at < 0 ? {} : toPos(at))] };
+    }
+  }
+  return { ok: true, source: { value, warnings: [], locate } };
+}
+
+function loadYaml(text: string, limit: CountLimit | undefined): Loaded {
+  const lineCounter = new LineCounter();
+  // merge: `<<: *base` is common in hand-written YAML (Compose files especially).
+  const doc = parseDocument(text, { lineCounter, uniqueKeys: true, merge: true, prettyErrors: false });
+  const posOf = (offset: number): Position => {
+    const p = lineCounter.linePos(offset);
+    return { line: p.line, column: p.col };
+  };
+  if (doc.errors.length > 0) {
+    return {
+      ok: false,
+      status: 422,
+      issues: doc.errors.map((e) => ({
+        path: formatPath(pathAtOffset(doc, e.pos[0])),
+        ...posOf(e.pos[0]),
+        message: yamlMessage(e.code, e.message),
+      })),
+    };
+  }
+  const warnings = doc.warnings.map((w) => ({
+    path: formatPath(pathAtOffset(doc, w.pos[0])),
+    ...posOf(w.pos[0]),
+    message: w.message,
+  }));
+
+  const anchors = new Map<Node, Node>();
+  const locator = new Locator(doc, lineCounter, anchors);
+  if (limit !== undefined && isMap(doc.contents)) {
+    const coll = doc.contents.get(limit.key, true);
+    const size = isSeq(coll) || isMap(coll) ? coll.items.length : 0;
+    if (size > limit.max) return { ok: false, status: 413, issues: [tooMany(limit, size, locator.locate([limit.key]))] };
+  }
+
+  const expansion = measureAliases(doc, anchors);
+  if (expansion !== null) {
+    const at = expansion.node.range ? posOf(expansion.node.range[0]) : {};
+    const path = formatPath(pathAtOffset(doc, expansion.node.range?.[0] ?? 0));
+    return { ok: false, status: expansion.status, issues: [{ path, ...at, message: expansion.message }] };
+  }
+
+  let value: unknown;
+  try {
+    value = doc.toJS({ maxAliasCount: MAX_YAML_ALIAS_COUNT });
+  } catch (err) {
+    // measureAliases should have caught alias trouble already; this is the package's own guard.
+    const message = err instanceof Error ? err.message : String(err);
+    return { ok: false, status: 413, issues: [{ path: "", line: 1, column: 1, message: `YAML could not be expanded: ${message}` }] };
+  }
+  return { ok: true, source: { value, warnings, locate: (p, o) => locator.locate(p, o) } };
+}
+
+function tooMany(limit: CountLimit, size: number, at: Position): InventoryIssue {
+  return {
+    path: limit.key,
+    ...at,
+    message: `${size} ${limit.noun} in one file; at most ${limit.max} are accepted (split the file by source)`,
+  };
+}
+
+function yamlMessage(code: string, message: string): string {
+  const first = (message.split("\n")[0] ?? message).replace(/ at line \d+, column \d+:?$/, "");
+  if (code === "DUPLICATE_KEY") return "duplicate mapping key: the same name appears twice in one mapping";
+  if (/call stack/i.test(first)) return "the document is nested too deeply";
+  return `invalid YAML: ${first}`;
+}
+
+interface AliasTrouble {
+  node: Node;
+  status: 413 | 422;
+  message: string;
+}
+
+/**
+ * Counts the nodes aliases would expand to, in document order (an alias refers to the last
+ * anchor of its name before it), and records alias → anchored node for the locator.
+ * Stops at the first alias that is unresolved, circular or pushes the total past the cap.
+ */
+function measureAliases(doc: Document, anchors: Map<Node, Node>): AliasTrouble | null {
+  const byName = new Map<string, Node>();
+  const sizes = new Map<Node, number>();
+  const inProgress = new Set<Node>();
+  let expanded = 0;
+  let trouble: AliasTrouble | null = null;
+
+  const size = (node: unknown): number => {
+    if (trouble !== null || node === null || node === undefined) return 0;
+    if (isAlias(node)) {
+      const target = byName.get(node.source);
+      if (target === undefined) {
+        trouble = { node, status: 422, message: `alias *${node.source} has no anchor &${node.source} before it` };
+        return 0;
+      }
+      anchors.set(node, target);
+      if (inProgress.has(target)) {
+        trouble = { node, status: 422, message: `alias *${node.source} refers to a node that contains it` };
+        return 0;
+      }
+      const n = sizes.get(target) ?? 0;
+      expanded += n;
+      if (expanded > MAX_YAML_ALIAS_EXPANSION) {
+        trouble = {
+          node,
+          status: 413,
+          message: `YAML aliases expand to more than ${MAX_YAML_ALIAS_EXPANSION} nodes (an alias bomb?); write the values out or use defaults`,
+        };
+      }
+      return n;
+    }
+    const n = node as Node;
+    if (n.anchor) {
+      byName.set(n.anchor, n);
+      inProgress.add(n);
+    }
+    let total = 1;
+    if (isMap(node)) {
+      for (const pair of node.items) total += size(pair.key) + size(pair.value);
+    } else if (isSeq(node)) {
+      for (const item of node.items) total += isPair(item) ? size(item.key) + size(item.value) : size(item);
+    }
+    if (n.anchor) {
+      inProgress.delete(n);
+      sizes.set(n, total);
+    }
+    return total;
+  };
+
+  try {
+    size(doc.contents);
+  } catch (err) {
+    if (err instanceof RangeError) {
+      return { node: doc.contents as Node, status: 422, message: "the document is nested too deeply" };
+    }
+    throw err;
+  }
+  return trouble;
+}
+
+/** The path of the innermost node at `offset`, for parser errors. */
+function pathAtOffset(doc: Document, offset: number): PathSegment[] {
+  const path: PathSegment[] = [];
+  let node: unknown = doc.contents;
+  const within = (n: unknown): boolean => {
+    const r = (n as Node | null)?.range;
+    return r !== undefined && r !== null && r[0] <= offset && offset < Math.max(r[2], r[0] + 1);
+  };
+  for (let depth = 0; depth < 1_000; depth++) {
+    if (isMap(node)) {
+      const pair = node.items.find((p) => within(p.key) || within(p.value));
+      if (!pair) break;
+      path.push(keyName(pair.key));
+      if (within(pair.key)) break;
+      node = pair.value;
+    } else if (isSeq(node)) {
+      const index = node.items.findIndex((item) => within(item));
+      if (index < 0) break;
+      path.push(index);
+      node = node.items[index];
+    } else {
+      break;
+    }
+  }
+  return path;
+}
+
+function keyName(key: unknown): string {
+  return isScalar(key) ? String(key.value) : "?";
+}
+
+class Locator {
+  constructor(
+    private readonly doc: Document,
+    private readonly lineCounter: LineCounter,
+    private readonly anchors: Map<Node, Node>,
+  ) {}
+
+  locate(path: readonly PathSegment[], opts?: { key?: boolean }): Position {
+    let node: unknown = this.doc.contents;
+    let keyNode: unknown;
+    let best: unknown = node;
+    for (const [i, seg] of path.entries()) {
+      node = this.deref(node);
+      keyNode = undefined;
+      if (isMap(node)) {
+        const pair = this.findPair(node, String(seg), 0);
+        if (!pair) break;
+        keyNode = pair.key;
+        node = pair.value;
+      } else if (isSeq(node) && typeof seg === "number") {
+        node = node.items[seg];
+        if (node === undefined) break;
+      } else {
+        break;
+      }
+      best = opts?.key && i === path.length - 1 && keyNode !== undefined ? keyNode : (node ?? keyNode);
+    }
+    const range = (best as Node | null | undefined)?.range;
+    if (!range) return {};
+    const p = this.lineCounter.linePos(range[0]);
+    return { line: p.line, column: p.col };
+  }
+
+  private deref(node: unknown): unknown {
+    if (!isAlias(node)) return node;
+    return this.anchors.get(node) ?? node.resolve(this.doc);
+  }
+
+  // Looks in the mapping itself, then in mappings merged into it with `<<`.
+  private findPair(map: YAMLMap, name: string, depth: number): { key: unknown; value: unknown } | undefined {
+    const direct = map.items.find((p) => isScalar(p.key) && String(p.key.value) === name);
+    if (direct || depth > 8) return direct;
+    for (const p of map.items) {
+      if (!isScalar(p.key) || p.key.value !== "<<") continue;
+      const sources = isSeq(p.value) ? p.value.items : [p.value];
+      for (const s of sources) {
+        const target = this.deref(s);
+        if (isMap(target)) {
+          const found = this.findPair(target, name, depth + 1);
+          if (found) return found;
+        }
+      }
+    }
+    return undefined;
+  }
+}
+
+export function isRecord(v: unknown): v is Record<string, unknown> {
+  return typeof v === "object" && v !== null && !Array.isArray(v);
+}

@@ -1,6 +1,6 @@
 // Benchmark of the analysis engine (npm run bench). Speed is measured here, never in tests.
 //   npx tsx scripts/bench.ts                     all sections
-//   npx tsx scripts/bench.ts --only measures     one section (measures | igraph)
+//   npx tsx scripts/bench.ts --only measures     one section (push | measures | igraph)
 //   npx tsx scripts/bench.ts --compare-igraph    also time python3-igraph on the 20k graph
 //   npx tsx scripts/bench.ts --edge-list FILE    one JSON line for a `from to` edge list
 //   --runs N                                     calls per side in the igraph comparison (default 3)
@@ -51,7 +51,51 @@ async function timeAll(label: string, input: AnalysisInput): Promise<void> {
   );
 }
 
+async function benchPush(n: number): Promise<void> {
+  const { inventoryYaml, withBenchDatabase } = await import("./bench/push");
+  const input = generateGraph({ n, seed: 42 });
+  const body = inventoryYaml(input, "bench-repo");
+  await withBenchDatabase(async (url) => {
+    process.env.DATABASE_URL = url;
+    const { db, closeDb } = await import("../models");
+    const { migrateToLatest } = await import("../models/migrate");
+    const { pushInventory } = await import("../lib/data/push");
+    const { drainAnalysisQueue } = await import("../lib/data/analysis-jobs");
+    const { importInventory } = await import("../importers");
+    await migrateToLatest(db().sequelize);
+    const actor = { type: "system" as const, label: "bench", canCreateEnvironments: true as const };
+    const t0 = performance.now();
+    const parsed = importInventory({ format: "pinchpoint", body, contentType: "application/yaml" });
+    const parseMs = ms(t0);
+    if (!parsed.ok) throw new Error(`bench inventory refused: ${JSON.stringify(parsed.issues.slice(0, 3))}`);
+    const t1 = performance.now();
+    const first = await pushInventory({ environment: "bench", format: "pinchpoint", body, contentType: "application/yaml", dryRun: false, actor });
+    const pushMs = ms(t1);
+    const t2 = performance.now();
+    await drainAnalysisQueue();
+    const analyseMs = ms(t2);
+    const t3 = performance.now();
+    const again = await pushInventory({ environment: "bench", format: "pinchpoint", body, contentType: "application/yaml", dryRun: false, actor });
+    const againMs = ms(t3);
+    console.log(
+      `push ${n / 1000}k components, ${input.edges.length} needs, ${(body.length / 1048576).toFixed(1)} MiB YAML: ` +
+        `parse+validate ${parseMs} ms; push to stored snapshot #${first.snapshot?.number} ${pushMs} ms; ` +
+        `analysis to ranked results ${analyseMs} ms; push → ranked ${Math.round(pushMs + analyseMs)} ms; ` +
+        `identical re-push ${againMs} ms (changed: ${again.changed})`,
+    );
+    await closeDb();
+  });
+}
+
 const sections: Section[] = [
+  {
+    name: "push",
+    byDefault: true,
+    run: async () => {
+      console.log("# push of a seeded inventory through the API's code path into a throwaway PostgreSQL database");
+      await benchPush(20_000);
+    },
+  },
   {
     name: "measures",
     byDefault: true,
@@ -70,7 +114,7 @@ const sections: Section[] = [
   },
   {
     name: "igraph",
-    byDefault: false,
+    byDefault: true,
     run: async () => {
       await compareIgraph("20k", generateGraph({ n: 20_000, seed: 42 }));
       await compareIgraph("20k + one 3,300-component cycle", generateGraph({ n: 20_000, seed: 42, ring: 3300 }));

@@ -182,7 +182,6 @@ async function applyInventory({
     }
     next = merged.content;
     warnings = [...warnings, ...merged.warnings];
-    await writeSourceRows({ environmentId: environment.id, sourceId: sourceRow.id, sourceName: inventory.source, content: next }, transaction);
   }
 
   const [latest] = await sequelize.query<{ number: number; hash: string }>(
@@ -191,26 +190,37 @@ async function applyInventory({
   );
   const hash = snapshotHash(next);
   const changed = latest ? latest.hash !== hash : next.components.length > 0;
+  // The tables always hold the latest snapshot's graph, so identical content needs no rewrite.
+  if (changed && input.format !== "otlp") {
+    await writeSourceRows({ environmentId: environment.id, sourceId: sourceRow.id, sourceName: inventory.source, content: next }, transaction);
+  }
   const diff = summarise(diffSnapshots(previous, next));
 
   let snapshot: PushResult["snapshot"] = null;
   if (changed && !input.dryRun) {
-    const row = await models.Snapshot.create(
+    // A bound parameter, not Sequelize's escaped literal: the content of a large estate is megabytes.
+    const [row] = await sequelize.query<{ id: string; number: number; created_at: Date }>(
+      `INSERT INTO snapshots (id, environment_id, number, hash, content, component_count, dependency_count, undeclared_count, source_name, format, actor_label)
+       VALUES (gen_random_uuid(), $1, $2, $3, $4::jsonb, $5, $6, $7, $8, $9, $10) RETURNING id, number, created_at`,
       {
-        environmentId: environment.id,
-        number: (latest?.number ?? 0) + 1,
-        hash,
-        content: next,
-        componentCount: next.components.length,
-        dependencyCount: next.dependencies.length,
-        undeclaredCount: next.components.filter((c) => c.kind === "undeclared").length,
-        sourceName: inventory.source,
-        format: input.format,
-        actorLabel: input.actor.label,
+        type: QueryTypes.SELECT,
+        bind: [
+          environment.id,
+          (latest?.number ?? 0) + 1,
+          hash,
+          JSON.stringify(next),
+          next.components.length,
+          next.dependencies.length,
+          next.components.filter((c) => c.kind === "undeclared").length,
+          inventory.source,
+          input.format,
+          input.actor.label,
+        ],
+        transaction,
       },
-      { transaction },
     );
-    snapshot = { id: row.id, number: row.number, createdAt: row.createdAt.toISOString() };
+    if (!row) throw new Error("snapshot insert returned nothing");
+    snapshot = { id: row.id, number: row.number, createdAt: row.created_at.toISOString() };
     await queueAnalysis({ environmentId: environment.id, snapshotId: row.id }, transaction);
   }
 

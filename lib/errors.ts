@@ -1,6 +1,6 @@
 // One error type, one code→status map, one place that renders errors (DESIGN §4 error shape).
 import { NextResponse } from "next/server";
-import { z } from "zod";
+import type { z } from "zod";
 import type { InventoryIssue } from "./inventory/types";
 
 export const ERROR_STATUS = {

@@ -2,6 +2,7 @@
 // Run any number of these (npm start runs one); they share the queue without stepping on each other.
 import { closeDb } from "../models";
 import { claimNextJob, runJob, workerId } from "../lib/data/analysis-jobs";
+import { startOutboxLoop } from "../lib/mail";
 
 const POLL_MS = Number(process.env.PINCHPOINT_WORKER_POLL_MS ?? 500);
 let stopping = false;
@@ -9,6 +10,8 @@ let stopping = false;
 async function main() {
   const id = workerId();
   console.log(`[worker] ${id} waiting for analysis jobs`);
+  // The same process delivers queued e-mail (and the daily review reminders) between jobs.
+  const stopMail = startOutboxLoop({ intervalMs: 5_000 });
   while (!stopping) {
     const job = await claimNextJob(id).catch((error: unknown) => {
       console.error("[worker] could not reach the queue:", error instanceof Error ? error.message : error);
@@ -22,6 +25,7 @@ async function main() {
     const outcome = await runJob(job, id);
     console.log(`[worker] snapshot ${job.snapshot_id}: ${outcome} in ${Date.now() - started} ms`);
   }
+  await stopMail();
   await closeDb();
 }
 

@@ -4,10 +4,17 @@
 # pointing one at a real service (PINCHPOINT_OIDC_ISSUER, PINCHPOINT_SMTP_URL) skips its stand-in.
 start_services() {
   local -n _pids=$1
+  if [ -z "${PINCHPOINT_SMTP_URL:-}" ]; then
+    export PINCHPOINT_SMTP_PORT=${PINCHPOINT_SMTP_PORT:-2525}
+    export PINCHPOINT_MAIL_DIR=${PINCHPOINT_MAIL_DIR:-$root/.data/mail}
+    export PINCHPOINT_SMTP_URL="smtp://127.0.0.1:$PINCHPOINT_SMTP_PORT"
+    # tsx itself, not npx: npx does not pass SIGTERM on, and the sink would outlive us.
+    node_modules/.bin/tsx scripts/mail-sink.ts & _pids+=($!)
+  fi
   if [ -z "${PINCHPOINT_OIDC_ISSUER:-}" ]; then
     export PINCHPOINT_OIDC_PORT=${PINCHPOINT_OIDC_PORT:-3001}
     export PINCHPOINT_OIDC_ISSUER="http://127.0.0.1:$PINCHPOINT_OIDC_PORT"
-    npx tsx scripts/oidc-standin.ts & _pids+=($!)
+    node_modules/.bin/tsx scripts/oidc-standin.ts & _pids+=($!)
     wait_for_http "$PINCHPOINT_OIDC_ISSUER/.well-known/openid-configuration"
   fi
 }

@@ -26,11 +26,11 @@ source scripts/services.sh
 start_services pids
 
 if [ "${1:-}" = "--dev" ]; then
-  npx tsx scripts/analysis-worker.ts & pids+=($!)
+  node_modules/.bin/tsx scripts/analysis-worker.ts & pids+=($!)
   exec_cmd=(node node_modules/next/dist/bin/next dev -H "$host" -p "$port")
 else
   if needs_build; then log "building (first build takes about two minutes)"; npx next build >&2; fi
-  npx tsx scripts/analysis-worker.ts & pids+=($!)
+  node_modules/.bin/tsx scripts/analysis-worker.ts & pids+=($!)
   exec_cmd=(node node_modules/next/dist/bin/next start -H "$host" -p "$port")
 fi
 

@@ -7,6 +7,7 @@ import { db } from "@/models";
 import { analyse, type AnalysisInput, type AnalysisResult } from "@/lib/analysis";
 import type { PinchWeights } from "@/lib/analysis/types";
 import type { SnapshotContent } from "@/lib/inventory/snapshot";
+import { noticeTopTenChanges } from "@/lib/mail";
 
 /** A running job with no heartbeat for this long is taken to be orphaned. */
 export const STALE_AFTER_S = 60;
@@ -105,7 +106,10 @@ export async function runJob(job: ClaimedJob, worker = workerId()): Promise<"don
   try {
     const result = await analyse(analysisInputFromContent(snapshot.content), { weights: env.pinchWeights ?? undefined }, onProgress);
     await pending;
-    return await storeResult({ jobId: job.id, worker, snapshotId: snapshot.id, content: snapshot.content, result });
+    const outcome = await storeResult({ jobId: job.id, worker, snapshotId: snapshot.id, content: snapshot.content, result });
+    // Tell owners and architects about components new to the top ten (compared with the previous analysed snapshot).
+    if (outcome === "done") await noticeTopTenChanges({ environmentId: job.environment_id, snapshotId: job.snapshot_id, previousSnapshotId: null });
+    return outcome;
   } catch (error) {
     await pending.catch(() => undefined);
     const message = error instanceof Error ? error.message : String(error);

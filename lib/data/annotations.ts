@@ -5,6 +5,7 @@ import type { Actor } from "@/lib/auth/actor";
 import { roleHas } from "@/lib/auth/roles";
 import { AppError, forbidden, notFound } from "@/lib/errors";
 import { recordAudit } from "./audit";
+import { noticeOwnerAssigned } from "@/lib/mail";
 import { teamsLedBy } from "./teams";
 
 export interface AnnotationInput {
@@ -58,6 +59,8 @@ export async function annotateComponent({
     else await models.ComponentAnnotation.create({ environmentId, key, ownerTeam, notes, updatedBy: actor.id }, { transaction });
     const after = { team: ownerTeam ?? component.team, notes };
     await recordAudit({ actor, action: "component.annotate", targetType: "component", targetId: key, environmentId, before, after }, transaction);
+    // Queued in this transaction: a rolled-back change tells nobody; a failing notice never fails it.
+    if (after.team !== before.team) await noticeOwnerAssigned({ environmentId, key, team: after.team, actorLabel: actor.label }, transaction);
     return { key, team: after.team, declaredTeam: component.team, notes };
   });
 }

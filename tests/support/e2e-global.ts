@@ -8,6 +8,7 @@ import { drainAnalysisQueue } from "@/lib/data/analysis-jobs";
 import { seedDemo } from "@/lib/data/seed";
 import { dropDatabase, urlFor, withAdmin } from "./test-db";
 import { startOidcStandIn } from "../../scripts/standins/oidc";
+import { startMailSink } from "@/lib/mail/sink";
 
 const DB = "pp_e2e";
 const PORT = Number(process.env.PINCHPOINT_E2E_PORT ?? 3100);
@@ -44,6 +45,8 @@ export default async function setup() {
     clientSecret: "pinchpoint-stand-in-secret",
     redirectUris: [`${baseUrl}/api/auth/callback/oidc`],
   });
+  const mailDir = path.join(root, ".data/mail-e2e");
+  const sink = await startMailSink({ port: Number(process.env.PINCHPOINT_E2E_SMTP_PORT ?? 2535), dir: mailDir });
   const env = {
     ...process.env,
     DATABASE_URL: databaseUrl,
@@ -51,6 +54,8 @@ export default async function setup() {
     NEXTAUTH_SECRET: process.env.NEXTAUTH_SECRET ?? "test-secret-not-for-production",
     PINCHPOINT_DEMO: "1",
     PINCHPOINT_OIDC_ISSUER: sso.issuer,
+    PINCHPOINT_SMTP_URL: `smtp://127.0.0.1:${sink.port}`,
+    PINCHPOINT_MAIL_DIR: mailDir,
     NEXT_TELEMETRY_DISABLED: "1",
   };
   const children: ChildProcess[] = [];
@@ -72,6 +77,7 @@ export default async function setup() {
     for (const child of children) child.kill("SIGTERM");
     await Promise.all(children.map((c) => new Promise((r) => (c.exitCode !== null ? r(null) : c.once("exit", r)))));
     await sso.close();
+    await sink.close();
     await dropDatabase(DB);
   };
 }

@@ -1,24 +1,15 @@
 // POST /api/v1/environments/{env}/inventory[?dry_run=true][&format=…&source=…] — push an inventory.
 import { NextResponse } from "next/server";
-import { z } from "zod";
 import { parseParams, parseQuery } from "@/lib/api/query";
-import { booleanParam, envParamsSchema } from "@/lib/api/schemas/common";
+import { envParamsSchema } from "@/lib/api/schemas/common";
+import { pushQuerySchema } from "@/lib/api/schemas/inventory";
 import { withPermission } from "@/lib/auth/with-permission";
 import { pushInventory } from "@/lib/data/push";
 import { readBodyWithLimit } from "@/lib/api/body";
-import { SOURCE_PATTERN } from "@/lib/inventory/types";
-
-const querySchema = z
-  .object({
-    dry_run: booleanParam.optional(),
-    format: z.enum(["pinchpoint", "compose", "csv", "otlp"]).optional(),
-    source: z.string().regex(SOURCE_PATTERN, "must be a source name").optional(),
-  })
-  .strict();
 
 export const POST = withPermission<{ env: string }>("inventory:write", async ({ req, params, actor }) => {
   const { env } = parseParams(params, envParamsSchema);
-  const query = parseQuery(req.url, querySchema);
+  const query = parseQuery(req.url, pushQuerySchema);
   const body = await readBodyWithLimit(req);
   const result = await pushInventory({
     environment: env,

@@ -1,15 +1,12 @@
 // GET /api/v1/environments/{env}/map/positions — pinned positions; PUT replaces them (lead+).
 import { NextResponse } from "next/server";
-import { z } from "zod";
 import { parseParams, readJson } from "@/lib/api/query";
-import { envParamsSchema, keySchema } from "@/lib/api/schemas/common";
+import { envParamsSchema } from "@/lib/api/schemas/common";
+import { positionsSchema } from "@/lib/api/schemas/map";
 import { withPermission } from "@/lib/auth/with-permission";
 import { getEnvironmentOrThrow } from "@/lib/data/environments";
 import { getPositions, savePositions } from "@/lib/data/map-positions";
 import { parseOrThrow } from "@/lib/errors";
-
-const coordinate = z.number().finite().min(-1e7).max(1e7);
-const positionsSchema = z.record(keySchema, z.object({ x: coordinate, y: coordinate }).strict()).refine((p) => Object.keys(p).length <= 50_000, { message: "too many positions" });
 
 export const GET = withPermission<{ env: string }>("read", async ({ params }) => {
   const { env } = parseParams(params, envParamsSchema);

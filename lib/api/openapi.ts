@@ -1,0 +1,152 @@
+// The OpenAPI 3.1 description of /api/v1, generated from the same zod schemas the handlers parse
+// with (z.toJSONSchema), so the document cannot drift from what the server accepts. Who may call
+// each operation comes from the same rules the authorization-matrix test holds the handlers to.
+import { z } from "zod";
+import type { RouteRule } from "@/lib/auth/with-permission";
+import { inventoryJsonSchema } from "@/lib/inventory/schema";
+import { annotateBodySchema, drillBodySchema, rankingsQuerySchema } from "./schemas/analysis";
+import { pageQuerySchema } from "./schemas/history";
+import { componentsQuerySchema, pushQuerySchema } from "./schemas/inventory";
+import { positionsSchema } from "./schemas/map";
+import { reviewBodySchema, reviewsQuerySchema, auditQuerySchema } from "./schemas/reviews";
+import { addMemberSchema, createTeamSchema, updateTeamSchema } from "./schemas/teams";
+import { createTokenSchema } from "./schemas/tokens";
+import { acceptInviteSchema, inviteUserSchema, updateUserSchema } from "./schemas/users";
+import { pinchWeightsSchema } from "@/lib/analysis/types";
+
+type Method = "get" | "post" | "put" | "patch" | "delete";
+
+interface Operation {
+  summary: string;
+  rule: RouteRule;
+  query?: z.ZodType;
+  body?: z.ZodType | "inventory";
+}
+
+/** Path (OpenAPI template) → method → operation. */
+export const OPERATIONS: Record<string, Partial<Record<Method, Operation>>> = {
+  "/environments": { get: { summary: "Environments with their latest snapshot and analysis status", rule: "read" } },
+  "/environments/{env}/inventory": {
+    post: { summary: "Push an inventory (YAML, JSON, Compose, CSV or OTLP/JSON); dry_run=true writes nothing", rule: "inventory:write", query: pushQuerySchema, body: "inventory" },
+  },
+  "/environments/{env}/components": { get: { summary: "Components, filtered", rule: "read", query: componentsQuerySchema } },
+  "/environments/{env}/components/{key}": {
+    get: { summary: "One component: needs, dependents, measures, owner, notes", rule: "read" },
+    patch: { summary: "Owner and notes (lead of the team, architect, admin); audited", rule: "components:annotate", body: annotateBodySchema },
+  },
+  "/environments/{env}/components/{key}/blast-radius": { get: { summary: "What goes down or degraded when this component fails", rule: "read" } },
+  "/environments/{env}/components/{key}/history": { get: { summary: "Snapshots that added, changed or removed this component", rule: "read" } },
+  "/environments/{env}/rankings": { get: { summary: "Ranked pinch points of the newest analysed snapshot", rule: "read", query: rankingsQuerySchema } },
+  "/environments/{env}/rankings/export": { get: { summary: "The ranking as CSV", rule: "read" } },
+  "/environments/{env}/rankings/history": { get: { summary: "Ranks of components over recent snapshots", rule: "read" } },
+  "/environments/{env}/drills": { post: { summary: "Fail components and/or zones: down, degraded, teams to page", rule: "read", body: drillBodySchema } },
+  "/environments/{env}/boot-order": { get: { summary: "Cold-start stages; cycles that cannot start unaided", rule: "read" } },
+  "/environments/{env}/graph": { get: { summary: "Components, dependencies and measures for the map", rule: "read" } },
+  "/environments/{env}/map/positions": {
+    get: { summary: "Pinned map positions", rule: "read" },
+    put: { summary: "Replace pinned map positions", rule: "components:annotate", body: positionsSchema },
+  },
+  "/environments/{env}/snapshots": { get: { summary: "Snapshot history, newest first", rule: "read", query: pageQuerySchema } },
+  "/environments/{env}/snapshots/{a}/diff/{b}": { get: { summary: "What changed from snapshot a to snapshot b", rule: "read" } },
+  "/environments/{env}/imports": { get: { summary: "Accepted pushes and uploads", rule: "read", query: pageQuerySchema } },
+  "/environments/{env}/reviews": { get: { summary: "Risk reviews", rule: "read", query: reviewsQuerySchema } },
+  "/environments/{env}/reviews/{key}": {
+    put: { summary: "Accept, mitigate or resolve a pinch point, with rationale and review date", rule: "reviews:write", body: reviewBodySchema },
+    delete: { summary: "Clear a risk review", rule: "reviews:write" },
+  },
+  "/environments/{env}/weights": {
+    get: { summary: "Pinch-score weights", rule: "read" },
+    put: { summary: "Change pinch-score weights (re-queues analysis)", rule: "reviews:write", body: pinchWeightsSchema },
+  },
+  "/teams": {
+    get: { summary: "Teams", rule: "read" },
+    post: { summary: "Create a team", rule: "admin", body: createTeamSchema },
+  },
+  "/teams/unowned": { get: { summary: "Components nobody owns, across environments", rule: "read" } },
+  "/teams/{slug}": {
+    get: { summary: "One team: members, contacts, components", rule: "read" },
+    patch: { summary: "Change a team (admin; a lead for e-mail, on-call and description)", rule: "components:annotate", body: updateTeamSchema },
+  },
+  "/teams/{slug}/members": { post: { summary: "Add a member", rule: "admin", body: addMemberSchema } },
+  "/teams/{slug}/members/{userId}": { delete: { summary: "Remove a member", rule: "admin" } },
+  "/tokens": {
+    get: { summary: "API tokens (never their secrets)", rule: "admin" },
+    post: { summary: "Create an API token; the secret is shown once", rule: "admin", body: createTokenSchema },
+  },
+  "/tokens/{id}": { delete: { summary: "Revoke a token", rule: "admin" } },
+  "/users": {
+    get: { summary: "Users", rule: "admin" },
+    post: { summary: "Invite a user by e-mail", rule: "admin", body: inviteUserSchema },
+  },
+  "/users/{id}": { patch: { summary: "Change a user's role or deactivate", rule: "admin", body: updateUserSchema } },
+  "/users/{id}/invite": { post: { summary: "Issue a new invite link", rule: "admin" } },
+  "/invites/{token}": { post: { summary: "Accept an invite by setting a password", rule: "public", body: acceptInviteSchema } },
+  "/audit": { get: { summary: "The audit log (architects and admins)", rule: "reviews:write", query: auditQuerySchema } },
+  "/schema/inventory": { get: { summary: "JSON Schema of inventory format 1", rule: "public" } },
+  "/openapi.json": { get: { summary: "This document", rule: "public" } },
+};
+
+const errorSchema = z.object({
+  error: z.string(),
+  message: z.string(),
+  issues: z.array(z.object({ path: z.string(), line: z.number().int().optional(), column: z.number().int().optional(), message: z.string() })).optional(),
+});
+
+const jsonSchema = (schema: z.ZodType) => z.toJSONSchema(schema, { io: "input", unrepresentable: "any" });
+
+function queryParameters(schema: z.ZodType | undefined) {
+  if (!schema) return [];
+  const js = jsonSchema(schema) as { properties?: Record<string, unknown>; required?: string[] };
+  return Object.entries(js.properties ?? {}).map(([name, s]) => ({ name, in: "query", required: js.required?.includes(name) ?? false, schema: s }));
+}
+
+export function openApiDocument(serverUrl: string) {
+  const paths: Record<string, Record<string, unknown>> = {};
+  for (const [p, methods] of Object.entries(OPERATIONS)) {
+    const pathParams = [...p.matchAll(/\{(\w+)\}/g)].map((m) => ({ name: m[1], in: "path", required: true, schema: { type: "string" } }));
+    paths[p] = {};
+    for (const [method, op] of Object.entries(methods) as Array<[Method, Operation]>) {
+      const body =
+        op.body === "inventory"
+          ? {
+              required: true,
+              content: {
+                "application/yaml": { schema: inventoryJsonSchema() },
+                "application/json": { schema: inventoryJsonSchema() },
+                "text/csv": { schema: { type: "string" } },
+              },
+            }
+          : op.body
+            ? { required: true, content: { "application/json": { schema: jsonSchema(op.body) } } }
+            : undefined;
+      paths[p][method] = {
+        summary: op.summary,
+        "x-pinchpoint-permission": op.rule,
+        security: op.rule === "public" ? [] : [{ session: [] }, { token: [] }],
+        parameters: [...pathParams, ...queryParameters(op.query)],
+        ...(body ? { requestBody: body } : {}),
+        responses: {
+          "200": { description: "OK", content: { "application/json": { schema: {} } } },
+          default: { description: "Error (400, 401, 403, 404, 409, 413, 422)", content: { "application/json": { schema: { $ref: "#/components/schemas/Error" } } } },
+        },
+      };
+    }
+  }
+  return {
+    openapi: "3.1.0",
+    info: {
+      title: "Pinchpoint API",
+      version: "1",
+      description: "Service-dependency inventory, pinch-point rankings, blast radius and drills. Rankings are only as good as the inventory pushed.",
+    },
+    servers: [{ url: `${serverUrl.replace(/\/$/, "")}/api/v1` }],
+    components: {
+      schemas: { Error: jsonSchema(errorSchema) },
+      securitySchemes: {
+        session: { type: "apiKey", in: "cookie", name: "next-auth.session-token" },
+        token: { type: "http", scheme: "bearer", description: "API token, starts ppt_" },
+      },
+    },
+    paths,
+  };
+}

@@ -1,17 +1,38 @@
 "use client";
 
+// Environment health at a glance: counts, the top pinch points, cycles, the last push and the
+// analysis status — each linking to the screen that says more.
+import Link from "next/link";
 import useSWR from "swr";
+import { Badge } from "@/components/ui/Badge";
 import { Card, Stat } from "@/components/ui/Card";
 import { fetchJson, type ApiError } from "@/lib/client/fetcher";
 import type { EnvironmentCounts } from "@/lib/data/components";
 import type { EnvironmentSummary } from "@/lib/data/environments";
+import type { RankingItem } from "@/lib/data/analysis-results";
 
 interface ComponentsResponse {
   environment: string;
   counts: EnvironmentCounts;
 }
 
-function age(iso: string): string {
+interface RankingsResponse {
+  snapshot: { number: number; createdAt: string; undeclaredShare: number };
+  analysis: { status: string; exact: boolean | null; sampleSize?: number };
+  latest: { number: number; status: string; progress: number; phase: string | null } | null;
+  items: RankingItem[];
+}
+
+interface BootOrderResponse {
+  cycles: string[][];
+  stages: string[][];
+}
+
+interface ImportsResponse {
+  items: Array<{ createdAt: string; source: string; format: string; actor: string; changed: boolean; snapshot: number | null }>;
+}
+
+export function age(iso: string): string {
   const minutes = Math.round((Date.now() - new Date(iso).getTime()) / 60_000);
   if (minutes < 1) return "just now";
   if (minutes < 60) return `${minutes} min ago`;
@@ -20,15 +41,46 @@ function age(iso: string): string {
   return `${Math.round(hours / 24)} days ago`;
 }
 
+const pct = (v: number) => `${(v * 100).toFixed(v < 0.01 ? 2 : 1)}%`;
+
+function TopList({ env, title, items, value }: { env: string; title: string; items: RankingItem[] | undefined; value: (i: RankingItem) => string }) {
+  return (
+    <Card title={title} action={<Link className="text-xs text-brass hover:underline" href={`/environments/${env}/pinch-points`}>All pinch points</Link>}>
+      {!items ? (
+        <p className="text-sm text-muted">Waiting for the first analysis…</p>
+      ) : (
+        <ol className="space-y-1.5">
+          {items.map((i, n) => (
+            <li key={i.key} className="flex items-center gap-2 text-sm">
+              <span className="w-5 text-right font-mono text-xs text-faint">{n + 1}</span>
+              <Link href={`/environments/${env}/components/${i.key}`} className="font-mono text-ink hover:text-brass">
+                {i.key}
+              </Link>
+              {i.articulation && <Badge tone="info" title="Removing it splits the graph">splits</Badge>}
+              {i.inCycle && <Badge tone="cycle">cycle</Badge>}
+              <span className="ml-auto font-mono tabular-nums text-muted">{value(i)}</span>
+              <Link href={`/environments/${env}/drills?fail=${i.key}`} className="text-xs text-faint hover:text-brass" aria-label={`Blast radius of ${i.key}`}>
+                blast radius
+              </Link>
+            </li>
+          ))}
+        </ol>
+      )}
+    </Card>
+  );
+}
+
 export function Overview({ env }: { env: string }) {
-  const components = useSWR<ComponentsResponse, ApiError>(`/api/v1/environments/${env}/components`, fetchJson, {
-    refreshInterval: 30_000,
-  });
-  const environments = useSWR<{ items: EnvironmentSummary[] }, ApiError>("/api/v1/environments", fetchJson, {
-    refreshInterval: 30_000,
-  });
+  const refresh = { refreshInterval: 15_000 };
+  const components = useSWR<ComponentsResponse, ApiError>(`/api/v1/environments/${env}/components`, fetchJson, refresh);
+  const environments = useSWR<{ items: EnvironmentSummary[] }, ApiError>("/api/v1/environments", fetchJson, refresh);
+  const byPinch = useSWR<RankingsResponse, ApiError>(`/api/v1/environments/${env}/rankings?sort=pinchScore&limit=5`, fetchJson, refresh);
+  const byBetweenness = useSWR<RankingsResponse, ApiError>(`/api/v1/environments/${env}/rankings?sort=betweenness&limit=5`, fetchJson, refresh);
+  const boot = useSWR<BootOrderResponse, ApiError>(`/api/v1/environments/${env}/boot-order`, fetchJson, refresh);
+  const imports = useSWR<ImportsResponse, ApiError>(`/api/v1/environments/${env}/imports?limit=1`, fetchJson, refresh);
   const summary = environments.data?.items.find((e) => e.slug === env);
   const counts = components.data?.counts;
+  const ranked = byPinch.data;
 
   if (components.error?.status === 404) {
     return (
@@ -40,46 +92,62 @@ export function Overview({ env }: { env: string }) {
     );
   }
 
+  const lastPush = imports.data?.items[0];
+  const cycles = boot.data?.cycles ?? [];
   return (
     <div className="space-y-6">
-      <div className="flex flex-wrap items-end justify-between gap-3">
-        <div>
-          <h1 className="text-2xl font-semibold tracking-tight">
-            <span className="font-mono">{env}</span> at a glance
-          </h1>
-          <p className="mt-1 text-sm text-muted" data-testid="snapshot-line">
-            {summary?.latestSnapshot
-              ? `Snapshot #${summary.latestSnapshot.number}, pushed ${age(summary.latestSnapshot.createdAt)}`
-              : environments.isLoading
-                ? "Loading…"
-                : "No snapshot yet"}
-            {summary?.analysis && ` · analysis ${summary.analysis.status}`}
+      <div>
+        <h1 className="text-2xl font-semibold tracking-tight">
+          <span className="font-mono">{env}</span> at a glance
+        </h1>
+        <p className="mt-1 text-sm text-muted" data-testid="snapshot-line">
+          {summary?.latestSnapshot
+            ? `Snapshot #${summary.latestSnapshot.number}, pushed ${age(summary.latestSnapshot.createdAt)}`
+            : environments.isLoading
+              ? "Loading…"
+              : "No snapshot yet"}
+          {summary?.analysis && ` · analysis ${summary.analysis.status}${summary.analysis.status === "running" ? ` (${Math.round(summary.analysis.progress * 100)}%)` : ""}`}
+          {lastPush && ` · last push by ${lastPush.actor} from ${lastPush.source}, ${age(lastPush.createdAt)}${lastPush.changed ? "" : " (no change)"}`}
+        </p>
+        {ranked?.latest && (
+          <p className="mt-1 text-sm text-degraded" role="status">
+            Rankings below are from snapshot #{ranked.snapshot.number}; snapshot #{ranked.latest.number} is {ranked.latest.status}
+            {ranked.latest.status === "running" ? ` (${Math.round(ranked.latest.progress * 100)}%, ${ranked.latest.phase})` : ""}.
           </p>
-        </div>
+        )}
       </div>
       {components.error && components.error.status !== 404 && (
         <p role="alert" className="rounded-md border border-down/50 bg-down/10 px-3 py-2 text-sm">
           Could not load the components: {components.error.message}
         </p>
       )}
-      <div className="grid grid-cols-2 gap-3 md:grid-cols-4" aria-busy={components.isLoading}>
+      <div className="grid grid-cols-2 gap-3 md:grid-cols-5" aria-busy={components.isLoading}>
         <Stat label="Components" value={counts?.components ?? "—"} hint={counts ? `${counts.dependencies} dependencies` : undefined} />
         <Stat label="Teams" value={counts?.teams ?? "—"} hint="owning at least one component" />
-        <Stat
-          label="Unowned"
-          value={counts?.unowned ?? "—"}
-          tone={counts && counts.unowned > 0 ? "degraded" : "ink"}
-          hint="declared with no team: nobody to page"
-        />
-        <Stat
-          label="Undeclared"
-          value={counts?.undeclared ?? "—"}
-          tone={counts && counts.undeclared > 0 ? "degraded" : "ink"}
-          hint="needed by something, declared by no source"
-        />
+        <Stat label="Unowned" value={counts?.unowned ?? "—"} tone={counts && counts.unowned > 0 ? "degraded" : "ink"} hint="declared with no team: nobody to page" />
+        <Stat label="Undeclared" value={counts?.undeclared ?? "—"} tone={counts && counts.undeclared > 0 ? "degraded" : "ink"} hint="needed by something, declared by no source" />
+        <Stat label="Cycles" value={boot.data ? cycles.length : "—"} tone={cycles.length ? "down" : "ink"} hint="cannot cold-start unaided" />
       </div>
+      <div className="grid gap-4 lg:grid-cols-2">
+        <TopList env={env} title="Highest pinch score" items={ranked?.items} value={(i) => i.pinchScore.toFixed(1)} />
+        <TopList env={env} title="Most paths through it (betweenness)" items={byBetweenness.data?.items} value={(i) => pct(i.betweenness)} />
+      </div>
+      {cycles.length > 0 && (
+        <Card title="Dependency cycles">
+          <ul className="space-y-1 text-sm">
+            {cycles.map((c) => (
+              <li key={c.join(">")} className="font-mono">
+                {c.length === 2 ? c.join(" ⇄ ") : `${c.length} components: ${c.join(", ")}`}
+              </li>
+            ))}
+          </ul>
+          <p className="mt-2 text-xs text-muted">Each member waits on another: after a full outage none of them can start without manual help.</p>
+        </Card>
+      )}
       <p className="text-xs text-faint">
-        Pinchpoint knows only what the inventory declares: rankings and drills are as good as the files pushed to it.
+        Pinchpoint knows only what the inventory declares: rankings and drills are as good as the files pushed to it
+        {ranked ? `, and ${pct(ranked.snapshot.undeclaredShare)} of these components are undeclared placeholders` : ""}. A drill is not a guarantee;
+        changes to production follow your own change and incident processes.
       </p>
     </div>
   );

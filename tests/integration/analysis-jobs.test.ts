@@ -1,0 +1,114 @@
+// Analysis off the request path: a push queues a job in PostgreSQL, a worker runs it and stores
+// results, the API serves them; a worker that dies mid-run leaves a job that is taken over.
+import { QueryTypes } from "sequelize";
+import { beforeAll, describe, expect, it } from "vitest";
+import { GET as rankings } from "@/app/api/v1/environments/[env]/rankings/route";
+import { GET as blast } from "@/app/api/v1/environments/[env]/components/[key]/blast-radius/route";
+import { POST as drills } from "@/app/api/v1/environments/[env]/drills/route";
+import { GET as bootOrder } from "@/app/api/v1/environments/[env]/boot-order/route";
+import { GET as component } from "@/app/api/v1/environments/[env]/components/[key]/route";
+import { db } from "@/models";
+import { claimNextJob, drainAnalysisQueue, runJob, STALE_AFTER_S } from "@/lib/data/analysis-jobs";
+import { pushInventory } from "@/lib/data/push";
+import { call, createUser, type TestUser } from "../support/api";
+
+// A small estate with a known shape: everything customer-facing goes through `gateway`, which
+// needs `auth` (one instance, one zone); `db` has two replicas in two zones. `a` ⇄ `b` is a cycle.
+const FILE = `pinchpoint: 1
+source: core-repo
+components:
+  - { key: web, kind: service, tier: 1, replicas: 2, zones: [z1, z2], team: shop, needs: [gateway] }
+  - { key: app, kind: service, tier: 1, replicas: 2, zones: [z1, z2], team: shop, needs: [gateway, { key: recs, strength: soft }] }
+  - { key: gateway, kind: gateway, tier: 1, replicas: 2, zones: [z1, z2], team: edge, needs: [auth, db] }
+  - { key: auth, kind: service, tier: 2, replicas: 1, zones: [z1], team: identity }
+  - { key: db, kind: datastore, tier: 2, replicas: 2, zones: [z1, z2], team: data }
+  - { key: recs, kind: service, tier: 3, team: shop, needs: [{ any_of: [a, b] }] }
+  - { key: a, kind: service, tier: 4, zones: [z2], needs: [b] }
+  - { key: b, kind: service, tier: 4, zones: [z2], needs: [a] }
+`;
+
+let viewer: TestUser;
+const system = { type: "system" as const, label: "test", canCreateEnvironments: true as const };
+
+beforeAll(async () => {
+  viewer = await createUser("viewer");
+  await db().models.Team.bulkCreate([{ slug: "shop", name: "Shop", email: "shop@example.test", oncall: "rota shop", description: null }]);
+  await pushInventory({ environment: "prod", format: "pinchpoint", body: FILE, dryRun: false, actor: system });
+});
+
+describe("analysis jobs", () => {
+  it("answers 404 with a clear message until an analysis has finished", async () => {
+    const res = await call(rankings, { url: "/api/v1/environments/prod/rankings", params: { env: "prod" }, as: viewer });
+    expect(res.status).toBe(404);
+    expect((res.json as { message: string }).message).toMatch(/queued|analysis/);
+  });
+
+  it("re-queues a job whose worker stopped sending heartbeats, and finishes it", async () => {
+    const job = await claimNextJob("worker-that-dies");
+    expect(job).not.toBeNull();
+    expect(await claimNextJob("second-worker")).toBeNull(); // held by the first
+    await db().sequelize.query(`UPDATE analysis_runs SET heartbeat_at = now() - make_interval(secs => :s)`, { replacements: { s: STALE_AFTER_S + 5 } });
+    const taken = await claimNextJob("second-worker");
+    expect(taken?.id).toBe(job?.id);
+    expect(taken?.attempts).toBe(2);
+    expect(await runJob(taken!, "second-worker")).toBe("done");
+    // The first worker coming back to life cannot overwrite the result.
+    expect(await runJob(job!, "worker-that-dies")).toBe("lost");
+    const [run] = await db().sequelize.query<{ status: string; progress: number; exact: boolean }>("SELECT status, progress, exact FROM analysis_runs", { type: QueryTypes.SELECT });
+    expect(run).toEqual({ status: "done", progress: 1, exact: true });
+  });
+
+  it("serves rankings sorted by betweenness by default, with snapshot and analysis metadata", async () => {
+    const res = await call(rankings, { url: "/api/v1/environments/prod/rankings", params: { env: "prod" }, as: viewer });
+    expect(res.status).toBe(200);
+    const body = res.json as { snapshot: { number: number; undeclaredShare: number }; analysis: { status: string; exact: boolean }; total: number; items: Array<{ key: string; betweenness: number; blastRadius: { down: number } }> };
+    expect(body.snapshot.number).toBe(1);
+    expect(body.analysis).toMatchObject({ status: "done", exact: true });
+    expect(body.total).toBe(8);
+    // gateway lies on every path from web/app to auth/db: 4 of the (n−1)(n−2) = 42 ordered pairs
+    // (web→auth, web→db, app→auth, app→db), so 4/42 (Freeman 1977 definition, directed, normalised).
+    expect(body.items[0]?.key).toBe("gateway");
+    expect(body.items[0]?.betweenness).toBeCloseTo(4 / 42, 12);
+    const sorted = await call(rankings, { url: "/api/v1/environments/prod/rankings?sort=blastDown&limit=2", params: { env: "prod" }, as: viewer });
+    const top = (sorted.json as { items: Array<{ key: string; blastRadius: { down: number } }> }).items;
+    // auth down → gateway, web, app down (hard chain): 3.
+    expect(top.map((i) => [i.key, i.blastRadius.down])).toEqual([["auth", 3], ["db", 3]]);
+  });
+
+  it("answers single blast radius and multi-failure drills with teams to page", async () => {
+    const one = await call(blast, { url: "/api/v1/environments/prod/components/auth/blast-radius", params: { env: "prod", key: "auth" }, as: viewer });
+    expect(one.status).toBe(200);
+    expect(one.json).toMatchObject({ down: expect.arrayContaining(["auth", "gateway", "web", "app"]), degraded: [] });
+    const zone = await call(drills, { url: "/api/v1/environments/prod/drills", method: "POST", params: { env: "prod" }, as: viewer, body: { fail: { zones: ["z2"] } } });
+    // z2 fails a and b (their only zone): the any_of group of recs is unmet, but recs is a soft
+    // need of app, so recs is down and app only degraded.
+    expect(zone.json).toMatchObject({ down: expect.arrayContaining(["a", "b", "recs"]), degraded: ["app"] });
+    const teams = (zone.json as { teams: Array<{ team: string | null; contact: { oncall: string } | null }> }).teams;
+    expect(teams.find((t) => t.team === "shop")?.contact?.oncall).toBe("rota shop");
+    const unknown = await call(drills, { url: "/api/v1/environments/prod/drills", method: "POST", params: { env: "prod" }, as: viewer, body: { fail: { components: ["nope"] } } });
+    expect(unknown.status).toBe(422);
+    const empty = await call(drills, { url: "/api/v1/environments/prod/drills", method: "POST", params: { env: "prod" }, as: viewer, body: { fail: {} } });
+    expect(empty.status).toBe(422);
+  });
+
+  it("reports boot order with the cycle that cannot cold-start", async () => {
+    const res = await call(bootOrder, { url: "/api/v1/environments/prod/boot-order", params: { env: "prod" }, as: viewer });
+    const body = res.json as { stages: string[][]; cycles: string[][] };
+    expect(body.cycles.map((c) => [...c].sort())).toEqual([["a", "b"]]);
+    expect(body.stages[0]).toEqual(expect.arrayContaining(["auth", "db"]));
+  });
+
+  it("gives the component page its measures", async () => {
+    const res = await call(component, { url: "/api/v1/environments/prod/components/gateway", params: { env: "prod", key: "gateway" }, as: viewer });
+    expect(res.json).toMatchObject({ key: "gateway", needs: [{ key: "auth" }, { key: "db" }], dependents: [{ key: "app" }, { key: "web" }], metrics: { rank: 1, articulation: true } });
+  });
+
+  it("a new snapshot is analysed in turn and the old results stay until then", async () => {
+    await pushInventory({ environment: "prod", format: "pinchpoint", body: FILE.replace("tier: 4, zones: [z2], needs: [a]", "tier: 4, zones: [z1, z2], needs: [a]"), dryRun: false, actor: system });
+    const before = await call(rankings, { url: "/api/v1/environments/prod/rankings", params: { env: "prod" }, as: viewer });
+    expect(before.json).toMatchObject({ snapshot: { number: 1 }, latest: { number: 2, status: "queued" } });
+    expect(await drainAnalysisQueue("w")).toBe(1);
+    const after = await call(rankings, { url: "/api/v1/environments/prod/rankings", params: { env: "prod" }, as: viewer });
+    expect(after.json).toMatchObject({ snapshot: { number: 2 }, latest: null });
+  });
+});

@@ -61,7 +61,14 @@ resolve_data_dir() {
   fi
 }
 
-is_running() { [ -f "$data/postmaster.pid" ] && as_pg "$bin/pg_ctl" -D "$data" status >/dev/null 2>&1; }
+# A postmaster killed without a clean stop can linger as a zombie in a container with no init to
+# reap it; pg_ctl then still sees its pid. Alive means: the pid exists, is postgres, is not a zombie.
+pid_alive() {
+  local stat
+  stat=$(ps -o stat=,comm= -p "$1" 2>/dev/null) || return 1
+  case "$stat" in Z*) return 1 ;; *postgres*) return 0 ;; *) return 1 ;; esac
+}
+is_running() { [ -f "$data/postmaster.pid" ] && pid_alive "$(head -n 1 "$data/postmaster.pid")" && as_pg "$bin/pg_ctl" -D "$data" status >/dev/null 2>&1; }
 
 url() {
   local pw
@@ -103,8 +110,8 @@ CONF
     if [ -f "$data/postmaster.pid" ]; then
       local pid
       pid=$(head -n 1 "$data/postmaster.pid")
-      if ! ps -p "$pid" -o comm= 2>/dev/null | grep -q postgres; then
-        say "removing stale postmaster.pid (pid $pid is not a postgres process)"
+      if ! pid_alive "$pid"; then
+        say "removing stale postmaster.pid (pid $pid is gone, a zombie, or not postgres)"
         rm -f "$data/postmaster.pid"
       fi
     fi

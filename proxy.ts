@@ -15,5 +15,6 @@ export async function proxy(req: NextRequest) {
 
 export const config = {
   // Not the API (it answers 401 JSON itself), not sign-in, not Next's assets.
-  matcher: ["/((?!api/|signin|forbidden|_next/|favicon.ico|robots.txt).*)"],
+  // Not /invite/{token} either: the invitee has no session yet, the link is the credential.
+  matcher: ["/((?!api/|signin|forbidden|invite/|_next/|favicon.ico|robots.txt).*)"],
 };

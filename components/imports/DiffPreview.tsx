@@ -1,0 +1,212 @@
+"use client";
+
+import type { ReactNode } from "react";
+import type { DiffSummary } from "@/lib/data/push";
+import type { SnapshotDependency } from "@/lib/inventory/snapshot";
+
+/** Per table: enough to review by eye; the counts above always tell the whole size. */
+const ROW_LIMIT = 200;
+
+function show(value: unknown): string {
+  if (value === null || value === undefined) return "—";
+  if (Array.isArray(value)) return value.length ? value.join(", ") : "[]";
+  if (typeof value === "object") {
+    const entries = Object.entries(value as Record<string, unknown>);
+    return entries.length ? entries.map(([k, v]) => `${k}: ${String(v)}`).join(", ") : "{}";
+  }
+  return String(value);
+}
+
+function Count({ label, value, tone }: { label: string; value: number; tone: "add" | "remove" | "change" }) {
+  const colour = value === 0 ? "text-faint" : tone === "add" ? "text-ok" : tone === "remove" ? "text-down" : "text-degraded";
+  const sign = tone === "add" ? "+" : tone === "remove" ? "−" : "~";
+  return (
+    <div className="rounded-md border border-line bg-raised px-3 py-2">
+      <div className="text-xs text-muted">{label}</div>
+      <div className={`font-mono text-xl font-semibold tabular-nums ${colour}`}>
+        {value > 0 ? sign : ""}
+        {value}
+      </div>
+    </div>
+  );
+}
+
+function Section({ title, total, children }: { title: string; total: number; children: ReactNode }) {
+  if (total === 0) return null;
+  return (
+    <section className="space-y-2">
+      <h3 className="text-sm font-semibold">
+        {title} <span className="font-mono text-muted">({total})</span>
+      </h3>
+      <div className="overflow-x-auto rounded-md border border-line">{children}</div>
+      {total > ROW_LIMIT && <p className="text-xs text-muted">Showing the first {ROW_LIMIT} of {total}.</p>}
+    </section>
+  );
+}
+
+const th = "px-3 py-1.5 text-left text-xs font-medium uppercase tracking-wide text-faint";
+const td = "px-3 py-1.5 align-top";
+
+function dependencyLabel(d: Pick<SnapshotDependency, "from" | "to" | "group">) {
+  return (
+    <span className="font-mono">
+      {d.from} → {d.to}
+      {d.group && <span className="ml-2 font-sans text-xs text-muted">(one of a group)</span>}
+    </span>
+  );
+}
+
+function DependencyTable({ rows, mark }: { rows: SnapshotDependency[]; mark: "+" | "−" }) {
+  return (
+    <table className="w-full text-sm">
+      <thead className="bg-surface">
+        <tr>
+          <th className={th}>Dependency (needs)</th>
+          <th className={th}>Strength</th>
+          <th className={th}>Via</th>
+          <th className={th}>Source</th>
+        </tr>
+      </thead>
+      <tbody>
+        {rows.slice(0, ROW_LIMIT).map((d, i) => (
+          <tr key={i} className="border-t border-line">
+            <td className={td}>
+              <span className={mark === "+" ? "text-ok" : "text-down"}>{mark} </span>
+              {dependencyLabel(d)}
+            </td>
+            <td className={td}>{d.strength}</td>
+            <td className={`${td} text-muted`}>{d.via ?? "—"}</td>
+            <td className={`${td} font-mono text-xs text-muted`}>{d.source ?? "—"}</td>
+          </tr>
+        ))}
+      </tbody>
+    </table>
+  );
+}
+
+export function DiffPreview({ diff }: { diff: DiffSummary }) {
+  const c = diff.counts;
+  const dependenciesChanged = diff.dependenciesChanged ?? [];
+  return (
+    <div className="space-y-5">
+      <div className="grid grid-cols-2 gap-2 sm:grid-cols-3 lg:grid-cols-6" data-testid="diff-counts">
+        <Count label="Components added" value={c.componentsAdded} tone="add" />
+        <Count label="Components removed" value={c.componentsRemoved} tone="remove" />
+        <Count label="Components changed" value={c.componentsChanged} tone="change" />
+        <Count label="Dependencies added" value={c.dependenciesAdded} tone="add" />
+        <Count label="Dependencies removed" value={c.dependenciesRemoved} tone="remove" />
+        <Count label="Dependencies changed" value={dependenciesChanged.length} tone="change" />
+      </div>
+
+      <Section title="Components added" total={diff.componentsAdded.length}>
+        <table className="w-full text-sm">
+          <thead className="bg-surface">
+            <tr>
+              <th className={th}>Key</th>
+              <th className={th}>Kind</th>
+              <th className={th}>Team</th>
+              <th className={th}>Tier</th>
+              <th className={th}>Source</th>
+            </tr>
+          </thead>
+          <tbody>
+            {diff.componentsAdded.slice(0, ROW_LIMIT).map((comp) => (
+              <tr key={comp.key} className="border-t border-line" data-testid="diff-added">
+                <td className={`${td} font-mono`}>
+                  <span className="text-ok">+ </span>
+                  {comp.key}
+                </td>
+                <td className={`${td} ${comp.kind === "undeclared" ? "text-undeclared" : ""}`}>{comp.kind === "undeclared" ? "placeholder (undeclared)" : comp.kind}</td>
+                <td className={td}>{comp.team ?? (comp.kind === "undeclared" ? <span className="text-faint">—</span> : <span className="text-degraded">no owner</span>)}</td>
+                <td className={`${td} font-mono`}>{comp.tier}</td>
+                <td className={`${td} font-mono text-xs text-muted`}>{comp.source ?? "—"}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </Section>
+
+      <Section title="Components removed" total={diff.componentsRemoved.length}>
+        <table className="w-full text-sm">
+          <thead className="bg-surface">
+            <tr>
+              <th className={th}>Key</th>
+              <th className={th}>Kind</th>
+              <th className={th}>Team</th>
+              <th className={th}>Was declared by</th>
+            </tr>
+          </thead>
+          <tbody>
+            {diff.componentsRemoved.slice(0, ROW_LIMIT).map((comp) => (
+              <tr key={comp.key} className="border-t border-line">
+                <td className={`${td} font-mono`}>
+                  <span className="text-down">− </span>
+                  {comp.key}
+                </td>
+                <td className={td}>{comp.kind}</td>
+                <td className={td}>{comp.team ?? "—"}</td>
+                <td className={`${td} font-mono text-xs text-muted`}>{comp.source ?? "—"}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </Section>
+
+      <Section title="Components changed" total={diff.componentsChanged.length}>
+        <table className="w-full text-sm">
+          <thead className="bg-surface">
+            <tr>
+              <th className={th}>Key</th>
+              <th className={th}>Field</th>
+              <th className={th}>Before</th>
+              <th className={th}>After</th>
+            </tr>
+          </thead>
+          <tbody>
+            {diff.componentsChanged.slice(0, ROW_LIMIT).flatMap((change) =>
+              Object.entries(change.changes).map(([field, delta], i) => (
+                <tr key={`${change.key}.${field}`} className={i === 0 ? "border-t border-line" : ""}>
+                  <td className={`${td} font-mono`}>{i === 0 ? change.key : ""}</td>
+                  <td className={`${td} font-mono text-xs`}>{field}</td>
+                  <td className={`${td} text-down`}>{show(delta?.before)}</td>
+                  <td className={`${td} text-ok`}>{show(delta?.after)}</td>
+                </tr>
+              )),
+            )}
+          </tbody>
+        </table>
+      </Section>
+
+      <Section title="Dependencies added" total={diff.dependenciesAdded.length}>
+        <DependencyTable rows={diff.dependenciesAdded} mark="+" />
+      </Section>
+      <Section title="Dependencies removed" total={diff.dependenciesRemoved.length}>
+        <DependencyTable rows={diff.dependenciesRemoved} mark="−" />
+      </Section>
+      <Section title="Dependencies changed" total={dependenciesChanged.length}>
+        <table className="w-full text-sm">
+          <thead className="bg-surface">
+            <tr>
+              <th className={th}>Dependency</th>
+              <th className={th}>Field</th>
+              <th className={th}>Before</th>
+              <th className={th}>After</th>
+            </tr>
+          </thead>
+          <tbody>
+            {dependenciesChanged.slice(0, ROW_LIMIT).flatMap((change) =>
+              Object.entries(change.changes).map(([field, delta], i) => (
+                <tr key={`${change.from}>${change.to}>${change.group ?? ""}.${field}`} className={i === 0 ? "border-t border-line" : ""}>
+                  <td className={td}>{i === 0 ? dependencyLabel(change) : ""}</td>
+                  <td className={`${td} font-mono text-xs`}>{field}</td>
+                  <td className={`${td} text-down`}>{show(delta?.before)}</td>
+                  <td className={`${td} text-ok`}>{show(delta?.after)}</td>
+                </tr>
+              )),
+            )}
+          </tbody>
+        </table>
+      </Section>
+    </div>
+  );
+}

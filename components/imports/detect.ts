@@ -1,0 +1,45 @@
+// Guess an upload's format from its name and first bytes, so the common case needs no choice;
+// the user can always override. Pure, so the guess is testable without a browser.
+import type { ImportFormat } from "@/lib/inventory/types";
+
+export const FORMATS: { value: ImportFormat; label: string; hint: string }[] = [
+  { value: "pinchpoint", label: "Pinchpoint inventory", hint: "YAML or JSON, format 1 — names its own source" },
+  { value: "compose", label: "Compose file", hint: "services and their depends_on / links" },
+  { value: "csv", label: "CSV edge list", hint: "header from,to[,strength], one dependency a row" },
+  { value: "otlp", label: "OpenTelemetry traces", hint: "OTLP/JSON export; gives observed edges only" },
+];
+
+export interface Detection {
+  format: ImportFormat;
+  why: string;
+}
+
+const head = (text: string) => text.replace(/^\uFEFF/, "").slice(0, 64 * 1024);
+
+export function detectFormat(fileName: string, text: string): Detection {
+  const name = fileName.toLowerCase();
+  const start = head(text);
+  const trimmed = start.trimStart();
+  if (name.endsWith(".csv") || /^from\s*,\s*to\b/i.test(trimmed)) return { format: "csv", why: "a CSV file with a from,to header" };
+  if (trimmed.startsWith("{") || trimmed.startsWith("[")) {
+    if (/"resourceSpans"\s*:/.test(start)) return { format: "otlp", why: "JSON with resourceSpans (an OTLP trace export)" };
+    if (/"services"\s*:/.test(start) && !/"pinchpoint"\s*:/.test(start)) return { format: "compose", why: "JSON with services and no pinchpoint version" };
+    return { format: "pinchpoint", why: "JSON" };
+  }
+  if (/^pinchpoint\s*:/m.test(start)) return { format: "pinchpoint", why: "a pinchpoint: version line" };
+  if (/(^|\/)(docker-)?compose[^/]*\.ya?ml$/.test(name) || /^services\s*:/m.test(start)) return { format: "compose", why: "a Compose services: section" };
+  return { format: "pinchpoint", why: "no other format matched" };
+}
+
+export function contentTypeFor(format: ImportFormat, text: string): string {
+  if (format === "csv") return "text/csv";
+  if (format === "otlp") return "application/json";
+  const trimmed = head(text).trimStart();
+  return trimmed.startsWith("{") || trimmed.startsWith("[") ? "application/json" : "application/yaml";
+}
+
+/** A source name suggested from the file name, shaped to the source pattern. */
+export function suggestSource(fileName: string): string {
+  const base = fileName.toLowerCase().replace(/\.[a-z0-9]+$/, "").replace(/[^a-z0-9._-]+/g, "-").replace(/^[^a-z0-9]+/, "").slice(0, 60);
+  return base || "upload";
+}

@@ -1,0 +1,37 @@
+// The push request from the browser (session cookie), with every answer of DESIGN §4 turned
+// into one value the screen can render.
+import type { PushResult } from "@/lib/data/push";
+import type { ImportFormat, InventoryIssue } from "@/lib/inventory/types";
+import { contentTypeFor } from "./detect";
+
+export type PushOutcome =
+  | { kind: "ok"; result: PushResult }
+  | { kind: "invalid"; status: number; message: string; issues: InventoryIssue[] }
+  | { kind: "conflict"; message: string; issues: InventoryIssue[] }
+  | { kind: "too-large"; message: string; issues: InventoryIssue[] }
+  | { kind: "refused"; status: number; message: string };
+
+export async function pushFile({ env, format, source, text, dryRun }: { env: string; format: ImportFormat; source: string; text: string; dryRun: boolean }): Promise<PushOutcome> {
+  const query = new URLSearchParams();
+  if (dryRun) query.set("dry_run", "true");
+  query.set("format", format);
+  if (source) query.set("source", source);
+  let res: Response;
+  try {
+    res = await fetch(`/api/v1/environments/${encodeURIComponent(env)}/inventory?${query}`, {
+      method: "POST",
+      headers: { "content-type": contentTypeFor(format, text), accept: "application/json" },
+      body: text,
+    });
+  } catch {
+    return { kind: "refused", status: 0, message: "Could not reach Pinchpoint. Check the connection and try again." };
+  }
+  const body = (await res.json().catch(() => null)) as { error?: string; message?: string; issues?: InventoryIssue[] } | null;
+  if (res.ok) return { kind: "ok", result: body as unknown as PushResult };
+  const message = body?.message ?? `The server answered ${res.status}`;
+  const issues = Array.isArray(body?.issues) ? body.issues : [];
+  if (res.status === 409) return { kind: "conflict", message, issues };
+  if (res.status === 413) return { kind: "too-large", message, issues };
+  if (res.status === 422) return { kind: "invalid", status: res.status, message, issues };
+  return { kind: "refused", status: res.status, message };
+}

@@ -1,0 +1,121 @@
+// The imports screen as a new engineer meets it: a broken file first (errors at the right lines,
+// with the offending lines shown), then a good one → dry-run preview → push → history.
+// Writes only source `e2e-imports-repo` with keys `e2e-imp-*` in `production`, which no other test reads.
+import type { Browser, Page } from "playwright-core";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { baseUrl, launch, screenshot } from "./browser";
+import { SignInPage } from "./pages/signin";
+
+let browser: Browser;
+beforeAll(async () => {
+  browser = await launch();
+});
+afterAll(async () => {
+  await browser?.close();
+});
+
+// Line 7 has an unknown field, line 12 a kind that does not exist.
+const BROKEN = `pinchpoint: 1
+source: e2e-imports-repo
+components:
+  - key: e2e-imp-web
+    kind: service
+    needs: [e2e-imp-api]
+    colour: blue
+  - key: e2e-imp-api
+    kind: service
+    needs: [e2e-imp-db]
+  - key: e2e-imp-db
+    kind: databse
+`;
+
+const WITH_PLACEHOLDER = `pinchpoint: 1
+source: e2e-imports-repo
+components:
+  - key: e2e-imp-web
+    kind: service
+    team: storefront
+    needs: [e2e-imp-api]
+  - key: e2e-imp-api
+    kind: service
+    needs: [e2e-imp-db, e2e-imp-ledger]
+  - key: e2e-imp-db
+    kind: datastore
+`;
+
+// Every key declared, so the real push adds no placeholder to the shared demo environment.
+const GOOD = WITH_PLACEHOLDER.replace("needs: [e2e-imp-db, e2e-imp-ledger]", "needs: [e2e-imp-db]");
+
+async function upload(page: Page, name: string, text: string) {
+  await page.getByLabel("Inventory file").setInputFiles({ name, mimeType: "application/yaml", buffer: Buffer.from(text) });
+}
+
+async function signedIn(role: string): Promise<Page> {
+  const context = await browser.newContext({ viewport: { width: 1366, height: 900 } });
+  const page = await context.newPage();
+  const signin = new SignInPage(page);
+  await signin.open();
+  await signin.signIn(`${role}@harbor-pantry.example`);
+  await page.waitForURL((url) => url.pathname === "/");
+  return page;
+}
+
+describe("imports screen", () => {
+  it("shows a broken file's errors at their lines, previews a good one, pushes it, and lists it", async () => {
+    const page = await signedIn("engineer");
+    await page.goto(`${baseUrl()}/environments/production/imports`);
+    await page.getByTestId("dropzone").waitFor();
+
+    await upload(page, "storefront-inventory.yaml", BROKEN);
+    await page.getByTestId("import-errors").waitFor({ timeout: 15_000 });
+    const locations = await page.getByTestId("issue-location").allTextContents();
+    expect(locations).toEqual(["line 7:5", "line 12:11"]);
+    const issues = await page.getByTestId("import-issue").allTextContents();
+    expect(issues[0]).toContain("colour");
+    expect(issues[1]).toContain("databse");
+    // The highlighted line in each excerpt is the offending one.
+    const hitLines = await page.locator("[data-hit]").evaluateAll((els) => els.map((e) => [e.getAttribute("data-line"), e.textContent?.trim()]));
+    expect(hitLines).toEqual([
+      ["7", expect.stringContaining("colour: blue")],
+      ["12", expect.stringContaining("kind: databse")],
+    ]);
+    expect(await page.getByTestId("push-button").count()).toBe(0);
+    await screenshot(page, "imports-broken-file");
+
+    await upload(page, "storefront-inventory.yaml", WITH_PLACEHOLDER);
+    await page.getByTestId("preview-title").waitFor({ timeout: 15_000 });
+    const warnings = await page.getByTestId("import-warning").allTextContents();
+    expect(warnings.join(" ")).toContain("e2e-imp-ledger");
+    await screenshot(page, "imports-preview-with-warning");
+
+    await upload(page, "storefront-inventory.yaml", GOOD);
+    await expect.poll(() => page.getByTestId("import-warning").count(), { timeout: 15_000 }).toBe(0);
+    await page.getByTestId("preview-title").waitFor();
+    const added = await page.getByTestId("diff-added").allTextContents();
+    expect(added.map((t) => t.match(/e2e-imp-(?:web|api|db)/)?.[0]).sort()).toEqual(["e2e-imp-api", "e2e-imp-db", "e2e-imp-web"]);
+    await screenshot(page, "imports-preview");
+
+    await page.getByTestId("push-button").click();
+    const result = page.getByTestId("push-result");
+    await result.waitFor({ timeout: 15_000 });
+    const pushed = (await result.textContent()) ?? "";
+    const snapshot = pushed.match(/snapshot #(\d+)/)?.[1];
+    expect(snapshot).toBeDefined();
+    const firstRow = page.getByTestId("history-row").first();
+    await expect.poll(async () => (await firstRow.textContent()) ?? "", { timeout: 15_000 }).toContain("e2e-imports-repo");
+    expect(await firstRow.textContent()).toContain(`snapshot #${snapshot}`);
+    expect(await firstRow.textContent()).toContain("engineer@harbor-pantry.example");
+    await screenshot(page, "imports-pushed");
+    await page.context().close();
+  });
+
+  it("a viewer sees the history and a plain note instead of the upload", async () => {
+    const page = await signedIn("viewer");
+    await page.goto(`${baseUrl()}/environments/production/imports`);
+    await page.getByTestId("upload-not-allowed").waitFor();
+    expect(await page.getByTestId("dropzone").count()).toBe(0);
+    await expect.poll(() => page.getByTestId("history-row").count(), { timeout: 15_000 }).toBeGreaterThan(0);
+    await screenshot(page, "imports-viewer");
+    await page.context().close();
+  });
+});

@@ -1,0 +1,288 @@
+// Teams as people manage them: the list with counts, one team with its members and components,
+// edits (admins; leads for their own team's contact details), membership, and the unowned queue.
+// Every write is audited in the same transaction.
+import "server-only";
+import { QueryTypes, UniqueConstraintError } from "sequelize";
+import { db } from "@/models";
+import type { Actor } from "@/lib/auth/actor";
+import { roleHas } from "@/lib/auth/roles";
+import { LEAD_EDITABLE, type AddMemberInput, type CreateTeamInput, type UpdateTeamInput } from "@/lib/api/schemas/teams";
+import { AppError, forbidden, notFound } from "@/lib/errors";
+import type { ComponentKind, Tier } from "@/lib/inventory/types";
+import { recordAudit } from "./audit";
+import { teamsLedBy } from "./teams";
+
+/** A component is a team's pinch point when it is in its environment's top this many by pinch score. */
+export const PINCH_POINT_TOP = 10;
+
+export interface TeamOverview {
+  slug: string;
+  name: string;
+  email: string | null;
+  oncall: string | null;
+  description: string | null;
+  memberCount: number;
+  leadCount: number;
+  /** components the team owns (assigned in Pinchpoint, else declared), summed over environments */
+  componentCount: number;
+  pinchPointCount: number;
+}
+
+export interface TeamMember {
+  userId: string;
+  name: string;
+  email: string;
+  role: string;
+  isLead: boolean;
+}
+
+export interface TeamComponent {
+  environment: string;
+  key: string;
+  name: string;
+  kind: ComponentKind;
+  tier: Tier;
+  /** null until the environment's served snapshot has been analysed with this component in it */
+  pinchScore: number | null;
+  /** position by betweenness (the default ranking) */
+  rank: number | null;
+  /** position by pinch score within the environment */
+  pinchRank: number | null;
+  pinchPoint: boolean;
+}
+
+export interface TeamDetail extends Omit<TeamOverview, "memberCount" | "leadCount" | "componentCount" | "pinchPointCount"> {
+  id: string;
+  members: TeamMember[];
+  components: TeamComponent[];
+  pinchPoints: TeamComponent[];
+}
+
+export type UnownedComponent = Omit<TeamComponent, "pinchPoint"> & { pinchPoint: boolean; declaredTeam: null };
+
+// The newest analysed snapshot of each environment, and each component's place by pinch score in it.
+const SCORED_CTE = `
+  served AS (
+    SELECT DISTINCT ON (s.environment_id) s.environment_id, s.id AS snapshot_id
+      FROM snapshots s JOIN analysis_runs r ON r.snapshot_id = s.id AND r.status = 'done'
+     ORDER BY s.environment_id, s.number DESC),
+  scored AS (
+    SELECT sv.environment_id, m.key, m.pinch_score, m.rank,
+           row_number() OVER (PARTITION BY sv.environment_id ORDER BY m.pinch_score DESC, m.key) AS pinch_rank
+      FROM served sv JOIN component_metrics m ON m.snapshot_id = sv.snapshot_id)`;
+
+interface ComponentRow {
+  environment: string;
+  key: string;
+  name: string;
+  kind: ComponentKind;
+  tier: number;
+  team: string | null;
+  pinch_score: number | null;
+  rank: number | null;
+  pinch_rank: string | null;
+}
+
+async function ownedComponents(where: string, replacements: Record<string, unknown>): Promise<ComponentRow[]> {
+  return db().sequelize.query<ComponentRow>(
+    `WITH ${SCORED_CTE}
+     SELECT e.slug AS environment, c.key, c.name, c.kind, c.tier, COALESCE(a.owner_team, c.team) AS team,
+            sc.pinch_score, sc.rank, sc.pinch_rank
+       FROM components c
+       JOIN environments e ON e.id = c.environment_id
+       LEFT JOIN component_annotations a ON a.environment_id = c.environment_id AND a.key = c.key
+       LEFT JOIN scored sc ON sc.environment_id = c.environment_id AND sc.key = c.key
+      WHERE ${where}
+      ORDER BY sc.pinch_score DESC NULLS LAST, e.slug, c.key`,
+    { type: QueryTypes.SELECT, replacements: { ...replacements, top: PINCH_POINT_TOP } },
+  );
+}
+
+const toComponent = (r: ComponentRow): TeamComponent => {
+  const pinchRank = r.pinch_rank === null ? null : Number(r.pinch_rank);
+  return {
+    environment: r.environment,
+    key: r.key,
+    name: r.name,
+    kind: r.kind,
+    tier: r.tier as Tier,
+    pinchScore: r.pinch_score,
+    rank: r.rank,
+    pinchRank,
+    pinchPoint: pinchRank !== null && pinchRank <= PINCH_POINT_TOP,
+  };
+};
+
+export async function listTeamOverview(): Promise<{ items: TeamOverview[]; unownedCount: number }> {
+  const rows = await db().sequelize.query<{
+    slug: string;
+    name: string;
+    email: string | null;
+    oncall: string | null;
+    description: string | null;
+    member_count: string;
+    lead_count: string;
+    component_count: string;
+    pinch_point_count: string;
+  }>(
+    `WITH ${SCORED_CTE},
+     owned AS (
+       SELECT COALESCE(a.owner_team, c.team) AS team, sc.pinch_rank
+         FROM components c
+         LEFT JOIN component_annotations a ON a.environment_id = c.environment_id AND a.key = c.key
+         LEFT JOIN scored sc ON sc.environment_id = c.environment_id AND sc.key = c.key)
+     SELECT t.slug, t.name, t.email, t.oncall, t.description,
+            (SELECT count(*) FROM memberships m WHERE m.team_id = t.id) AS member_count,
+            (SELECT count(*) FROM memberships m WHERE m.team_id = t.id AND m.is_lead) AS lead_count,
+            (SELECT count(*) FROM owned o WHERE o.team = t.slug) AS component_count,
+            (SELECT count(*) FROM owned o WHERE o.team = t.slug AND o.pinch_rank <= :top) AS pinch_point_count
+       FROM teams t
+      ORDER BY t.slug`,
+    { type: QueryTypes.SELECT, replacements: { top: PINCH_POINT_TOP } },
+  );
+  const [unowned] = await db().sequelize.query<{ n: string }>(
+    `SELECT count(*) AS n FROM components c
+       LEFT JOIN component_annotations a ON a.environment_id = c.environment_id AND a.key = c.key
+      WHERE COALESCE(a.owner_team, c.team) IS NULL AND c.kind <> 'undeclared'`,
+    { type: QueryTypes.SELECT },
+  );
+  return {
+    items: rows.map((r) => ({
+      slug: r.slug,
+      name: r.name,
+      email: r.email,
+      oncall: r.oncall,
+      description: r.description,
+      memberCount: Number(r.member_count),
+      leadCount: Number(r.lead_count),
+      componentCount: Number(r.component_count),
+      pinchPointCount: Number(r.pinch_point_count),
+    })),
+    unownedCount: Number(unowned?.n ?? 0),
+  };
+}
+
+export async function getTeamDetail({ slug }: { slug: string }): Promise<TeamDetail> {
+  const { models } = db();
+  const team = await models.Team.findOne({ where: { slug } });
+  if (!team) throw notFound(`Team "${slug}"`);
+  const members = await db().sequelize.query<{ user_id: string; name: string; email: string; role: string; is_lead: boolean }>(
+    `SELECT u.id AS user_id, u.name, u.email, u.role, m.is_lead
+       FROM memberships m JOIN users u ON u.id = m.user_id
+      WHERE m.team_id = :teamId
+      ORDER BY m.is_lead DESC, u.name`,
+    { type: QueryTypes.SELECT, replacements: { teamId: team.id } },
+  );
+  const components = (await ownedComponents("COALESCE(a.owner_team, c.team) = :slug", { slug })).map(toComponent);
+  return {
+    id: team.id,
+    slug: team.slug,
+    name: team.name,
+    email: team.email,
+    oncall: team.oncall,
+    description: team.description,
+    members: members.map((m) => ({ userId: m.user_id, name: m.name, email: m.email, role: m.role, isLead: m.is_lead })),
+    components,
+    pinchPoints: components.filter((c) => c.pinchPoint),
+  };
+}
+
+/** Components nobody owns, in every environment (or one), most pinching first. */
+export async function listUnowned({ environment }: { environment?: string } = {}): Promise<UnownedComponent[]> {
+  const where = ["COALESCE(a.owner_team, c.team) IS NULL", "c.kind <> 'undeclared'"];
+  if (environment) where.push("e.slug = :environment");
+  const rows = await ownedComponents(where.join(" AND "), { environment });
+  return rows.map((r) => ({ ...toComponent(r), declaredTeam: null }));
+}
+
+type TeamRecord = { slug: string; name: string; email: string | null; oncall: string | null; description: string | null };
+const teamRecord = (t: TeamRecord): TeamRecord => ({ slug: t.slug, name: t.name, email: t.email, oncall: t.oncall, description: t.description });
+
+function requireUserActor(actor: Actor): Extract<Actor, { type: "user" }> {
+  if (actor.type !== "user") throw forbidden("Teams are managed by people, not tokens");
+  return actor;
+}
+
+export async function createTeam({ input, actor }: { input: CreateTeamInput; actor: Actor }): Promise<TeamRecord> {
+  const user = requireUserActor(actor);
+  if (!roleHas(user.role, "admin")) throw forbidden("Only admins create teams");
+  const { models, sequelize } = db();
+  try {
+    return await sequelize.transaction(async (transaction) => {
+      const row = await models.Team.create(
+        { slug: input.slug, name: input.name, email: input.email ?? null, oncall: input.oncall ?? null, description: input.description ?? null },
+        { transaction },
+      );
+      const after = teamRecord(row);
+      await recordAudit({ actor, action: "team.create", targetType: "team", targetId: row.slug, after }, transaction);
+      return after;
+    });
+  } catch (error) {
+    if (error instanceof UniqueConstraintError) throw new AppError("conflict", `A team "${input.slug}" already exists`);
+    throw error;
+  }
+}
+
+export async function updateTeam({ slug, input, actor }: { slug: string; input: UpdateTeamInput; actor: Actor }): Promise<TeamRecord> {
+  const user = requireUserActor(actor);
+  const { models, sequelize } = db();
+  const team = await models.Team.findOne({ where: { slug } });
+  if (!team) throw notFound(`Team "${slug}"`);
+  if (!roleHas(user.role, "admin")) {
+    const led = await teamsLedBy({ userId: user.id });
+    if (!led.includes(slug)) throw forbidden(`Only a lead of "${slug}" or an admin may edit this team`);
+    const adminOnly = Object.entries(input).filter(([field, value]) => value !== undefined && !(LEAD_EDITABLE as readonly string[]).includes(field));
+    if (adminOnly.length) throw forbidden(`A lead may change the e-mail, on-call contact and description; ${adminOnly.map(([f]) => f).join(", ")} is for admins`);
+  }
+  return sequelize.transaction(async (transaction) => {
+    await team.reload({ transaction, lock: transaction.LOCK.UPDATE });
+    const before = teamRecord(team);
+    const changes: Partial<TeamRecord> = {};
+    if (input.name !== undefined) changes.name = input.name;
+    if (input.email !== undefined) changes.email = input.email;
+    if (input.oncall !== undefined) changes.oncall = input.oncall;
+    if (input.description !== undefined) changes.description = input.description;
+    await team.update(changes, { transaction });
+    const after = teamRecord(team);
+    await recordAudit({ actor, action: "team.update", targetType: "team", targetId: slug, before, after }, transaction);
+    return after;
+  });
+}
+
+export async function addTeamMember({ slug, input, actor }: { slug: string; input: AddMemberInput; actor: Actor }): Promise<TeamMember> {
+  const user = requireUserActor(actor);
+  if (!roleHas(user.role, "admin")) throw forbidden("Only admins change who is in a team");
+  const { models, sequelize } = db();
+  const team = await models.Team.findOne({ where: { slug } });
+  if (!team) throw notFound(`Team "${slug}"`);
+  const member = await models.User.findOne({ where: { email: input.email } });
+  if (!member) throw new AppError("invalid_request", `No user with the e-mail ${input.email}`, [{ path: "email", message: "no such user" }]);
+  return sequelize.transaction(async (transaction) => {
+    const existing = await models.Membership.findOne({ where: { userId: member.id, teamId: team.id }, transaction, lock: transaction.LOCK.UPDATE });
+    const before = existing ? { email: member.email, lead: existing.isLead } : null;
+    if (existing) await existing.update({ isLead: input.lead }, { transaction });
+    else await models.Membership.create({ userId: member.id, teamId: team.id, isLead: input.lead }, { transaction });
+    const after = { email: member.email, lead: input.lead };
+    await recordAudit({ actor, action: existing ? "team.member.update" : "team.member.add", targetType: "team", targetId: slug, before, after }, transaction);
+    return { userId: member.id, name: member.name, email: member.email, role: member.role, isLead: input.lead };
+  });
+}
+
+export async function removeTeamMember({ slug, userId, actor }: { slug: string; userId: string; actor: Actor }): Promise<{ removed: true }> {
+  const user = requireUserActor(actor);
+  if (!roleHas(user.role, "admin")) throw forbidden("Only admins change who is in a team");
+  const { models, sequelize } = db();
+  const team = await models.Team.findOne({ where: { slug } });
+  if (!team) throw notFound(`Team "${slug}"`);
+  return sequelize.transaction(async (transaction) => {
+    const existing = await models.Membership.findOne({ where: { userId, teamId: team.id }, transaction, lock: transaction.LOCK.UPDATE });
+    if (!existing) throw notFound("Membership");
+    const member = await models.User.findByPk(userId, { transaction });
+    await existing.destroy({ transaction });
+    await recordAudit(
+      { actor, action: "team.member.remove", targetType: "team", targetId: slug, before: { email: member?.email ?? userId, lead: existing.isLead }, after: null },
+      transaction,
+    );
+    return { removed: true as const };
+  });
+}

@@ -1,0 +1,58 @@
+// Risk reviews in the browser: an architect accepts the risk of legacy-ftp-drop (a component no
+// other test reads) with a date and sees the badge; a viewer sees reviews but no form.
+import type { Browser, Page } from "playwright-core";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { baseUrl, launch, screenshot } from "./browser";
+import { SignInPage } from "./pages/signin";
+
+let browser: Browser;
+beforeAll(async () => {
+  browser = await launch();
+});
+afterAll(async () => {
+  await browser?.close();
+});
+
+async function signedIn(role: string): Promise<Page> {
+  const context = await browser.newContext({ viewport: { width: 1366, height: 900 } });
+  const page = await context.newPage();
+  const signin = new SignInPage(page);
+  await signin.open();
+  await signin.signIn(`${role}@harbor-pantry.example`);
+  await page.waitForURL((url) => url.pathname === "/");
+  return page;
+}
+
+const inDays = (days: number) => new Date(Date.now() + days * 86_400_000).toISOString().slice(0, 10);
+
+describe("risk reviews", () => {
+  it("lets an architect accept a pinch point with a date and shows the badge", async () => {
+    const page = await signedIn("architect");
+    await page.goto(`${baseUrl()}/environments/production/reviews`);
+    await page.getByLabel("Component").fill("legacy-ftp-drop");
+    await page.getByLabel("Decision").selectOption("accepted");
+    await page.getByLabel("Look again by").fill(inDays(60));
+    // No rationale yet: the browser's own check stops the form; the server would refuse it too.
+    await page.getByLabel("Rationale").fill("Supplier moves to the feed API next quarter; until then the drop box stays single-zone.");
+    await page.getByRole("button", { name: "Save review" }).click();
+    const row = page.getByTestId("review-legacy-ftp-drop");
+    await row.waitFor({ timeout: 10_000 });
+    const badge = row.getByTestId("review-badge");
+    expect(await badge.getAttribute("data-status")).toBe("accepted");
+    expect(await badge.getAttribute("data-overdue")).toBe("false");
+    expect(await badge.textContent()).toContain("Risk accepted");
+    await screenshot(page, "reviews-accepted");
+    await page.context().close();
+  });
+
+  it("shows a viewer the reviews and weights without any way to change them", async () => {
+    const page = await signedIn("viewer");
+    await page.goto(`${baseUrl()}/environments/production/reviews`);
+    await page.getByTestId("review-legacy-ftp-drop").waitFor({ timeout: 15_000 });
+    expect(await page.getByRole("button", { name: "Save review" }).count()).toBe(0);
+    expect(await page.getByRole("button", { name: "Save and re-analyse" }).count()).toBe(0);
+    expect(await page.getByLabel("B · betweenness").isDisabled()).toBe(true);
+    await screenshot(page, "reviews-viewer");
+    await page.context().close();
+  });
+});

@@ -1,0 +1,218 @@
+"use client";
+// One component: what is declared about it, who owns it, what it needs and what needs it, its
+// measures in plain words, and which snapshots changed it.
+import Link from "next/link";
+import type { ReactNode } from "react";
+import useSWR from "swr";
+import { ReviewBadge } from "@/components/reviews/ReviewBadge";
+import { useReviews } from "@/components/reviews/useReviews";
+import { dependencyChangeLine, dependencyLine, fieldChanges } from "@/components/history/diff-lines";
+import { isSinglePoint } from "@/components/rankings/api-types";
+import { MEASURE_HELP } from "@/components/rankings/measures";
+import { Badge } from "@/components/ui/Badge";
+import { Card } from "@/components/ui/Card";
+import { ageOf, dateTime, measure, percent, plural, safeHref } from "@/components/ui/format";
+import { Notice } from "@/components/ui/Notice";
+import { fetchJson, type ApiError } from "@/lib/client/fetcher";
+import type { ComponentHistoryEntry } from "@/lib/data/component-history";
+import type { ComponentDetail, ComponentEdge, getComponentMetrics } from "@/lib/data/component-detail";
+
+type Metrics = NonNullable<Awaited<ReturnType<typeof getComponentMetrics>>>;
+type DetailResponse = ComponentDetail & { metrics: Metrics | null; snapshot: { number: number; createdAt: string } | null };
+interface HistoryResponse {
+  key: string;
+  scanned: number;
+  items: ComponentHistoryEntry[];
+}
+
+function Field({ label, children }: { label: string; children: ReactNode }) {
+  return (
+    <div className="grid grid-cols-[8rem_1fr] gap-2 py-1 text-sm">
+      <dt className="text-muted">{label}</dt>
+      <dd className="text-ink">{children}</dd>
+    </div>
+  );
+}
+
+function EdgeList({ env, edges, empty }: { env: string; edges: ComponentEdge[]; empty: string }) {
+  if (!edges.length) return <p className="text-sm text-muted">{empty}</p>;
+  return (
+    <ul className="space-y-1 text-sm">
+      {edges.map((e) => (
+        <li key={`${e.key}-${e.group ?? ""}`} className="flex flex-wrap items-center gap-1.5">
+          <Link href={`/environments/${env}/components/${encodeURIComponent(e.key)}`} className="font-mono text-ink hover:underline">
+            {e.key}
+          </Link>
+          <Badge tone={e.strength === "hard" ? "down" : "degraded"} title={e.strength === "hard" ? "down when this need is unmet" : "degraded, not down, when unmet"}>
+            {e.strength}
+          </Badge>
+          {e.group && <Badge tone="info" title="Met while any one member of the group is up">any of</Badge>}
+          {e.kind === "undeclared" && <Badge tone="undeclared">placeholder</Badge>}
+          {e.via && <span className="text-xs text-faint">via {e.via}</span>}
+        </li>
+      ))}
+    </ul>
+  );
+}
+
+export function ComponentPage({ env, componentKey }: { env: string; componentKey: string }) {
+  const base = `/api/v1/environments/${env}/components/${encodeURIComponent(componentKey)}`;
+  const detail = useSWR<DetailResponse, ApiError>(base, fetchJson);
+  const history = useSWR<HistoryResponse, ApiError>(`${base}/history`, fetchJson);
+  const reviews = useReviews(env);
+  const d = detail.data;
+
+  if (detail.error) {
+    return (
+      <div className="space-y-3">
+        <h1 className="font-mono text-2xl font-semibold">{componentKey}</h1>
+        <Notice tone={detail.error.status === 404 ? "info" : "error"} title={detail.error.status === 404 ? "No such component in the current inventory" : "Could not load the component"}>
+          {detail.error.message}. <Link href={`/environments/${env}/components`} className="text-info underline">All components</Link>
+        </Notice>
+        {history.data && <HistoryCard env={env} data={history.data} />}
+      </div>
+    );
+  }
+  if (!d) return <p className="text-muted">Loading {componentKey}…</p>;
+  const m = d.metrics;
+  const links = Object.entries(d.links);
+
+  return (
+    <div className="space-y-4">
+      <div className="flex flex-wrap items-end justify-between gap-3">
+        <div>
+          <p className="text-sm text-muted">
+            <Link href={`/environments/${env}/components`} className="hover:underline">Components</Link> /
+          </p>
+          <h1 className="flex flex-wrap items-center gap-2 text-2xl font-semibold tracking-tight">
+            <span className="font-mono">{d.key}</span>
+            {d.kind === "undeclared" && <Badge tone="undeclared">undeclared placeholder</Badge>}
+            {m?.articulation && <Badge tone="down">cut vertex</Badge>}
+            {m?.inCycle && <Badge tone="cycle">in cycle</Badge>}
+            {d.kind !== "undeclared" && isSinglePoint(d) && <Badge tone="degraded">single</Badge>}
+            <ReviewBadge review={reviews.byKey[d.key]} />
+          </h1>
+          {d.name !== d.key && <p className="text-muted">{d.name}</p>}
+        </div>
+        <div className="flex gap-2">
+          <Link href={`/environments/${env}/drills?fail=${encodeURIComponent(d.key)}`} className="rounded-md bg-brass px-3 py-1.5 text-sm font-semibold text-on-brass hover:bg-brass-strong">
+            Blast radius
+          </Link>
+          <Link href={`/environments/${env}/map?focus=${encodeURIComponent(d.key)}`} className="rounded-md border border-line bg-raised px-3 py-1.5 text-sm text-ink hover:border-brass">
+            Show on map
+          </Link>
+        </div>
+      </div>
+
+      <div className="grid gap-4 lg:grid-cols-2">
+        <Card title="What is declared">
+          <dl>
+            <Field label="Kind">{d.kind}</Field>
+            <Field label="Tier">{d.tier} <span className="text-xs text-muted">(1 most critical … 4 least)</span></Field>
+            <Field label="Replicas">{d.replicas}</Field>
+            <Field label="Zones">{d.zones.length ? <span className="font-mono">{d.zones.join(", ")}</span> : <span className="text-degraded">none declared</span>}</Field>
+            <Field label="Tags">{d.tags.length ? d.tags.map((t) => <span key={t} className="mr-1"><Badge>{t}</Badge></span>) : "—"}</Field>
+            <Field label="Links">
+              {links.length
+                ? links.map(([name, href]) => {
+                    const safe = safeHref(href);
+                    return (
+                      <span key={name} className="mr-3">
+                        {safe ? (
+                          <a href={safe} target="_blank" rel="noreferrer noopener" className="text-info underline">
+                            {name}
+                          </a>
+                        ) : (
+                          <span title="not an http(s) address, so not clickable">{name}: {href}</span>
+                        )}
+                      </span>
+                    );
+                  })
+                : "—"}
+            </Field>
+            <Field label="Source">{d.source ? <span className="font-mono">{d.source}</span> : <span className="text-muted">no source (placeholder)</span>}</Field>
+          </dl>
+        </Card>
+        <Card title="Ownership">
+          <dl>
+            <Field label="Owner">{d.team ? <Link href={`/teams/${d.team}`} className="text-info underline">{d.team}</Link> : <Badge tone="degraded">unowned</Badge>}</Field>
+            <Field label="Declared team">{d.declaredTeam ?? "—"} {d.team !== d.declaredTeam && d.team && <span className="text-xs text-muted">(assigned in Pinchpoint)</span>}</Field>
+            <Field label="Notes">{d.notes ? <span className="whitespace-pre-wrap">{d.notes}</span> : <span className="text-muted">none</span>}</Field>
+            {d.annotationUpdatedAt && <Field label="Updated">{ageOf(d.annotationUpdatedAt)}</Field>}
+          </dl>
+          <p className="mt-2 text-xs text-faint">Owners and notes are edited in the map&apos;s inspector or on the team screen.</p>
+        </Card>
+      </div>
+
+      <Card title={d.snapshot ? `Measures (snapshot #${d.snapshot.number})` : "Measures"}>
+        {m ? (
+          <ul className="grid gap-2 text-sm md:grid-cols-2" data-testid="measures">
+            <li><span className="font-medium">Rank #{m.rank}</span> <span className="text-muted">by betweenness in this environment.</span></li>
+            <li><span className="font-medium">Betweenness {measure(m.betweenness)}</span> <span className="text-muted">— about {percent(m.betweenness)} of the shortest dependency paths between other components run through it.</span></li>
+            <li><span className="font-medium">Blast radius</span> <span className="text-muted">— if it fails alone, {plural(m.blastRadius.down, "component")} go down and {m.blastRadius.degraded} degrade.</span></li>
+            <li><span className="font-medium">Pinch score {m.pinchScore.toFixed(1)}</span> <span className="text-muted">of 100 — {MEASURE_HELP.pinchScore.short}</span></li>
+            <li><span className="font-medium">PageRank {measure(m.pagerank)}</span> <span className="text-muted">— {MEASURE_HELP.pagerank.short}</span></li>
+            <li><span className="font-medium">Eigenvector {measure(m.eigenvector)}</span> <span className="text-muted">— {MEASURE_HELP.eigenvector.short}</span></li>
+            <li><span className="font-medium">Clustering {measure(m.clustering)}</span> <span className="text-muted">— {MEASURE_HELP.clustering.short}</span></li>
+            <li>
+              <span className="font-medium">{m.articulation ? "A cut vertex" : "Not a cut vertex"}</span>{" "}
+              <span className="text-muted">— {m.articulation ? "removing it splits the graph in two or more parts." : "the graph stays in one piece without it."}</span>
+            </li>
+            <li>
+              <span className="font-medium">{m.inCycle ? "In a dependency cycle" : "Not in a cycle"}</span>{" "}
+              <span className="text-muted">— {m.inCycle ? "it and others need each other, so none of them can cold-start alone." : "it can be started once its needs are up."}</span>
+            </li>
+          </ul>
+        ) : (
+          <p className="text-sm text-muted">No finished analysis includes this component yet.</p>
+        )}
+        <p className="mt-3 text-xs text-faint">Measures come from the declared inventory only: a dependency nobody declared is not counted.</p>
+      </Card>
+
+      <div className="grid gap-4 lg:grid-cols-2">
+        <Card title={`Needs (${d.needs.length})`}>
+          <EdgeList env={env} edges={d.needs} empty="Needs nothing that is declared." />
+        </Card>
+        <Card title={`Needed by (${d.dependents.length})`}>
+          <EdgeList env={env} edges={d.dependents} empty="Nothing declares a need for it." />
+        </Card>
+      </div>
+
+      {history.data ? <HistoryCard env={env} data={history.data} /> : history.error ? <Notice tone="error" title="Could not load the history">{history.error.message}</Notice> : null}
+    </div>
+  );
+}
+
+function HistoryCard({ env, data }: { env: string; data: HistoryResponse }) {
+  return (
+    <Card title={`Changes in the last ${data.scanned} snapshots`}>
+      {data.items.length === 0 ? (
+        <p className="text-sm text-muted">No snapshot in that range touched it.</p>
+      ) : (
+        <ol className="space-y-3 text-sm" data-testid="component-history">
+          {data.items.map((h) => (
+            <li key={h.number} className="border-l-2 border-line pl-3">
+              <p>
+                <Badge tone={h.change === "added" ? "ok" : h.change === "removed" ? "down" : "info"}>{h.change}</Badge>{" "}
+                {h.diff.componentsChanged.some((c) => c.changes.kind?.before === "undeclared") && <Badge tone="ok" title="Until this snapshot it was only a placeholder that something needed">now declared</Badge>}{" "}
+                {h.diff.componentsAdded.some((c) => c.kind === "undeclared") && <Badge tone="undeclared">as a placeholder</Badge>}{" "}
+                <Link href={`/environments/${env}/history?from=${h.number - 1}&to=${h.number}`} className="font-mono text-ink hover:underline">
+                  snapshot #{h.number}
+                </Link>{" "}
+                <span className="text-muted">
+                  {dateTime(h.createdAt)} · {h.source ?? "?"} · {h.actor ?? "unknown"}
+                </span>
+              </p>
+              <ul className="mt-1 space-y-0.5 font-mono text-xs text-muted">
+                {h.diff.componentsChanged.flatMap(fieldChanges).map((l) => <li key={l}>{l}</li>)}
+                {h.diff.dependenciesAdded.map((x) => <li key={`+${dependencyLine(x)}`}>+ {dependencyLine(x)}</li>)}
+                {h.diff.dependenciesRemoved.map((x) => <li key={`-${dependencyLine(x)}`}>− {dependencyLine(x)}</li>)}
+                {h.diff.dependenciesChanged.map((x) => <li key={dependencyChangeLine(x)}>~ {dependencyChangeLine(x)}</li>)}
+              </ul>
+            </li>
+          ))}
+        </ol>
+      )}
+    </Card>
+  );
+}

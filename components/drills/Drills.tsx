@@ -1,0 +1,202 @@
+"use client";
+// A what-if failure: pick components and/or zones, see what goes down or degraded, who to page.
+// The chosen set lives in the URL (?fail=a,b&zones=z) so the exact drill can be shared.
+import Link from "next/link";
+import { useMemo, useState } from "react";
+import useSWR from "swr";
+import type { MapGraph } from "@/components/map/types";
+import { SnapshotMeta } from "@/components/rankings/SnapshotMeta";
+import type { ComponentsResponse } from "@/components/rankings/api-types";
+import { Badge } from "@/components/ui/Badge";
+import { Button } from "@/components/ui/Button";
+import { Card, Stat } from "@/components/ui/Card";
+import { CheckField } from "@/components/ui/LabelledField";
+import { MultiSelect } from "@/components/ui/MultiSelect";
+import { Notice } from "@/components/ui/Notice";
+import { useUrlState } from "@/components/ui/url-state";
+import { fetchJson, type ApiError } from "@/lib/client/fetcher";
+import type { analysisMeta } from "@/lib/data/environment-analysis";
+import type { DrillResponse } from "@/lib/data/snapshot-graph";
+import { MiniMap } from "./MiniMap";
+import { incidentSummary } from "./summary";
+
+type DrillResult = DrillResponse & ReturnType<typeof analysisMeta>;
+
+const list = (v: string | null) => (v ? v.split(",").filter(Boolean) : []);
+
+async function postDrill([url, components, zones]: [string, string[], string[]]): Promise<DrillResult> {
+  return fetchJson<DrillResult>(url, {
+    method: "POST",
+    headers: { "content-type": "application/json" },
+    body: JSON.stringify({ fail: { ...(components.length ? { components } : {}), ...(zones.length ? { zones } : {}) } }),
+  });
+}
+
+export function Drills({ env }: { env: string }) {
+  const url = useUrlState();
+  const fail = list(url.get("fail"));
+  const zones = list(url.get("zones"));
+  const components = useSWR<ComponentsResponse, ApiError>(`/api/v1/environments/${env}/components`, fetchJson);
+  const hasInput = fail.length + zones.length > 0;
+  const drill = useSWR<DrillResult, ApiError>(hasInput ? [`/api/v1/environments/${env}/drills`, fail, zones] : null, postDrill, { keepPreviousData: true, revalidateOnFocus: false });
+  const graph = useSWR<MapGraph, ApiError>(drill.data ? `/api/v1/environments/${env}/graph` : null, fetchJson, { revalidateOnFocus: false });
+  const [copied, setCopied] = useState<"idle" | "copied" | "failed">("idle");
+
+  const byKey = useMemo(() => new Map(components.data?.items.map((c) => [c.key, c]) ?? []), [components.data]);
+  const undeclared = useMemo(() => new Set(components.data?.items.filter((c) => c.kind === "undeclared").map((c) => c.key) ?? []), [components.data]);
+  const options = useMemo(() => components.data?.items.map((c) => ({ value: c.key, label: c.name, hint: [c.team ?? "unowned", `tier ${c.tier}`, c.kind].join(" · ") })) ?? [], [components.data]);
+  const allZones = useMemo(() => [...new Set(components.data?.items.flatMap((c) => c.zones) ?? [])].sort(), [components.data]);
+
+  const result = drill.data;
+  const summary = result ? incidentSummary({ env, result, undeclared, link: typeof window === "undefined" ? "" : window.location.href }) : "";
+
+  const copy = async () => {
+    try {
+      await navigator.clipboard.writeText(summary);
+      setCopied("copied");
+    } catch {
+      setCopied("failed");
+    }
+    setTimeout(() => setCopied("idle"), 4000);
+  };
+
+  const keyLink = (k: string) => (
+    <li key={k} className="flex items-center gap-1.5">
+      <Link href={`/environments/${env}/components/${encodeURIComponent(k)}`} className="font-mono text-ink hover:underline">
+        {k}
+      </Link>
+      {undeclared.has(k) && <Badge tone="undeclared" title="Needed by something, declared by no source: its own needs are unknown">placeholder</Badge>}
+      {result?.failed.components.includes(k) && <Badge tone="down">failed</Badge>}
+      {byKey.get(k) && <span className="text-xs text-faint">tier {byKey.get(k)!.tier}</span>}
+    </li>
+  );
+
+  return (
+    <div className="space-y-4">
+      <div>
+        <h1 className="text-2xl font-semibold tracking-tight">Drills</h1>
+        <p className="mt-1 text-sm text-muted">Fail components or whole zones on paper and see what goes with them and who to page.</p>
+      </div>
+
+      <Card title="What fails">
+        <div className="grid gap-4 md:grid-cols-[2fr_1fr]">
+          <MultiSelect
+            label="Components to fail"
+            options={options}
+            selected={fail}
+            onChange={(next) => url.set({ fail: next.join(",") || null })}
+            placeholder={components.isLoading ? "Loading components…" : "Type a key, e.g. dns-resolver"}
+          />
+          <fieldset className="flex flex-col gap-1">
+            <legend className="mb-1 text-xs font-medium text-muted">Zones to fail</legend>
+            {allZones.length === 0 && <span className="text-sm text-faint">No component declares a zone.</span>}
+            {allZones.map((z) => (
+              <CheckField
+                key={z}
+                label={<span className="font-mono">{z}</span>}
+                checked={zones.includes(z)}
+                onChange={(e) => url.set({ zones: (e.target.checked ? [...zones, z] : zones.filter((x) => x !== z)).join(",") || null })}
+              />
+            ))}
+          </fieldset>
+        </div>
+        {hasInput && (
+          <div className="mt-3">
+            <Button type="button" variant="ghost" onClick={() => url.set({ fail: null, zones: null })}>
+              Clear the drill
+            </Button>
+          </div>
+        )}
+      </Card>
+
+      {!hasInput && <Notice title="Nothing failed yet">Choose one or more components or zones above. The result appears here and the address bar holds a link to this exact drill.</Notice>}
+      {drill.error && (
+        <Notice tone={drill.error.status === 404 ? "info" : "error"} title={drill.error.status === 404 ? "No analysed snapshot to drill on" : "The drill could not run"}>
+          {drill.error.message}
+        </Notice>
+      )}
+
+      {hasInput && result && (
+        <div className="space-y-4" aria-busy={drill.isValidating} data-testid="drill-result">
+          <SnapshotMeta meta={result} what="drill" />
+          <div className="grid grid-cols-2 gap-3 md:grid-cols-6">
+            <Stat label="Down" value={<span data-testid="down-count">{result.down.length}</span>} tone="down" hint="including what failed" />
+            <Stat label="Degraded" value={result.degraded.length} tone="degraded" hint="soft needs unmet" />
+            {(["1", "2", "3", "4"] as const).map((t) => (
+              <Stat key={t} label={`Tier ${t} down`} value={result.byTier[t]} tone={t === "1" && result.byTier[t] > 0 ? "down" : "ink"} />
+            ))}
+          </div>
+          <div className="flex flex-wrap items-center gap-3">
+            <Button type="button" variant="primary" onClick={copy}>
+              Copy incident summary
+            </Button>
+            <span role="status" className="text-sm text-muted">
+              {copied === "copied" ? "Copied to the clipboard." : copied === "failed" ? "The browser refused the clipboard: select the text below instead." : ""}
+            </span>
+          </div>
+          <details className="rounded-md border border-line bg-surface px-3 py-2 text-sm" open={copied === "failed"}>
+            <summary className="cursor-pointer text-muted">Summary text</summary>
+            <pre className="mt-2 whitespace-pre-wrap font-mono text-xs text-ink" data-testid="incident-summary">
+              {summary}
+            </pre>
+          </details>
+
+          <Card title="Affected part of the graph">
+            {graph.data ? (
+              <MiniMap env={env} failed={[...result.failed.components, ...result.down.filter((k) => zones.length > 0 && (byKey.get(k)?.zones ?? []).length > 0 && (byKey.get(k)?.zones ?? []).every((z) => zones.includes(z)))]} down={result.down} degraded={result.degraded} edges={graph.data.edges} undeclared={undeclared} />
+            ) : (
+              <p className="text-sm text-muted">{graph.error ? `Could not load the graph: ${graph.error.message}` : "Drawing…"}</p>
+            )}
+          </Card>
+
+          <section aria-labelledby="teams-heading" className="space-y-3">
+            <h2 id="teams-heading" className="text-lg font-semibold">
+              Who to page <span className="text-sm font-normal text-muted">({result.teams.length} teams, most affected first)</span>
+            </h2>
+            <div className="grid gap-3 lg:grid-cols-2">
+              {result.teams.map((t) => (
+                <section key={t.team ?? "(none)"} className="rounded-lg border border-line bg-surface p-4" data-testid="drill-team">
+                  <header className="flex flex-wrap items-baseline justify-between gap-2">
+                    <h3 className="font-semibold">{t.team ? (t.contact?.name ?? t.team) : <span className="text-degraded">No owning team</span>}</h3>
+                    <span className="text-sm text-muted">
+                      <span className="text-down">{t.down.length} down</span> · <span className="text-degraded">{t.degraded.length} degraded</span>
+                    </span>
+                  </header>
+                  {t.team && (
+                    <p className="mt-1 text-sm text-muted">
+                      {t.contact?.oncall ? <>On-call: <span className="text-ink">{t.contact.oncall}</span></> : "No on-call contact on file"}
+                      {t.contact?.email && (
+                        <>
+                          {" · "}
+                          <a href={`mailto:${t.contact.email}`} className="text-info hover:underline">
+                            {t.contact.email}
+                          </a>
+                        </>
+                      )}
+                    </p>
+                  )}
+                  {!t.team && <p className="mt-1 text-sm text-muted">Nobody is paged for these: assign owners on the teams screen.</p>}
+                  <div className="mt-2 grid gap-3 sm:grid-cols-2">
+                    {t.down.length > 0 && (
+                      <div>
+                        <h4 className="text-xs font-medium uppercase tracking-wide text-down">Down</h4>
+                        <ul className="mt-1 space-y-0.5 text-sm">{t.down.map(keyLink)}</ul>
+                      </div>
+                    )}
+                    {t.degraded.length > 0 && (
+                      <div>
+                        <h4 className="text-xs font-medium uppercase tracking-wide text-degraded">Degraded</h4>
+                        <ul className="mt-1 space-y-0.5 text-sm">{t.degraded.map(keyLink)}</ul>
+                      </div>
+                    )}
+                  </div>
+                </section>
+              ))}
+            </div>
+          </section>
+        </div>
+      )}
+      {hasInput && !result && !drill.error && <p className="text-sm text-muted">Running the drill…</p>}
+    </div>
+  );
+}

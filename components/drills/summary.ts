@@ -1,0 +1,31 @@
+// The incident summary a responder pastes into a channel: plain text, no markup, most urgent first.
+import type { DrillResponse } from "@/lib/data/snapshot-graph";
+import type { analysisMeta } from "@/lib/data/environment-analysis";
+import { ageOf } from "@/components/ui/format";
+
+export function incidentSummary({ env, result, link, undeclared }: { env: string; result: DrillResponse & Pick<ReturnType<typeof analysisMeta>, "snapshot">; link: string; undeclared: ReadonlySet<string> }): string {
+  const lines: string[] = [];
+  const { failed } = result;
+  const what = [failed.components.length ? `component${failed.components.length > 1 ? "s" : ""} ${failed.components.join(", ")}` : "", failed.zones.length ? `zone${failed.zones.length > 1 ? "s" : ""} ${failed.zones.join(", ")}` : ""].filter(Boolean).join(" and ");
+  lines.push(`Pinchpoint drill, ${env}: if ${what} fail${failed.components.length + failed.zones.length === 1 ? "s" : ""}`);
+  const tiers = (["1", "2", "3", "4"] as const).map((t) => `tier ${t}: ${result.byTier[t]}`).join(", ");
+  lines.push(`Down: ${result.down.length} (${tiers}). Degraded: ${result.degraded.length}.`);
+  const placeholders = result.down.filter((k) => undeclared.has(k));
+  if (placeholders.length) lines.push(`Includes ${placeholders.length} undeclared placeholder${placeholders.length === 1 ? "" : "s"} (nobody declared them): ${placeholders.join(", ")}`);
+  lines.push("");
+  lines.push("Teams to page, most affected first:");
+  for (const t of result.teams) {
+    const counts = `${t.down.length} down, ${t.degraded.length} degraded`;
+    if (!t.team) {
+      lines.push(`- no owning team: ${counts} — ${[...t.down, ...t.degraded].slice(0, 10).join(", ")}${t.down.length + t.degraded.length > 10 ? ", …" : ""}`);
+      continue;
+    }
+    const contact = t.contact ? [t.contact.oncall ? `on-call ${t.contact.oncall}` : "", t.contact.email ?? ""].filter(Boolean).join(", ") : "no contact on file";
+    lines.push(`- ${t.contact?.name ?? t.team} (${t.team}): ${counts}; ${contact}`);
+  }
+  lines.push("");
+  lines.push(`From snapshot #${result.snapshot.number}, pushed ${ageOf(result.snapshot.createdAt)}.`);
+  lines.push("A drill follows the declared dependencies only; it is not a guarantee of what an outage does. Act through your own incident process.");
+  lines.push(link);
+  return lines.join("\n");
+}

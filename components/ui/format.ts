@@ -1,0 +1,34 @@
+// Plain-language formatting shared by the screens.
+
+export function ageFromSeconds(seconds: number): string {
+  const minutes = Math.round(seconds / 60);
+  if (minutes < 1) return "just now";
+  if (minutes < 60) return `${minutes} min ago`;
+  const hours = Math.round(minutes / 60);
+  if (hours < 48) return `${hours} h ago`;
+  return `${Math.round(hours / 24)} days ago`;
+}
+
+export const ageOf = (iso: string): string => ageFromSeconds((Date.now() - Date.parse(iso)) / 1000);
+
+export const percent = (share: number, digits = 1): string => `${(share * 100).toFixed(digits)}%`;
+
+/** Measures in [0,1] shown with four decimals: enough to tell neighbours apart, short enough for a column. */
+export const measure = (v: number): string => (v === 0 ? "0" : v.toFixed(4));
+
+export const plural = (n: number, one: string, many = `${one}s`): string => `${n} ${n === 1 ? one : many}`;
+
+export function dateTime(iso: string): string {
+  const d = new Date(iso);
+  return `${d.toISOString().slice(0, 10)} ${d.toISOString().slice(11, 16)} UTC`;
+}
+
+/** Only http(s) and mailto links become clickable: an inventory file must not inject javascript: URLs. */
+export function safeHref(url: string): string | null {
+  try {
+    const u = new URL(url);
+    return ["http:", "https:", "mailto:"].includes(u.protocol) ? u.toString() : null;
+  } catch {
+    return null;
+  }
+}

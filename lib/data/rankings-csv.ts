@@ -1,0 +1,41 @@
+// The ranking as RFC 4180 CSV. A dozen lines of quoting do not justify a CSV package.
+import type { RankingItem } from "./analysis-results";
+
+export const RANKINGS_CSV_COLUMNS = [
+  "rank",
+  "key",
+  "name",
+  "kind",
+  "team",
+  "tier",
+  "betweenness",
+  "pagerank",
+  "eigenvector",
+  "clustering",
+  "blast_down",
+  "blast_degraded",
+  "pinch_score",
+  "articulation",
+  "in_cycle",
+  "snapshot",
+] as const;
+
+export function csvField(value: string | number | boolean | null): string {
+  if (value === null) return "";
+  const text = String(value);
+  // A leading = + - @ makes spreadsheets evaluate the cell; keys cannot start so, names might.
+  const safe = /^[=+\-@\t\r]/.test(text) && typeof value === "string" ? `'${text}` : text;
+  return /[",\r\n]/.test(safe) || safe !== text ? `"${safe.replace(/"/g, '""')}"` : safe;
+}
+
+export function rankingsCsv({ items, snapshot }: { items: RankingItem[]; snapshot: number }): string {
+  const lines = [RANKINGS_CSV_COLUMNS.join(",")];
+  for (const i of items) {
+    lines.push(
+      [i.rank, i.key, i.name, i.kind, i.team, i.tier, i.betweenness, i.pagerank, i.eigenvector, i.clustering, i.blastRadius.down, i.blastRadius.degraded, i.pinchScore, i.articulation, i.inCycle, snapshot]
+        .map(csvField)
+        .join(","),
+    );
+  }
+  return `${lines.join("\r\n")}\r\n`;
+}

@@ -1,0 +1,58 @@
+// Components: the list with counts and the unowned toggle, then one component's page.
+import type { Browser, Page } from "playwright-core";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { baseUrl, launch, screenshot } from "./browser";
+import { SignInPage } from "./pages/signin";
+
+let browser: Browser;
+let page: Page;
+
+beforeAll(async () => {
+  browser = await launch();
+  page = await (await browser.newContext({ viewport: { width: 1366, height: 768 } })).newPage();
+  const signin = new SignInPage(page);
+  await signin.open();
+  await signin.signIn("lead@harbor-pantry.example");
+  await page.waitForURL((u) => u.pathname === "/");
+});
+afterAll(async () => {
+  await browser?.close();
+});
+
+describe("components", () => {
+  it("lists every component, then only the unowned ones", async () => {
+    await page.goto(`${baseUrl()}/environments/production/components`);
+    const counts = (await page.evaluate(async () => (await fetch("/api/v1/environments/production/components")).json())) as { counts: { components: number; unowned: number } };
+    await expect.poll(() => page.getByTestId("component-count").textContent(), { timeout: 15_000 }).toBe(`${counts.counts.components} of ${counts.counts.components} components`);
+    await screenshot(page, "screens-components");
+    await page.getByRole("checkbox", { name: "Unowned only" }).click();
+    await page.waitForURL((u) => u.searchParams.get("unowned") === "true");
+    expect(counts.counts.unowned).toBeGreaterThan(0);
+    await expect.poll(() => page.getByTestId("component-count").textContent()).toBe(`${counts.counts.unowned} of ${counts.counts.components} components`);
+    await screenshot(page, "screens-components-unowned");
+  });
+
+  it("opens a component with its measures, needs, dependents and history", async () => {
+    await page.goto(`${baseUrl()}/environments/production/components?q=session`);
+    await expect.poll(() => page.locator('[data-testid="components-table"] tbody tr').count(), { timeout: 15_000 }).toBeGreaterThan(0);
+    const link = page.locator('[data-testid="components-table"] tbody tr td:first-child a').first();
+    const key = (await link.textContent()) ?? "";
+    await link.click();
+    await page.waitForURL((u) => u.pathname.endsWith(`/components/${key}`));
+    await expect.poll(() => page.getByTestId("measures").textContent(), { timeout: 15_000 }).toMatch(/Rank #\d+/);
+    const detail = (await page.evaluate(async (k) => (await fetch(`/api/v1/environments/production/components/${k}`)).json(), key)) as { needs: unknown[]; dependents: unknown[]; metrics: { blastRadius: { down: number } } };
+    expect(await page.getByRole("heading", { name: `Needed by (${detail.dependents.length})` }).count()).toBe(1);
+    expect(await page.getByRole("heading", { name: `Needs (${detail.needs.length})` }).count()).toBe(1);
+    expect(await page.getByTestId("measures").textContent()).toContain(`${detail.metrics.blastRadius.down} component`);
+    await expect.poll(() => page.getByTestId("component-history").locator("> li").count(), { timeout: 15_000 }).toBeGreaterThan(0);
+    expect(await page.getByTestId("component-history").textContent()).toContain("added");
+    await screenshot(page, "screens-component-page");
+    await page.getByRole("link", { name: "Blast radius", exact: true }).click();
+    await page.waitForURL((u) => u.pathname.endsWith("/drills") && u.searchParams.get("fail") === key);
+  });
+
+  it("says so when a component does not exist", async () => {
+    await page.goto(`${baseUrl()}/environments/production/components/no-such-thing`);
+    await expect.poll(() => page.getByText("No such component in the current inventory").count(), { timeout: 15_000 }).toBe(1);
+  });
+});

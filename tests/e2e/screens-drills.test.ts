@@ -1,0 +1,80 @@
+// Drills: pick a component with the keyboard, see what goes down and who to page, copy the summary.
+import type { Browser, BrowserContext, Page } from "playwright-core";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { baseUrl, launch, screenshot } from "./browser";
+import { SignInPage } from "./pages/signin";
+
+let browser: Browser;
+let context: BrowserContext;
+let page: Page;
+const downCount = async (p: Page) => Number((await p.getByTestId("down-count").textContent()) ?? 0);
+
+beforeAll(async () => {
+  browser = await launch();
+  context = await browser.newContext({ viewport: { width: 1366, height: 768 } });
+  await context.grantPermissions(["clipboard-read", "clipboard-write"], { origin: baseUrl() });
+  page = await context.newPage();
+  const signin = new SignInPage(page);
+  await signin.open();
+  await signin.signIn("engineer@harbor-pantry.example");
+  await page.waitForURL((u) => u.pathname === "/");
+});
+afterAll(async () => {
+  await browser?.close();
+});
+
+describe("drills", () => {
+  it("starts empty and says what to do", async () => {
+    await page.goto(`${baseUrl()}/environments/production/drills`);
+    await expect.poll(() => page.getByText("Nothing failed yet").count()).toBe(1);
+  });
+
+  it("fails dns-resolver picked from the searchable list; more than 100 components go down", async () => {
+    const box = page.getByRole("combobox", { name: "Components to fail" });
+    await box.fill("dns-res");
+    await expect.poll(() => page.getByRole("option").first().textContent()).toContain("dns-resolver");
+    await box.press("Enter");
+    await page.waitForURL((u) => u.searchParams.get("fail") === "dns-resolver");
+    await expect.poll(() => downCount(page), { timeout: 15_000 }).toBeGreaterThan(100);
+    const expected = (await page.evaluate(async () => {
+      const res = await fetch("/api/v1/environments/production/drills", { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ fail: { components: ["dns-resolver"] } }) });
+      return res.json();
+    })) as { down: string[]; teams: Array<{ team: string | null; contact: { email: string | null } | null }> };
+    expect(await downCount(page)).toBe(expected.down.length);
+    // Who to page: one card per team, biggest first, with the team's e-mail.
+    await expect.poll(() => page.getByTestId("drill-team").count()).toBe(expected.teams.length);
+    const firstTeam = expected.teams[0];
+    expect(await page.getByTestId("drill-team").first().textContent()).toContain(firstTeam?.contact?.email ?? "No owning team");
+    expect(await page.getByRole("link", { name: /@harbor-pantry\.example$/ }).count()).toBeGreaterThan(5);
+    await expect.poll(() => page.getByTestId("drill-minimap").count(), { timeout: 15_000 }).toBe(1);
+    // Snapshot age and undeclared share beside the result, and the caution that a drill is no guarantee.
+    await expect.poll(() => page.getByTestId("snapshot-meta").textContent()).toMatch(/Snapshot #\d+, pushed (just now|\d+ min ago).*undeclared: \d+\.\d%/);
+    expect(await page.getByTestId("caution").textContent()).toContain("not a guarantee");
+    await screenshot(page, "screens-drills-dns-resolver");
+  });
+
+  it("copies a plain-text incident summary with counts, teams and the caution", async () => {
+    await page.getByRole("button", { name: "Copy incident summary" }).click();
+    await expect.poll(() => page.getByText("Copied to the clipboard.").count()).toBe(1);
+    const text = await page.evaluate(() => navigator.clipboard.readText());
+    expect(text).toContain("if component dns-resolver fails");
+    expect(text).toMatch(/Down: \d{3,} \(tier 1: \d+/);
+    expect(text).toContain("not a guarantee");
+    expect(text).toMatch(/From snapshot #\d+/);
+    expect(text).toContain("/drills?fail=dns-resolver");
+  });
+
+  it("adds a zone; the URL holds both and a fresh load repeats the drill", async () => {
+    const before = await downCount(page);
+    // click, not check(): the box follows the URL, which updates a moment after the click.
+    await page.getByRole("checkbox", { name: "harbor-east" }).click();
+    await page.waitForURL((u) => u.searchParams.get("zones") === "harbor-east" && u.searchParams.get("fail") === "dns-resolver");
+    await expect.poll(() => downCount(page), { timeout: 15_000 }).toBeGreaterThanOrEqual(before);
+    const shared = page.url();
+    const other = await context.newPage();
+    await other.goto(shared);
+    await expect.poll(() => downCount(other), { timeout: 15_000 }).toBe(await downCount(page));
+    await screenshot(other, "screens-drills-zone");
+    await other.close();
+  });
+});

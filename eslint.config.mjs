@@ -4,7 +4,7 @@ import reactHooks from "eslint-plugin-react-hooks";
 import tseslint from "typescript-eslint";
 
 export default tseslint.config(
-  { ignores: [".next/**", "node_modules/**", ".data/**", "next-env.d.ts", "coverage/**", "test-results/**"] },
+  { ignores: [".next/**", ".next-*/**", "node_modules/**", ".data/**", "next-env.d.ts", "coverage/**", "test-results/**"] },
   js.configs.recommended,
   ...tseslint.configs.recommended,
   {

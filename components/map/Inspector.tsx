@@ -1,7 +1,7 @@
 "use client";
 // Side panel for one component: what its measures mean for an on-call engineer, what it
 // needs and who needs it, and (for leads, architects, admins) owner and notes.
-import { useId, useState, type FormEvent } from "react";
+import { useId, useState, type FormEvent, type ReactNode } from "react";
 import { z } from "zod";
 import { SLUG_PATTERN } from "@/lib/inventory/types";
 import { KIND_LABEL } from "./shapes";
@@ -87,6 +87,8 @@ export interface InspectorProps {
   onSave?(value: InspectorSave): Promise<void>;
   onSelect?(key: string): void;
   onClose?(): void;
+  /** shown under the key, e.g. the component's risk-review status */
+  badge?: ReactNode;
 }
 
 /** Needs and dependents of a key, for the Inspector's props. */
@@ -177,6 +179,7 @@ export function Inspector(props: InspectorProps) {
             {node.name}
           </h2>
           <p className="font-mono text-xs text-muted">{node.key}</p>
+          {props.badge ? <div className="mt-1">{props.badge}</div> : null}
         </div>
         {props.onClose ? (
           <button type="button" onClick={props.onClose} aria-label="Close inspector" className="rounded px-2 py-1 text-muted hover:bg-raised">

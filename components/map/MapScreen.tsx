@@ -5,6 +5,8 @@ import { usePathname, useRouter, useSearchParams } from "next/navigation";
 import { useCallback, useMemo } from "react";
 import useSWR from "swr";
 import { fetchJson, type ApiError } from "@/lib/client/fetcher";
+import { ReviewBadge } from "@/components/reviews/ReviewBadge";
+import { useReviews } from "@/components/reviews/useReviews";
 import { Inspector, inspectorLinks, type InspectorSave } from "./Inspector";
 import { MapCanvas } from "./MapCanvas";
 import { mapGraphSchema, type MapGraph, type PinnedPositions } from "./types";
@@ -15,6 +17,7 @@ async function fetchGraph(url: string): Promise<MapGraph> {
 
 function InspectorFor({ env, graph, nodeKey, canEdit, onSelect }: { env: string; graph: MapGraph; nodeKey: string; canEdit: boolean; onSelect(key: string): void }) {
   const detail = useSWR<{ notes: string | null }, ApiError>(`/api/v1/environments/${env}/components/${nodeKey}`, fetchJson);
+  const reviews = useReviews(env);
   const node = graph.nodes.find((n) => n.key === nodeKey);
   if (!node) return null;
   const { needs, dependents } = inspectorLinks(graph, nodeKey);
@@ -41,6 +44,7 @@ function InspectorFor({ env, graph, nodeKey, canEdit, onSelect }: { env: string;
       canEdit={canEdit}
       onSave={onSave}
       onSelect={onSelect}
+      badge={<ReviewBadge review={reviews.byKey[nodeKey]} />}
     />
   );
 }

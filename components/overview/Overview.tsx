@@ -7,21 +7,16 @@ import useSWR from "swr";
 import { Badge } from "@/components/ui/Badge";
 import { Card, Stat } from "@/components/ui/Card";
 import { fetchJson, type ApiError } from "@/lib/client/fetcher";
+import { ageOf } from "@/components/ui/format";
 import type { EnvironmentCounts } from "@/lib/data/components";
 import type { EnvironmentSummary } from "@/lib/data/environments";
-import type { RankingItem } from "@/lib/data/analysis-results";
+import type { RankingItem, RankingsResponse } from "@/components/rankings/api-types";
 
 interface ComponentsResponse {
   environment: string;
   counts: EnvironmentCounts;
 }
 
-interface RankingsResponse {
-  snapshot: { number: number; createdAt: string; undeclaredShare: number };
-  analysis: { status: string; exact: boolean | null; sampleSize?: number };
-  latest: { number: number; status: string; progress: number; phase: string | null } | null;
-  items: RankingItem[];
-}
 
 interface BootOrderResponse {
   cycles: string[][];
@@ -32,14 +27,6 @@ interface ImportsResponse {
   items: Array<{ createdAt: string; source: string; format: string; actor: string; changed: boolean; snapshot: number | null }>;
 }
 
-export function age(iso: string): string {
-  const minutes = Math.round((Date.now() - new Date(iso).getTime()) / 60_000);
-  if (minutes < 1) return "just now";
-  if (minutes < 60) return `${minutes} min ago`;
-  const hours = Math.round(minutes / 60);
-  if (hours < 48) return `${hours} h ago`;
-  return `${Math.round(hours / 24)} days ago`;
-}
 
 const pct = (v: number) => `${(v * 100).toFixed(v < 0.01 ? 2 : 1)}%`;
 
@@ -102,12 +89,12 @@ export function Overview({ env }: { env: string }) {
         </h1>
         <p className="mt-1 text-sm text-muted" data-testid="snapshot-line">
           {summary?.latestSnapshot
-            ? `Snapshot #${summary.latestSnapshot.number}, pushed ${age(summary.latestSnapshot.createdAt)}`
+            ? `Snapshot #${summary.latestSnapshot.number}, pushed ${ageOf(summary.latestSnapshot.createdAt)}`
             : environments.isLoading
               ? "Loading…"
               : "No snapshot yet"}
           {summary?.analysis && ` · analysis ${summary.analysis.status}${summary.analysis.status === "running" ? ` (${Math.round(summary.analysis.progress * 100)}%)` : ""}`}
-          {lastPush && ` · last push by ${lastPush.actor} from ${lastPush.source}, ${age(lastPush.createdAt)}${lastPush.changed ? "" : " (no change)"}`}
+          {lastPush && ` · last push by ${lastPush.actor} from ${lastPush.source}, ${ageOf(lastPush.createdAt)}${lastPush.changed ? "" : " (no change)"}`}
         </p>
         {ranked?.latest && (
           <p className="mt-1 text-sm text-degraded" role="status">

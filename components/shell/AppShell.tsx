@@ -15,7 +15,7 @@ export function AppShell({ user, defaultEnv, children }: { user: { name: string;
   const items = NAV.filter((item) => !item.permission || roleHas(user.role, item.permission));
   return (
     <div className="flex min-h-screen flex-col">
-      <header className="sticky top-0 z-30 flex h-12 items-center gap-6 border-b border-line bg-surface/95 px-4 backdrop-blur">
+      <header className="sticky top-0 z-30 flex h-12 items-center gap-4 border-b border-line bg-surface/95 px-4 backdrop-blur">
         <Link href="/" aria-label="Pinchpoint home">
           <Logo size={22} />
         </Link>
@@ -30,17 +30,19 @@ export function AppShell({ user, defaultEnv, children }: { user: { name: string;
                 key={item.label}
                 href={item.href(env)}
                 aria-current={active ? "page" : undefined}
-                className={`whitespace-nowrap rounded px-2.5 py-1 text-sm ${active ? "bg-raised text-ink" : "text-muted hover:text-ink"}`}
+                className={`whitespace-nowrap rounded px-2 py-1 text-sm ${active ? "bg-raised text-ink" : "text-muted hover:text-ink"}`}
               >
                 {item.label}
               </Link>
             );
           })}
         </nav>
-        <div className="ml-auto flex items-center gap-3 text-sm">
+        <div className="ml-auto flex shrink-0 items-center gap-3 text-sm">
           <ThemeToggle />
-          <span className="hidden text-muted sm:inline" data-testid="signed-in-as">
-            {user.email} · <span className="text-ink">{ROLE_LABELS[user.role]}</span>
+          <span className="text-muted" data-testid="signed-in-as" title={user.email}>
+            <span className="hidden 2xl:inline">{user.email} · </span>
+            <span className="sr-only 2xl:hidden">{user.email} · </span>
+            <span className="text-ink">{ROLE_LABELS[user.role]}</span>
           </span>
           <button type="button" onClick={() => signOut({ callbackUrl: "/signin" })} className="text-muted hover:text-ink">
             Sign out

@@ -20,8 +20,10 @@ export const NAV: NavItem[] = [
   { label: "Components", href: (env) => envPath(env, "/components"), match: under("/components") },
   { label: "Imports", href: (env) => envPath(env, "/imports"), match: under("/imports") },
   { label: "History", href: (env) => envPath(env, "/history"), match: under("/history") },
+  { label: "Reviews", href: (env) => envPath(env, "/reviews"), match: under("/reviews") },
   { label: "Teams", href: () => "/teams", match: (p) => p.startsWith("/teams") },
-  { label: "Admin", href: () => "/admin/users", match: (p) => p.startsWith("/admin"), permission: "admin" },
+  // Architects reach the audit log here; admins everything else as well.
+  { label: "Admin", href: () => "/admin", match: (p) => p.startsWith("/admin"), permission: "reviews:write" },
 ];
 
 export function envFromPath(path: string, fallback: string): string {

@@ -47,7 +47,6 @@ export interface TeamContact {
 }
 
 export interface DrillResponse {
-  snapshot: { number: number; createdAt: string };
   failed: { components: string[]; zones: string[] };
   down: string[];
   degraded: string[];
@@ -106,7 +105,6 @@ export async function runDrill({
     .map(([team, e]) => ({ team, contact: team ? (contacts.get(team) ?? null) : null, ...e }))
     .sort((a, b) => b.down.length - a.down.length || b.degraded.length - a.degraded.length || (a.team ?? "~").localeCompare(b.team ?? "~"));
   return {
-    snapshot: { number: snapshot.number, createdAt: snapshot.createdAt },
     failed: { components: [...(request.components ?? [])], zones: [...(request.zones ?? [])] },
     down: result.down,
     degraded: result.degraded,

@@ -28,7 +28,9 @@ import { KIND_LABEL, shapePaths } from "./shapes";
 import { COLOUR_MODES, type ColourMode, type MapGraph, type PinnedPositions, type Position } from "./types";
 import { useElkLayout } from "./useElkLayout";
 import {
+  DENSE_TEAM_VIEW_EDGES,
   FULL_LAYOUT_LIMIT,
+  PINCH_VIEW_SIZE,
   NO_FILTERS,
   buildAdjacency,
   groupSelection,
@@ -38,6 +40,7 @@ import {
   teamSlots,
   type GroupingSpec,
   type MapFilters,
+  type Selection,
 } from "./view";
 
 export interface MapCanvasProps {
@@ -130,11 +133,25 @@ function MapCanvasInner(props: MapCanvasProps) {
   const teamNames = useMemo(() => new Map(slots.map((s) => [s, teamName(graph, s)])), [graph, slots]);
   const byKey = useMemo(() => new Map(graph.nodes.map((n) => [n.key, n])), [graph]);
 
-  const focusSpec = useMemo(() => (focusKey ? { key: focusKey, hops } : null), [focusKey, hops]);
-  const selection = useMemo(() => selectComponents(graph, filters, focusSpec), [graph, filters, focusSpec]);
+  const allCollapsed = useMemo(() => new Set(slots), [slots]);
+  const requestedFocus = useMemo(() => (focusKey ? { key: focusKey, hops } : null), [focusKey, hops]);
+  const requestedSelection = useMemo(() => selectComponents(graph, filters, requestedFocus), [graph, filters, requestedFocus]);
+  // Too big to lay out, and even the team view too dense (teams that all need each other): open on
+  // the components with the highest betweenness and the links among them instead, and say so.
+  const denseFallback = useMemo(() => {
+    if (focusKey || grouping !== null || layoutAll || requestedSelection.nodes.length <= FULL_LAYOUT_LIMIT) return null;
+    const teamView = groupSelection(graph, requestedSelection, { byTeam: true, collapsed: allCollapsed });
+    if (teamView.edges.length <= DENSE_TEAM_VIEW_EDGES) return null;
+    const top = [...requestedSelection.nodes]
+      .sort((a, b) => (b.metrics?.betweenness ?? 0) - (a.metrics?.betweenness ?? 0) || a.key.localeCompare(b.key))
+      .slice(0, PINCH_VIEW_SIZE);
+    const keep = new Set(top.map((n) => n.key));
+    const selection: Selection = { nodes: top, edges: requestedSelection.edges.filter((e) => keep.has(e.from) && keep.has(e.to)), focus: null };
+    return { selection, teamEdges: teamView.edges.length };
+  }, [focusKey, grouping, layoutAll, requestedSelection, graph, allCollapsed]);
+  const selection = denseFallback?.selection ?? requestedSelection;
   const tooBig = selection.nodes.length > FULL_LAYOUT_LIMIT;
   const autoCollapsed = grouping === null && tooBig && !layoutAll;
-  const allCollapsed = useMemo(() => new Set(slots), [slots]);
   const effGrouping: GroupingSpec = useMemo(
     () => grouping ?? (autoCollapsed ? { byTeam: true, collapsed: allCollapsed } : { byTeam: false, collapsed: new Set<string>() }),
     [grouping, autoCollapsed, allCollapsed],
@@ -537,6 +554,17 @@ function MapCanvasInner(props: MapCanvasProps) {
           ) : null}
         </div>
 
+        {denseFallback ? (
+          <div className="pp-banner" role="note">
+            <strong>{requestedSelection.nodes.length.toLocaleString()} components</strong> is more than the map lays out at once, and the team view is too tangled to
+            read ({denseFallback.teamEdges.toLocaleString()} links between teams). Showing the {PINCH_VIEW_SIZE} components most dependency paths run through, and the
+            links among them: search for a component to focus on it, or{" "}
+            <button type="button" className="pp-link" onClick={() => setGrouping({ byTeam: true, collapsed: allCollapsed })}>
+              show the team view anyway
+            </button>
+            .
+          </div>
+        ) : null}
         {autoCollapsed ? (
           <div className="pp-banner" role="note">
             <strong>{selection.nodes.length.toLocaleString()} components</strong> is more than the map lays out at once ({FULL_LAYOUT_LIMIT}). Showing each team as one

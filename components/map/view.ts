@@ -7,6 +7,10 @@ import type { MapEdge, MapGraph, MapNode } from "./types";
 export const UNOWNED = "_unowned";
 /** Above this many visible components the map opens grouped and collapsed (see NOTES-stack ELK timings). */
 export const FULL_LAYOUT_LIMIT = 600;
+/** Above this many links between collapsed teams, ELK takes longer than a responder should wait (measured: 1,459 links, 13 s). */
+export const DENSE_TEAM_VIEW_EDGES = 400;
+/** How many of the highest-betweenness components the map opens on when even the team view is too dense. */
+export const PINCH_VIEW_SIZE = 150;
 
 export interface MapFilters {
   /** null means every team; UNOWNED stands for components with no team. */

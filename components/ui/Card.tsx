@@ -17,7 +17,7 @@ export function Card({ title, action, children, className = "" }: { title?: Reac
 export function Stat({ label, value, hint, tone = "ink" }: { label: string; value: ReactNode; hint?: ReactNode; tone?: "ink" | "down" | "degraded" | "ok" }) {
   const toneClass = { ink: "text-ink", down: "text-down", degraded: "text-degraded", ok: "text-ok" }[tone];
   return (
-    <div className="rounded-lg border border-line bg-surface px-4 py-3">
+    <div className="rounded-lg border border-line bg-surface px-4 py-3" data-testid={`stat-${label.toLowerCase().replace(/\W+/g, "-")}`}>
       <div className="text-xs font-medium uppercase tracking-wide text-faint">{label}</div>
       <div className={`mt-1 font-mono text-3xl font-semibold tabular-nums ${toneClass}`}>{value}</div>
       {hint && <div className="mt-1 text-xs text-muted">{hint}</div>}

@@ -4,7 +4,7 @@ import { stringify } from "yaml";
 import pg from "pg";
 import type { AnalysisInput } from "../../lib/analysis/types";
 
-export function inventoryYaml(input: AnalysisInput, source: string): string {
+export function inventoryYaml(input: AnalysisInput, source: string, environment = "bench"): string {
   const needs = new Map<string, Array<string | { key: string; strength: "soft" } | { any_of: string[] }>>();
   const groups = new Map<string, string[]>();
   for (const e of input.edges) {
@@ -26,7 +26,7 @@ export function inventoryYaml(input: AnalysisInput, source: string): string {
     ...(n.zones.length ? { zones: n.zones } : {}),
     ...(needs.get(n.key)?.length ? { needs: needs.get(n.key)?.filter((x) => typeof x !== "object" || !("any_of" in x) || x.any_of.length >= 2) } : {}),
   }));
-  return stringify({ pinchpoint: 1, source, environment: "bench", components }, { lineWidth: 0 });
+  return stringify({ pinchpoint: 1, source, environment, components }, { lineWidth: 0 });
 }
 
 export async function withBenchDatabase<T>(run: (url: string) => Promise<T>): Promise<T> {

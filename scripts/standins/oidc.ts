@@ -47,6 +47,7 @@ export async function startOidcStandIn(opts: OidcStandInOptions): Promise<{ issu
       };
     },
     pkce: { required: () => false },
+    ttl: { AccessToken: 3600, AuthorizationCode: 60, IdToken: 3600, Interaction: 600, Session: 8 * 3600, Grant: 8 * 3600 },
     // Put the e-mail and name claims in the ID token, as company providers commonly do;
     // next-auth reads the profile from the ID token.
     conformIdTokenClaims: false,

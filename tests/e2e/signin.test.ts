@@ -43,7 +43,7 @@ describe("sign-in", () => {
       await page.waitForURL((url) => url.pathname === "/");
       await expect.poll(() => page.getByTestId("signed-in-as").textContent()).toContain(`${role}@harbor-pantry.example`);
       // Counts come from the API through swr: wait for the real number, not the placeholder.
-      const components = page.getByText("Components", { exact: true }).locator("..");
+      const components = page.getByTestId("stat-components");
       await expect.poll(async () => Number((await components.textContent())?.match(/\d+/)?.[0] ?? 0), { timeout: 15_000 }).toBeGreaterThan(100);
       await screenshot(page, `overview-${role}`);
       await page.getByRole("button", { name: "Sign out" }).click();

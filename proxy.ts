@@ -16,5 +16,5 @@ export async function proxy(req: NextRequest) {
 export const config = {
   // Not the API (it answers 401 JSON itself), not sign-in, not Next's assets.
   // Not /invite/{token} either: the invitee has no session yet, the link is the credential.
-  matcher: ["/((?!api/|signin|forbidden|invite/|_next/|favicon.ico|robots.txt).*)"],
+  matcher: ["/((?!api/|signin|forbidden|invite/|_next/|favicon.ico|favicon.svg|robots.txt).*)"],
 };

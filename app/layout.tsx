@@ -6,6 +6,7 @@ import "./globals.css";
 export const metadata: Metadata = {
   title: { default: "Pinchpoint", template: "%s · Pinchpoint" },
   description: "Where your service estate pinches: dependency inventory, single points of failure, blast radius.",
+  icons: { icon: "/favicon.svg" },
 };
 
 export const viewport: Viewport = { colorScheme: "dark light" };

@@ -2,18 +2,7 @@
 // The metrics are plausible stand-ins derived from degree, not the analysis' real values.
 import type { DeclaredKind, Tier } from "@/lib/inventory/types";
 import type { MapEdge, MapGraph, MapNode } from "./types";
-
-/** mulberry32, a small public-domain 32-bit PRNG: deterministic across runs and platforms. */
-function prng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+import { mulberry32 as prng } from "@/lib/analysis/random";
 
 const TEAMS = [
   ["storefront", "Storefront"],

@@ -89,15 +89,7 @@ function loadJson(text: string, limit: CountLimit | undefined): Loaded {
       })),
     };
   }
-  let locator: Locator | undefined;
-  const locate = (path: readonly PathSegment[], o?: { key?: boolean }): Position => {
-    if (!locator) {
-      const lineCounter = new LineCounter();
-      const doc = parseDocument(text, { lineCounter, uniqueKeys: false, prettyErrors: false });
-      locator = new Locator(doc, lineCounter, new Map());
-    }
-    return locator.locate(path, o);
-  };
+  const locate = lazyLocate(text);
   if (limit !== undefined && isRecord(value)) {
     const coll = value[limit.key];
     const size = Array.isArray(coll) ? coll.length : isRecord(coll) ? Object.keys(coll).length : 0;
@@ -108,6 +100,19 @@ function loadJson(text: string, limit: CountLimit | undefined): Loaded {
     }
   }
   return { ok: true, source: { value, warnings: [], locate } };
+}
+
+/** Positions worked out with the `yaml` parser only when an issue first asks for one. */
+function lazyLocate(text: string): StructuredSource["locate"] {
+  let locator: Locator | undefined;
+  return (path, o) => {
+    if (!locator) {
+      const lineCounter = new LineCounter();
+      const doc = parseDocument(text, { lineCounter, uniqueKeys: false, prettyErrors: false });
+      locator = new Locator(doc, lineCounter, new Map());
+    }
+    return locator.locate(path, o);
+  };
 }
 
 /**
@@ -130,15 +135,7 @@ function loadYamlFast(text: string, limit: CountLimit | undefined): Loaded | nul
     const size = Array.isArray(coll) ? coll.length : isRecord(coll) ? Object.keys(coll).length : 0;
     if (size > limit.max) return null;
   }
-  let locator: Locator | undefined;
-  const locate = (path: readonly PathSegment[], o?: { key?: boolean }): Position => {
-    if (!locator) {
-      const lineCounter = new LineCounter();
-      const doc = parseDocument(text, { lineCounter, uniqueKeys: false, prettyErrors: false });
-      locator = new Locator(doc, lineCounter, new Map());
-    }
-    return locator.locate(path, o);
-  };
+  const locate = lazyLocate(text);
   return { ok: true, source: { value, warnings: [], locate } };
 }
 

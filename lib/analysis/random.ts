@@ -1,5 +1,5 @@
 // Mulberry32, a 32-bit seeded generator: ten lines, so not worth a dependency. Used only where the
-// analysis must be reproducible (sampled betweenness sources), never for anything security-related.
+// analysis must be reproducible (sampled betweenness sources) and in seeded fixtures, never for anything security-related.
 export function mulberry32(seed: number): () => number {
   let a = seed >>> 0;
   return () => {

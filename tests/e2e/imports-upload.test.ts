@@ -4,7 +4,7 @@
 import type { Browser, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { baseUrl, launch, screenshot } from "./browser";
-import { SignInPage } from "./pages/signin";
+import { signedInPage } from "./pages/signin";
 
 let browser: Browser;
 beforeAll(async () => {
@@ -50,15 +50,7 @@ async function upload(page: Page, name: string, text: string) {
   await page.getByLabel("Inventory file").setInputFiles({ name, mimeType: "application/yaml", buffer: Buffer.from(text) });
 }
 
-async function signedIn(role: string): Promise<Page> {
-  const context = await browser.newContext({ viewport: { width: 1366, height: 900 } });
-  const page = await context.newPage();
-  const signin = new SignInPage(page);
-  await signin.open();
-  await signin.signIn(`${role}@harbor-pantry.example`);
-  await page.waitForURL((url) => url.pathname === "/");
-  return page;
-}
+const signedIn = (role: string): Promise<Page> => signedInPage(browser, role, { width: 1366, height: 900 });
 
 describe("imports screen", () => {
   it("shows a broken file's errors at their lines, previews a good one, pushes it, and lists it", async () => {

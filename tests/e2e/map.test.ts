@@ -3,19 +3,14 @@
 import type { Browser, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { baseUrl, launch, screenshot } from "./browser";
-import { SignInPage } from "./pages/signin";
+import { signedInPage } from "./pages/signin";
 
 let browser: Browser;
 let page: Page;
 
 beforeAll(async () => {
   browser = await launch();
-  const context = await browser.newContext({ viewport: { width: 1366, height: 900 } });
-  page = await context.newPage();
-  const signin = new SignInPage(page);
-  await signin.open();
-  await signin.signIn("lead@harbor-pantry.example");
-  await page.waitForURL((url) => url.pathname === "/");
+  page = await signedInPage(browser, "lead", { width: 1366, height: 900 });
 });
 afterAll(async () => {
   await browser?.close();

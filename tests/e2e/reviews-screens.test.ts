@@ -3,7 +3,7 @@
 import type { Browser, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { baseUrl, launch, screenshot } from "./browser";
-import { SignInPage } from "./pages/signin";
+import { signedInPage } from "./pages/signin";
 
 let browser: Browser;
 beforeAll(async () => {
@@ -13,15 +13,7 @@ afterAll(async () => {
   await browser?.close();
 });
 
-async function signedIn(role: string): Promise<Page> {
-  const context = await browser.newContext({ viewport: { width: 1366, height: 900 } });
-  const page = await context.newPage();
-  const signin = new SignInPage(page);
-  await signin.open();
-  await signin.signIn(`${role}@harbor-pantry.example`);
-  await page.waitForURL((url) => url.pathname === "/");
-  return page;
-}
+const signedIn = (role: string): Promise<Page> => signedInPage(browser, role, { width: 1366, height: 900 });
 
 const inDays = (days: number) => new Date(Date.now() + days * 86_400_000).toISOString().slice(0, 10);
 

@@ -2,7 +2,7 @@
 import type { Browser, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { baseUrl, launch, screenshot } from "./browser";
-import { SignInPage } from "./pages/signin";
+import { signedInPage } from "./pages/signin";
 
 let browser: Browser;
 let page: Page;
@@ -17,12 +17,7 @@ const firstKey = (p: Page) => p.locator('[data-testid="rankings-table"] tbody tr
 
 beforeAll(async () => {
   browser = await launch();
-  const context = await browser.newContext({ viewport: { width: 1366, height: 768 } });
-  page = await context.newPage();
-  const signin = new SignInPage(page);
-  await signin.open();
-  await signin.signIn("viewer@harbor-pantry.example");
-  await page.waitForURL((u) => u.pathname === "/");
+  page = await signedInPage(browser, "viewer", { width: 1366, height: 768 });
 });
 afterAll(async () => {
   await browser?.close();

@@ -4,7 +4,7 @@
 import type { Browser, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { baseUrl, launch, screenshot } from "./browser";
-import { SignInPage } from "./pages/signin";
+import { signedInPage } from "./pages/signin";
 
 let browser: Browser;
 beforeAll(async () => {
@@ -14,15 +14,7 @@ afterAll(async () => {
   await browser?.close();
 });
 
-async function signedIn(role: string): Promise<Page> {
-  const context = await browser.newContext({ viewport: { width: 1366, height: 900 } });
-  const page = await context.newPage();
-  const signin = new SignInPage(page);
-  await signin.open();
-  await signin.signIn(`${role}@harbor-pantry.example`);
-  await page.waitForURL((url) => url.pathname === "/");
-  return page;
-}
+const signedIn = (role: string): Promise<Page> => signedInPage(browser, role, { width: 1366, height: 900 });
 
 describe("teams", () => {
   it("shows a team's people, leads and on-call contact", async () => {

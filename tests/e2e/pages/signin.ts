@@ -1,5 +1,5 @@
 // Page object: the sign-in screen.
-import type { Page } from "playwright-core";
+import type { Browser, Page } from "playwright-core";
 import { baseUrl } from "../browser";
 
 export const DEMO_PASSWORD = "pinchpoint-demo";
@@ -20,4 +20,15 @@ export class SignInPage {
   error() {
     return this.page.locator("#signin-error");
   }
+}
+
+/** A new browser context signed in as a demo account (`admin`, `lead`, … or a full e-mail), on the overview. */
+export async function signedInPage(browser: Browser, who: string, viewport = { width: 1366, height: 900 }): Promise<Page> {
+  const context = await browser.newContext({ viewport });
+  const page = await context.newPage();
+  const signin = new SignInPage(page);
+  await signin.open();
+  await signin.signIn(who.includes("@") ? who : `${who}@harbor-pantry.example`);
+  await page.waitForURL((url) => url.pathname === "/");
+  return page;
 }

@@ -32,7 +32,9 @@ describe("pinch points", () => {
     await expect.poll(() => page.getByTestId("snapshot-meta").textContent()).toMatch(/Snapshot #\d+, pushed .*undeclared: \d+\.\d%/);
     expect(await page.getByTestId("caution").textContent()).toContain("only as good as the inventory");
     await expect.poll(() => page.getByRole("img", { name: /^Rank over \d+ snapshots/ }).count(), { timeout: 15_000 }).toBeGreaterThan(0);
-    expect(await page.getByText(/\d+–\d+ of 163/).count()).toBe(1);
+    // Other e2e files may push to production meanwhile: the demo's 163, or more, never fewer.
+    const range = (await page.getByText(/\d+–\d+ of \d+/).first().textContent()) ?? "";
+    expect(Number(/of (\d+)/.exec(range)?.[1])).toBeGreaterThanOrEqual(163);
     await screenshot(page, "screens-pinch-points");
   });
 

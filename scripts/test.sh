@@ -29,12 +29,24 @@ npx eslint --max-warnings=0 .
 step "typecheck"
 npx tsc --noEmit
 step "unit tests"
-npx vitest run --project unit
+results="$root/test-results/vitest"
+rm -rf "$results" && mkdir -p "$results"
+run_vitest() { npx vitest run --project "$1" --reporter=default --reporter=json --outputFile.json="$results/$1.json"; }
+run_vitest unit
 step "integration tests"
-npx vitest run --project integration
+run_vitest integration
 
 step "end-to-end: build"
 if needs_build; then npx next build >/dev/null; fi
 step "end-to-end: tests"
-npx vitest run --project e2e
+run_vitest e2e
 step "all passed"
+# One closing line over the three runs, in the plain form CI reads.
+node -e '
+  const fs = require("fs"); let p = 0, f = 0, s = 0;
+  for (const n of ["unit", "integration", "e2e"]) {
+    const r = JSON.parse(fs.readFileSync(process.argv[1] + "/" + n + ".json", "utf8"));
+    p += r.numPassedTests; f += r.numFailedTests; s += r.numPendingTests + (r.numTodoTests || 0);
+  }
+  console.log(`${p} passed, ${f} failed, ${s} skipped`);
+' "$results"

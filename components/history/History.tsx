@@ -28,8 +28,10 @@ export function History({ env }: { env: string }) {
   const snapshots = useSWR<SnapshotsResponse, ApiError>(`/api/v1/environments/${env}/snapshots?limit=100`, fetchJson, { refreshInterval: 15_000 });
   const trend = useSWR<RankTrendResponse, ApiError>(`/api/v1/environments/${env}/rankings/history?top=8&count=30`, fetchJson);
   const items = snapshots.data?.items ?? [];
-  const from = Number(url.get("from") ?? items[1]?.number ?? 0);
-  const to = Number(url.get("to") ?? items[0]?.number ?? 0);
+  // ?snapshot=N (linked from the import history) shows what that snapshot changed: N−1 → N.
+  const single = Number(url.get("snapshot") ?? 0);
+  const from = Number(url.get("from") ?? (single ? single - 1 : (items[1]?.number ?? 0)));
+  const to = Number(url.get("to") ?? (single || (items[0]?.number ?? 0)));
   const canDiff = from > 0 && to > 0 && from !== to;
   const diff = useSWR<DiffResponse, ApiError>(canDiff ? `/api/v1/environments/${env}/snapshots/${from}/diff/${to}` : null, fetchJson);
 

@@ -22,7 +22,11 @@ async function main() {
       continue;
     }
     const started = Date.now();
-    const outcome = await runJob(job, id);
+    const outcome = await runJob(job, id).catch((error: unknown) => {
+      // Never let one job stop the worker: the job is re-queued when its heartbeat goes stale.
+      console.error("[worker] job failed unexpectedly:", error);
+      return "failed" as const;
+    });
     console.log(`[worker] snapshot ${job.snapshot_id}: ${outcome} in ${Date.now() - started} ms`);
   }
   await stopMail();

@@ -4,18 +4,12 @@ import { signIn } from "next-auth/react";
 import { useRouter } from "next/navigation";
 import { useState, type FormEvent } from "react";
 import { Button } from "@/components/ui/Button";
+import { signInErrorText } from "@/lib/auth/messages";
 
-// next-auth reports its own failures with codes; ours arrive as readable messages.
-function describe(error: string | undefined | null): string | null {
-  if (!error) return null;
-  if (error === "CredentialsSignin") return "That e-mail and password do not match an active account.";
-  if (/^[A-Z][A-Za-z]+$/.test(error)) return "Sign-in failed. Try again, or ask an admin to check your account.";
-  return error;
-}
 
 export function SignInForm({ callbackUrl, initialError, ssoName }: { callbackUrl: string; initialError?: string; ssoName: string | null }) {
   const router = useRouter();
-  const [error, setError] = useState<string | null>(describe(initialError));
+  const [error, setError] = useState<string | null>(signInErrorText(initialError));
   const [pending, setPending] = useState(false);
 
   async function onSubmit(event: FormEvent<HTMLFormElement>) {
@@ -30,7 +24,7 @@ export function SignInForm({ callbackUrl, initialError, ssoName }: { callbackUrl
     });
     setPending(false);
     if (!result || result.error || !result.ok) {
-      setError(describe(result?.error) ?? "Sign-in failed.");
+      setError(signInErrorText(result?.error) ?? "Sign-in failed.");
       return;
     }
     router.replace(callbackUrl);

@@ -68,6 +68,8 @@ export async function analyse(
     const t0 = performance.now();
     const value = await run(report);
     timings[name] = performance.now() - t0;
+    // Yield to the event loop between phases, so a caller's timers (the job's heartbeat) can run.
+    await new Promise<void>((resolve) => setImmediate(resolve));
     base += share;
     report(0);
     return value;

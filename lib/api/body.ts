@@ -2,14 +2,14 @@
 import { AppError } from "@/lib/errors";
 import { MAX_BODY_BYTES } from "@/lib/inventory/limits";
 
-const tooLarge = () =>
-  new AppError("payload_too_large", `The body is over the limit of ${MAX_BODY_BYTES / 1024 / 1024} MiB`, [
-    { path: "(body)", message: `at most ${MAX_BODY_BYTES} bytes are accepted per push` },
+const tooLarge = (limit: number) =>
+  new AppError("payload_too_large", `The body is over the limit of ${Math.round((limit / 1024 / 1024) * 10) / 10} MiB`, [
+    { path: "(body)", message: `at most ${limit} bytes are accepted here` },
   ]);
 
 export async function readBodyWithLimit(req: Request, limit = MAX_BODY_BYTES): Promise<Buffer> {
   const declared = Number(req.headers.get("content-length") ?? NaN);
-  if (Number.isFinite(declared) && declared > limit) throw tooLarge();
+  if (Number.isFinite(declared) && declared > limit) throw tooLarge(limit);
   if (!req.body) return Buffer.alloc(0);
   const reader = req.body.getReader();
   const chunks: Uint8Array[] = [];
@@ -20,7 +20,7 @@ export async function readBodyWithLimit(req: Request, limit = MAX_BODY_BYTES): P
     size += value.byteLength;
     if (size > limit) {
       await reader.cancel();
-      throw tooLarge();
+      throw tooLarge(limit);
     }
     chunks.push(value);
   }

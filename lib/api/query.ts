@@ -1,6 +1,7 @@
 // Request parsing for route handlers: zod over query strings, params and JSON bodies.
 import type { z } from "zod";
 import { AppError, parseOrThrow } from "@/lib/errors";
+import { readBodyWithLimit } from "./body";
 
 export function parseQuery<T extends z.ZodType>(url: string | URL, schema: T): z.infer<T> {
   const value: Record<string, string> = {};
@@ -15,10 +16,14 @@ export function parseParams<T extends z.ZodType>(params: unknown, schema: T): z.
   return result.data;
 }
 
-/** Parse a JSON request body; a body that is not JSON is a 400, not a 500. */
+/** JSON bodies of the API are small; inventories have their own, larger limit (lib/api/body.ts). */
+export const MAX_JSON_BODY_BYTES = 1024 * 1024;
+
+/** Parse a JSON request body, refusing one over 1 MiB; a body that is not JSON is a 400, not a 500. */
 export async function readJson(req: Request): Promise<unknown> {
+  const bytes = await readBodyWithLimit(req, MAX_JSON_BODY_BYTES);
   try {
-    return await req.json();
+    return JSON.parse(bytes.toString("utf8"));
   } catch {
     throw new AppError("bad_request", "The request body is not valid JSON");
   }

@@ -5,6 +5,7 @@ import CredentialsProvider from "next-auth/providers/credentials";
 import type { OAuthConfig } from "next-auth/providers/oauth";
 import { z } from "zod";
 import { isRole } from "./roles";
+import { SIGN_IN_ERRORS } from "./messages";
 import { clearFailedSignIns, isSignInBlocked, recordFailedSignIn } from "@/lib/data/sign-in-attempts";
 import { normaliseEmail, verifyPassword } from "@/lib/data/users";
 import { userForOidcIdentity } from "@/lib/data/sso-users";
@@ -41,17 +42,21 @@ const credentialsSchema = z.object({
   password: z.string().min(1).max(200),
 });
 
-/** Messages the sign-in page shows; next-auth passes a thrown error's message through as `error`. */
-export const SIGN_IN_ERRORS = {
-  wrong: "That e-mail and password do not match an active account.",
-  limited: "Too many failed attempts. Wait 15 minutes, or ask an admin to check the account.",
-} as const;
+export { SIGN_IN_ERRORS };
 
+/**
+ * The caller's address for the per-address sign-in limit. X-Forwarded-For is a list each hop
+ * appends to; entries left of the ones our own proxies added are the client's word. The rightmost
+ * entry is the one `next start` itself adds for a direct connection; behind N trusted proxies
+ * (PINCHPOINT_TRUSTED_PROXY_HOPS=N) the address is N entries further left.
+ */
 function clientAddress(headers: Record<string, unknown> | undefined): string {
   const forwarded = headers?.["x-forwarded-for"];
-  const first = typeof forwarded === "string" ? forwarded.split(",")[0]?.trim() : undefined;
+  const hops = Math.max(0, Number(process.env.PINCHPOINT_TRUSTED_PROXY_HOPS ?? 0) || 0);
+  const list = typeof forwarded === "string" ? forwarded.split(",").map((a) => a.trim()).filter(Boolean) : [];
+  const chosen = list[Math.max(0, list.length - 1 - hops)];
   const real = headers?.["x-real-ip"];
-  return first || (typeof real === "string" ? real : "") || "local";
+  return chosen || (typeof real === "string" ? real : "") || "local";
 }
 
 export function authSecret(): string {
@@ -94,7 +99,7 @@ export const authOptions: NextAuthOptions = {
       if (account?.provider !== "oidc") return true;
       const p = profile as OidcProfile | undefined;
       const user = await userForOidcIdentity({ subject: account.providerAccountId, email: p?.email ?? null, emailVerified: p?.email_verified === true, name: p?.name ?? null });
-      return user ? true : "/signin?error=" + encodeURIComponent("Single sign-on worked, but this identity has no active Pinchpoint account. Ask an admin.");
+      return user ? true : "/signin?error=sso_no_account";
     },
     async jwt({ token, user, account, profile }) {
       if (account?.provider === "oidc") {

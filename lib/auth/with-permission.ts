@@ -5,6 +5,7 @@ import type { NextRequest } from "next/server";
 import { actorCan, resolveActor, type Actor } from "./actor";
 import type { Permission } from "./roles";
 import { AppError, errorResponse, forbidden, unauthorized } from "@/lib/errors";
+import { findEnvironment } from "@/lib/data/environments";
 
 export interface HandlerContext<P> {
   req: NextRequest;
@@ -17,9 +18,30 @@ type RouteContext<P> = { params: Promise<P> };
 /** The permission a route needs; `public` routes run without a caller. */
 export type RouteRule = Permission | "public";
 
+export interface RouteOptions {
+  /**
+   * The route reads across environments and limits itself for a token bound to one (the
+   * environment list). Other routes without an `{env}` in their path refuse bound tokens.
+   */
+  acrossEnvironments?: boolean;
+}
+
+/** A token bound to an environment reaches that environment's routes and nothing wider. */
+async function checkTokenBinding(actor: Actor, params: unknown, options: RouteOptions): Promise<void> {
+  if (actor.type !== "token" || !actor.environmentId) return;
+  const env = typeof params === "object" && params !== null && "env" in params ? (params as { env: unknown }).env : undefined;
+  if (typeof env === "string") {
+    const environment = await findEnvironment({ slug: env });
+    if (environment?.id !== actor.environmentId) throw forbidden("This token is bound to another environment");
+    return;
+  }
+  if (!options.acrossEnvironments) throw forbidden("This token is bound to one environment and cannot read across environments");
+}
+
 export function withPermission<P = Record<string, never>>(
   permission: RouteRule,
   handler: (ctx: HandlerContext<P>) => Promise<Response>,
+  options: RouteOptions = {},
 ): ((req: NextRequest, ctx: RouteContext<P>) => Promise<Response>) & { permission: RouteRule } {
   const wrapped = async (req: NextRequest, ctx: RouteContext<P>) => {
     try {
@@ -28,6 +50,7 @@ export function withPermission<P = Record<string, never>>(
       if (permission !== "public") {
         if (!actor) throw unauthorized();
         if (!actorCan(actor, permission)) throw forbidden(`This needs the ${permission} permission`);
+        await checkTokenBinding(actor, params, options);
       }
       return await handler({ req, actor: actor as Actor, params });
     } catch (error) {

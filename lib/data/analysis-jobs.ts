@@ -83,8 +83,15 @@ export function analysisInputFromContent(content: SnapshotContent): AnalysisInpu
 /** Run one claimed job to the end, storing results or the error. */
 export async function runJob(job: ClaimedJob, worker = workerId()): Promise<"done" | "failed" | "lost"> {
   const { models, sequelize } = db();
-  const snapshot = await models.Snapshot.findByPk(job.snapshot_id);
-  const env = await models.Environment.findByPk(job.environment_id);
+  let snapshot: InstanceType<typeof models.Snapshot> | null;
+  let env: InstanceType<typeof models.Environment> | null;
+  try {
+    [snapshot, env] = await Promise.all([models.Snapshot.findByPk(job.snapshot_id), models.Environment.findByPk(job.environment_id)]);
+  } catch (error) {
+    // The database went away: leave the job to be taken over once its heartbeat is stale.
+    console.error("[analysis] could not load the job's snapshot:", error instanceof Error ? error.message : error);
+    return "failed";
+  }
   if (!snapshot || !env) {
     await models.AnalysisRun.update({ status: "failed", error: "snapshot or environment no longer exists", finishedAt: new Date() }, { where: { id: job.id } });
     return "failed";
@@ -99,7 +106,8 @@ export async function runJob(job: ClaimedJob, worker = workerId()): Promise<"don
       models.AnalysisRun.update({ progress: fraction, phase, heartbeatAt: new Date() }, { where: { id: job.id, lockedBy: worker } }),
     );
   };
-  // Long synchronous phases cannot beat the heartbeat themselves; this timer covers the gaps.
+  // The analysis yields between its phases (each well under the stale limit, see npm run bench), and
+  // this timer beats then; progress reports beat too.
   const beat = setInterval(() => {
     void models.AnalysisRun.update({ heartbeatAt: new Date() }, { where: { id: job.id, lockedBy: worker } });
   }, 10_000);

@@ -4,7 +4,7 @@ import { db } from "@/models";
 import type { Actor } from "@/lib/auth/actor";
 import { roleHas } from "@/lib/auth/roles";
 import { AppError, forbidden, notFound } from "@/lib/errors";
-import { recordAudit } from "./audit";
+import { lockKey, recordAudit } from "./audit";
 import { noticeOwnerAssigned } from "@/lib/mail";
 import { teamsLedBy } from "./teams";
 
@@ -41,6 +41,7 @@ export async function annotateComponent({
   }
 
   return sequelize.transaction(async (transaction) => {
+    await lockKey({ scope: "annotation", environmentId, key }, transaction);
     const existing = await models.ComponentAnnotation.findOne({ where: { environmentId, key }, transaction, lock: transaction.LOCK.UPDATE });
     const currentOwner = existing?.ownerTeam ?? component.team;
     if (!roleHas(actor.role, "reviews:write")) {

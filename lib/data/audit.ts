@@ -33,3 +33,14 @@ export async function recordAudit(
     { transaction },
   );
 }
+
+/**
+ * Serialise writes to one (environment, key) row that may not exist yet: FOR UPDATE locks nothing
+ * when the row is missing, so two first writes would both insert and the second would fail.
+ */
+export async function lockKey({ scope, environmentId, key }: { scope: string; environmentId: string; key: string }, transaction: Transaction): Promise<void> {
+  await db().sequelize.query("SELECT pg_advisory_xact_lock(hashtext(:scope), hashtext(:id))", {
+    replacements: { scope: `pinchpoint-${scope}`, id: `${environmentId}/${key}` },
+    transaction,
+  });
+}

@@ -12,6 +12,7 @@ export interface EnvironmentRef {
 }
 
 export interface EnvironmentSummary {
+  id: string;
   slug: string;
   name: string;
   latestSnapshot: { number: number; createdAt: string } | null;
@@ -32,6 +33,7 @@ export async function getEnvironmentOrThrow({ slug }: { slug: string }): Promise
 
 export async function listEnvironments(): Promise<EnvironmentSummary[]> {
   const rows = await db().sequelize.query<{
+    id: string;
     slug: string;
     name: string;
     number: number | null;
@@ -40,7 +42,7 @@ export async function listEnvironments(): Promise<EnvironmentSummary[]> {
     progress: number | null;
     component_count: string;
   }>(
-    `SELECT e.slug, e.name, s.number, s.created_at, a.status, a.progress,
+    `SELECT e.id, e.slug, e.name, s.number, s.created_at, a.status, a.progress,
             (SELECT count(*) FROM components c WHERE c.environment_id = e.id) AS component_count
        FROM environments e
        LEFT JOIN LATERAL (SELECT id, number, created_at FROM snapshots WHERE environment_id = e.id
@@ -50,6 +52,7 @@ export async function listEnvironments(): Promise<EnvironmentSummary[]> {
     { type: QueryTypes.SELECT },
   );
   return rows.map((r) => ({
+    id: r.id,
     slug: r.slug,
     name: r.name,
     latestSnapshot: r.number !== null && r.created_at ? { number: r.number, createdAt: r.created_at.toISOString() } : null,

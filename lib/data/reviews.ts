@@ -9,7 +9,7 @@ import type { Actor } from "@/lib/auth/actor";
 import { roleHas } from "@/lib/auth/roles";
 import type { ReviewInput } from "@/lib/api/schemas/reviews";
 import { forbidden, notFound } from "@/lib/errors";
-import { recordAudit } from "./audit";
+import { recordAudit, lockKey } from "./audit";
 
 /** What a badge beside a component needs. */
 export interface ReviewSummary {
@@ -124,6 +124,7 @@ export async function putReview({
   if (!component) throw notFound(`Component "${key}"`);
   const reviewBy = input.reviewBy ?? null;
   await sequelize.transaction(async (transaction) => {
+    await lockKey({ scope: "review", environmentId, key }, transaction);
     const existing = await models.RiskReview.findOne({ where: { environmentId, key }, transaction, lock: transaction.LOCK.UPDATE });
     const before: Snapshot | null = existing
       ? { status: existing.status, rationale: existing.rationale, reviewBy: existing.reviewBy, reviewer: await reviewerEmail(existing.reviewerId) }
@@ -147,6 +148,7 @@ export async function clearReview({ environmentId, key, actor }: { environmentId
   requireReviewer(actor);
   const { models, sequelize } = db();
   return sequelize.transaction(async (transaction) => {
+    await lockKey({ scope: "review", environmentId, key }, transaction);
     const existing = await models.RiskReview.findOne({ where: { environmentId, key }, transaction, lock: transaction.LOCK.UPDATE });
     if (!existing) throw notFound(`Review of "${key}"`);
     const before: Snapshot = { status: existing.status, rationale: existing.rationale, reviewBy: existing.reviewBy, reviewer: await reviewerEmail(existing.reviewerId) };

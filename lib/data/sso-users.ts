@@ -14,7 +14,10 @@ export async function userForOidcIdentity({ subject, email, emailVerified, name 
   const existing = await User.findOne({ where: { email: address } });
   if (existing) {
     if (!emailVerified || !existing.active) return null;
-    await existing.update({ oidcSubject: subject });
+    await db().sequelize.transaction(async (transaction) => {
+      await existing.update({ oidcSubject: subject }, { transaction });
+      await recordAudit({ actor: { type: "system", label: "single sign-on" }, action: "user.sso.link", targetType: "user", targetId: existing.id, before: { oidcSubject: null }, after: { oidcSubject: subject, email: address } }, transaction);
+    });
     return toAppUser(existing);
   }
   return db().sequelize.transaction(async (transaction) => {

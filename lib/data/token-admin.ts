@@ -16,7 +16,7 @@ export async function createTokenAsAdmin({ input, actor }: { input: CreateTokenI
     environmentId = env.id;
   }
   return db().sequelize.transaction(async (transaction) => {
-    const created = await createToken({ name: input.name, scopes: input.scopes, environmentId, source: input.source ?? null, createdBy: actor.id });
+    const created = await createToken({ name: input.name, scopes: input.scopes, environmentId, source: input.source ?? null, createdBy: actor.id }, transaction);
     await recordAudit({ actor, action: "token.create", targetType: "token", targetId: created.info.id, environmentId, after: created.info }, transaction);
     return created;
   });
@@ -24,7 +24,7 @@ export async function createTokenAsAdmin({ input, actor }: { input: CreateTokenI
 
 export async function revokeTokenAsAdmin({ id, actor }: { id: string; actor: Actor }): Promise<TokenInfo> {
   return db().sequelize.transaction(async (transaction) => {
-    const result = await revokeToken({ id });
+    const result = await revokeToken({ id }, transaction);
     if (!result) throw notFound("Token");
     await recordAudit({ actor, action: "token.revoke", targetType: "token", targetId: id, before: result.before, after: result.after }, transaction);
     return result.after;

@@ -1,5 +1,6 @@
 // API tokens: `ppt_` + 40 random characters, shown once, stored as a sha256 hash.
 import { createHash, randomBytes } from "node:crypto";
+import type { Transaction } from "sequelize";
 import { db } from "@/models";
 import type { TokenScope } from "@/lib/auth/roles";
 
@@ -47,13 +48,16 @@ async function toTokenInfo(row: TokenRow, envSlugs?: Map<string, string>): Promi
   };
 }
 
-export async function createToken(input: {
-  name: string;
-  scopes: TokenScope[];
-  environmentId: string | null;
-  source: string | null;
-  createdBy: string;
-}): Promise<{ token: string; info: TokenInfo }> {
+export async function createToken(
+  input: {
+    name: string;
+    scopes: TokenScope[];
+    environmentId: string | null;
+    source: string | null;
+    createdBy: string;
+  },
+  transaction?: Transaction,
+): Promise<{ token: string; info: TokenInfo }> {
   const token = newSecret();
   const row = await db().models.ApiToken.create({
     name: input.name,
@@ -65,7 +69,7 @@ export async function createToken(input: {
     createdBy: input.createdBy,
     lastUsedAt: null,
     revokedAt: null,
-  });
+  }, { transaction });
   return { token, info: await toTokenInfo(row) };
 }
 
@@ -77,13 +81,13 @@ export async function listTokens(): Promise<TokenInfo[]> {
 }
 
 /** Revoke; returns the token as it was before, or null when no such token exists. */
-export async function revokeToken({ id }: { id: string }): Promise<{ before: TokenInfo; after: TokenInfo } | null> {
-  const row = await db().models.ApiToken.findByPk(id);
+export async function revokeToken({ id }: { id: string }, transaction?: Transaction): Promise<{ before: TokenInfo; after: TokenInfo } | null> {
+  const row = await db().models.ApiToken.findByPk(id, { transaction, lock: transaction ? transaction.LOCK.UPDATE : undefined });
   if (!row) return null;
   const before = await toTokenInfo(row);
   if (!row.revokedAt) {
     row.revokedAt = new Date();
-    await row.save();
+    await row.save({ transaction });
   }
   return { before, after: await toTokenInfo(row) };
 }

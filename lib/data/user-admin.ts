@@ -140,9 +140,13 @@ export async function updateUser({ id, input, actor }: { id: string; input: Upda
   const admin = requireUserActor(actor);
   const { sequelize, models } = db();
   await sequelize.transaction(async (transaction) => {
+    // Serialise admin changes: lock every active admin first, so two admins demoting each other at
+    // once cannot both succeed and leave nobody able to administer the estate.
+    const admins = await models.User.findAll({ where: { role: "admin", active: true }, transaction, lock: transaction.LOCK.UPDATE });
+    if (!admins.some((a) => a.id === admin.id)) throw new AppError("forbidden", "Your account is no longer an active admin");
     const row = await models.User.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
     if (!row) throw notFound("User");
-    // Guard against locking the last admin out: an admin never demotes or deactivates themselves.
+    // An admin never demotes or deactivates themselves either: another admin does it.
     if (row.id === admin.id) {
       if (input.role !== undefined && input.role !== row.role) {
         throw new AppError("conflict", "You cannot change your own role. Ask another admin to do it, so the estate is never left without one.", [{ path: "role", message: "your own role" }]);
@@ -150,6 +154,10 @@ export async function updateUser({ id, input, actor }: { id: string; input: Upda
       if (input.active === false) {
         throw new AppError("conflict", "You cannot deactivate your own account. Ask another admin to do it.", [{ path: "active", message: "your own account" }]);
       }
+    }
+    const losesAdmin = row.role === "admin" && row.active && ((input.role !== undefined && input.role !== "admin") || input.active === false);
+    if (losesAdmin && admins.filter((a) => a.id !== row.id).length === 0) {
+      throw new AppError("conflict", "This is the last active admin; make someone else an admin first.");
     }
     const before = snapshotOf(row);
     if (input.role !== undefined) row.role = input.role;

@@ -149,9 +149,14 @@ async function sendOne({ row, transport, from, now, report }: { row: ClaimedRow;
     });
     const rejected = (info.rejected ?? []).map(String);
     if (rejected.length) console.warn(`[mail] ${row.id} (${row.template}): server refused ${rejected.join(", ")}; sent to the others`);
-    await sequelize.query(`UPDATE outbox_messages SET status = 'sent', sent_at = :now, last_error = :note WHERE id = :id`, {
-      replacements: { id: row.id, now: new Date(), note: rejected.length ? `refused: ${rejected.join(", ")}` : null },
-    });
+    // An invite carries a one-time secret: once delivered, the outbox keeps no copy of it.
+    await sequelize.query(
+      `UPDATE outbox_messages SET status = 'sent', sent_at = :now, last_error = :note,
+              text = CASE WHEN template = 'invite' THEN '(invite delivered; the link is not kept)' ELSE text END,
+              html = CASE WHEN template = 'invite' THEN '' ELSE html END
+        WHERE id = :id`,
+      { replacements: { id: row.id, now: new Date(), note: rejected.length ? `refused: ${rejected.join(", ")}` : null } },
+    );
     report.sent++;
   } catch (error) {
     const message = describe(error);
@@ -166,7 +171,11 @@ async function sendOne({ row, transport, from, now, report }: { row: ClaimedRow;
       report.retrying++;
     }
     await sequelize
-      .query(`UPDATE outbox_messages SET status = :status, last_error = :message, next_attempt_at = :next WHERE id = :id`, {
+      .query(
+        `UPDATE outbox_messages SET status = :status, last_error = :message, next_attempt_at = :next,
+                text = CASE WHEN :status = 'failed' AND template = 'invite' THEN '(invite not delivered; the link is not kept)' ELSE text END,
+                html = CASE WHEN :status = 'failed' AND template = 'invite' THEN '' ELSE html END
+          WHERE id = :id`, {
         replacements: { id: row.id, status: giveUp ? "failed" : "queued", message, next },
       })
       .catch((e: unknown) => console.error(`[mail] could not record the failure of ${row.id}:`, describe(e)));

@@ -5,13 +5,14 @@ import { SignInForm } from "@/components/auth/SignInForm";
 import { Logo } from "@/components/ui/Logo";
 import { authOptions, oidcProvider } from "@/lib/auth/options";
 import { demoMode } from "@/lib/config";
+import { sameOriginPath } from "@/lib/auth/callback";
 
 export const metadata: Metadata = { title: "Sign in" };
 
 export default async function SignInPage({ searchParams }: { searchParams: Promise<{ callbackUrl?: string; error?: string }> }) {
   const session = await getServerSession(authOptions);
   const { callbackUrl, error } = await searchParams;
-  const target = callbackUrl?.startsWith("/") && !callbackUrl.startsWith("//") ? callbackUrl : "/";
+  const target = sameOriginPath(callbackUrl);
   if (session?.user?.id) redirect(target);
   return (
     <main className="grid min-h-screen md:grid-cols-[1.1fr_1fr]">

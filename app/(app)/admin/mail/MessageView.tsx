@@ -6,9 +6,8 @@ import type { SinkMessage } from "@/lib/mail/sink-store";
 // The HTML is data, not our page: an empty sandbox runs no script, submits no form and gets an
 // opaque origin; the CSP keeps it from fetching anything (no tracking pixels, no remote CSS).
 const CSP = `<meta http-equiv="Content-Security-Policy" content="default-src 'none'; style-src 'unsafe-inline'; img-src data:">`;
-function framed(html: string): string {
-  return /<head[^>]*>/i.test(html) ? html.replace(/<head[^>]*>/i, (m) => `${m}${CSP}`) : `${CSP}${html}`;
-}
+// Always first: a policy inserted after the message's own <head> could follow tags that already fetch.
+const framed = (html: string): string => `${CSP}${html}`;
 
 export function MessageView({ message, view }: { message: SinkMessage; view: "html" | "text" }) {
   const show = view === "html" && message.html !== null ? "html" : "text";

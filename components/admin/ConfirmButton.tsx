@@ -6,12 +6,15 @@ import { Button } from "@/components/ui/Button";
 /** A destructive action asked twice, inline, so the question sits next to what it is about. */
 export function ConfirmButton({
   label,
+  name,
   question,
   confirmLabel,
   onConfirm,
   disabled,
 }: {
   label: string;
+  /** accessible name naming what it acts on ("Revoke token ci-push"), when rows repeat the same label */
+  name?: string;
   question: ReactNode;
   confirmLabel: string;
   onConfirm: () => Promise<void>;
@@ -21,13 +24,13 @@ export function ConfirmButton({
   const [pending, setPending] = useState(false);
   if (!asking) {
     return (
-      <Button type="button" variant="danger" disabled={disabled} onClick={() => setAsking(true)}>
+      <Button type="button" variant="danger" disabled={disabled} onClick={() => setAsking(true)} aria-label={name}>
         {label}
       </Button>
     );
   }
   return (
-    <span role="group" aria-label={label} className="inline-flex flex-wrap items-center gap-2 rounded-md border border-down/50 bg-down/10 px-2 py-1 text-sm">
+    <span role="group" aria-label={name ?? label} className="inline-flex flex-wrap items-center gap-2 rounded-md border border-down/50 bg-down/10 px-2 py-1 text-sm">
       <span>{question}</span>
       <Button
         type="button"

@@ -191,6 +191,7 @@ export function TokensAdmin() {
                       {!t.revokedAt && (
                         <ConfirmButton
                           label="Revoke"
+                          name={`Revoke token ${t.name}`}
                           question={
                             <>
                               Revoke <span className="font-mono">{t.name}</span>? Jobs using it start failing. This cannot be undone.

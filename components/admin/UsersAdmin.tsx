@@ -173,19 +173,20 @@ export function UsersAdmin({ currentUserId }: { currentUserId: string }) {
                     <td className="py-2 text-right whitespace-nowrap">
                       <span className="inline-flex items-center gap-2">
                         {(u.status === "invited" || u.status === "invite-expired") && (
-                          <Button type="button" onClick={() => reissue(u)}>
+                          <Button type="button" onClick={() => reissue(u)} aria-label={`New invitation link for ${u.email}`}>
                             New link
                           </Button>
                         )}
                         {self ? null : u.active ? (
                           <ConfirmButton
                             label="Deactivate"
+                            name={`Deactivate ${u.email}`}
                             question={<>Deactivate {u.email}? They are signed out on their next request.</>}
                             confirmLabel="Yes, deactivate"
                             onConfirm={() => update(u, { active: false }, `${u.email} is deactivated.`)}
                           />
                         ) : (
-                          <Button type="button" onClick={() => update(u, { active: true }, `${u.email} is active again.`)}>
+                          <Button type="button" onClick={() => update(u, { active: true }, `${u.email} is active again.`)} aria-label={`Reactivate ${u.email}`}>
                             Reactivate
                           </Button>
                         )}

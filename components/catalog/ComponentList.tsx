@@ -34,13 +34,13 @@ export function ComponentList({ env }: { env: string }) {
     <div className="space-y-4">
       <div>
         <h1 className="text-2xl font-semibold tracking-tight">Components</h1>
-        <p className="mt-1 text-sm text-muted">Everything the inventory of <span className="font-mono text-ink">{env}</span> declares, plus placeholders for keys nobody declared.</p>
+        <p className="mt-1 text-sm text-muted">Everything the inventory of <span className="font-mono text-ink">{env}</span> declares, plus undeclared components (needed by something, declared by no source).</p>
       </div>
       <div className="grid grid-cols-2 gap-3 md:grid-cols-4">
         <Stat label="Components" value={counts?.components ?? "—"} hint={counts ? `${counts.dependencies} dependencies` : undefined} />
         <Stat label="Teams" value={counts?.teams ?? "—"} />
         <Stat label="Unowned" value={counts?.unowned ?? "—"} tone={counts?.unowned ? "degraded" : "ink"} hint="nobody to page" />
-        <Stat label="Undeclared" value={counts?.undeclared ?? "—"} tone={counts?.undeclared ? "degraded" : "ink"} hint="needed, declared by no source" />
+        <Stat label="Undeclared" value={counts?.undeclared ?? "—"} tone={counts?.undeclared ? "degraded" : "ink"} hint="needed by something, declared by no source" />
       </div>
       {error && (
         <Notice tone={error.status === 404 ? "info" : "error"} title={error.status === 404 ? "Nothing here yet" : "Could not load the components"}>
@@ -88,7 +88,7 @@ export function ComponentList({ env }: { env: string }) {
                   </Link>
                   {c.name !== c.key && <span className="ml-2 text-xs text-faint">{c.name}</span>}
                 </td>
-                <td className="px-2 py-1.5 text-muted">{c.kind === "undeclared" ? <Badge tone="undeclared">placeholder</Badge> : c.kind}</td>
+                <td className="px-2 py-1.5 text-muted">{c.kind === "undeclared" ? <Badge tone="undeclared" title="needed by something, declared by no source">undeclared</Badge> : c.kind}</td>
                 <td className="px-2 py-1.5">{c.team ?? (c.kind === "undeclared" ? <span className="text-faint">—</span> : <Badge tone="degraded">unowned</Badge>)}</td>
                 <td className="px-2 py-1.5 text-right font-mono tabular-nums">{c.tier}</td>
                 <td className="px-2 py-1.5 text-right font-mono tabular-nums">{c.replicas}</td>

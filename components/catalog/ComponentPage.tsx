@@ -11,7 +11,7 @@ import { isSinglePoint } from "@/components/rankings/api-types";
 import { MEASURE_HELP } from "@/components/rankings/measures";
 import { Badge } from "@/components/ui/Badge";
 import { Card } from "@/components/ui/Card";
-import { ageOf, dateTime, measure, percent, plural, safeHref } from "@/components/ui/format";
+import { ageOf, betweennessPct, dateTime, measure, pinchScore, plural, safeHref } from "@/components/ui/format";
 import { Notice } from "@/components/ui/Notice";
 import { fetchJson, type ApiError } from "@/lib/client/fetcher";
 import type { ComponentHistoryEntry } from "@/lib/data/component-history";
@@ -47,7 +47,7 @@ function EdgeList({ env, edges, empty }: { env: string; edges: ComponentEdge[]; 
             {e.strength}
           </Badge>
           {e.group && <Badge tone="info" title="Met while any one member of the group is up">any of</Badge>}
-          {e.kind === "undeclared" && <Badge tone="undeclared">placeholder</Badge>}
+          {e.kind === "undeclared" && <Badge tone="undeclared" title="needed by something, declared by no source">undeclared</Badge>}
           {e.via && <span className="text-xs text-faint">via {e.via}</span>}
         </li>
       ))}
@@ -86,9 +86,9 @@ export function ComponentPage({ env, componentKey }: { env: string; componentKey
           </p>
           <h1 className="flex flex-wrap items-center gap-2 text-2xl font-semibold tracking-tight">
             <span className="font-mono">{d.key}</span>
-            {d.kind === "undeclared" && <Badge tone="undeclared">undeclared placeholder</Badge>}
-            {m?.articulation && <Badge tone="down">cut vertex</Badge>}
-            {m?.inCycle && <Badge tone="cycle">in cycle</Badge>}
+            {d.kind === "undeclared" && <Badge tone="undeclared" title="needed by something, declared by no source">undeclared</Badge>}
+            {m?.articulation && <Badge tone="info" title={MEASURE_HELP.articulation.short}>splits the graph</Badge>}
+            {m?.inCycle && <Badge tone="cycle" title={MEASURE_HELP.inCycle.short}>in a cycle</Badge>}
             {d.kind !== "undeclared" && isSinglePoint(d) && <Badge tone="degraded">single</Badge>}
             <ReviewBadge review={reviews.byKey[d.key]} />
           </h1>
@@ -130,7 +130,7 @@ export function ComponentPage({ env, componentKey }: { env: string; componentKey
                   })
                 : "—"}
             </Field>
-            <Field label="Source">{d.source ? <span className="font-mono">{d.source}</span> : <span className="text-muted">no source (placeholder)</span>}</Field>
+            <Field label="Source">{d.source ? <span className="font-mono">{d.source}</span> : <span className="text-muted">no source (undeclared)</span>}</Field>
           </dl>
         </Card>
         <Card title="Ownership">
@@ -144,29 +144,29 @@ export function ComponentPage({ env, componentKey }: { env: string; componentKey
         </Card>
       </div>
 
-      <Card title={d.snapshot ? `Measures (snapshot #${d.snapshot.number})` : "Measures"}>
+      <Card title={d.snapshot ? `Measures (snapshot #${d.snapshot.number}, pushed ${ageOf(d.snapshot.createdAt)})` : "Measures"}>
         {m ? (
           <ul className="grid gap-2 text-sm md:grid-cols-2" data-testid="measures">
             <li><span className="font-medium">Rank #{m.rank}</span> <span className="text-muted">by betweenness in this environment.</span></li>
-            <li><span className="font-medium">Betweenness {measure(m.betweenness)}</span> <span className="text-muted">— about {percent(m.betweenness)} of the shortest dependency paths between other components run through it.</span></li>
-            <li><span className="font-medium">Blast radius</span> <span className="text-muted">— if it fails alone, {plural(m.blastRadius.down, "component")} go down and {m.blastRadius.degraded} degrade.</span></li>
-            <li><span className="font-medium">Pinch score {m.pinchScore.toFixed(1)}</span> <span className="text-muted">of 100 — {MEASURE_HELP.pinchScore.short}</span></li>
+            <li><span className="font-medium">Betweenness {betweennessPct(m.betweenness)}</span> <span className="text-muted">— that share of the shortest dependency paths between other components run through it.</span></li>
+            <li><span className="font-medium">{MEASURE_HELP.blastDown.label}: {plural(m.blastRadius.down, "component")}</span> <span className="text-muted">— go down if it fails alone, itself not counted; {m.blastRadius.degraded} more degrade.</span></li>
+            <li><span className="font-medium">Pinch score {pinchScore(m.pinchScore)}</span> <span className="text-muted">of 100 — {MEASURE_HELP.pinchScore.short}</span></li>
             <li><span className="font-medium">PageRank {measure(m.pagerank)}</span> <span className="text-muted">— {MEASURE_HELP.pagerank.short}</span></li>
             <li><span className="font-medium">Eigenvector {measure(m.eigenvector)}</span> <span className="text-muted">— {MEASURE_HELP.eigenvector.short}</span></li>
             <li><span className="font-medium">Clustering {measure(m.clustering)}</span> <span className="text-muted">— {MEASURE_HELP.clustering.short}</span></li>
             <li>
-              <span className="font-medium">{m.articulation ? "A cut vertex" : "Not a cut vertex"}</span>{" "}
-              <span className="text-muted">— {m.articulation ? "removing it splits the graph in two or more parts." : "the graph stays in one piece without it."}</span>
+              <span className="font-medium">{m.articulation ? "Splits the graph" : "Does not split the graph"}</span>{" "}
+              <span className="text-muted">— {m.articulation ? "removing it leaves parts of the estate with no path to each other (an articulation point)." : "the graph stays in one piece without it."}</span>
             </li>
             <li>
-              <span className="font-medium">{m.inCycle ? "In a dependency cycle" : "Not in a cycle"}</span>{" "}
+              <span className="font-medium">{m.inCycle ? "In a cycle" : "Not in a cycle"}</span>{" "}
               <span className="text-muted">— {m.inCycle ? "it and others need each other, so none of them can cold-start alone." : "it can be started once its needs are up."}</span>
             </li>
           </ul>
         ) : (
           <p className="text-sm text-muted">No finished analysis includes this component yet.</p>
         )}
-        <p className="mt-3 text-xs text-faint">Measures come from the declared inventory only: a dependency nobody declared is not counted.</p>
+        <p className="mt-3 text-xs text-muted">Measures are only as good as the inventory: they come from declared dependencies only: a dependency nobody declared is not counted.</p>
       </Card>
 
       <div className="grid gap-4 lg:grid-cols-2">
@@ -194,8 +194,8 @@ function HistoryCard({ env, data }: { env: string; data: HistoryResponse }) {
             <li key={h.number} className="border-l-2 border-line pl-3">
               <p>
                 <Badge tone={h.change === "added" ? "ok" : h.change === "removed" ? "down" : "info"}>{h.change}</Badge>{" "}
-                {h.diff.componentsChanged.some((c) => c.changes.kind?.before === "undeclared") && <Badge tone="ok" title="Until this snapshot it was only a placeholder that something needed">now declared</Badge>}{" "}
-                {h.diff.componentsAdded.some((c) => c.kind === "undeclared") && <Badge tone="undeclared">as a placeholder</Badge>}{" "}
+                {h.diff.componentsChanged.some((c) => c.changes.kind?.before === "undeclared") && <Badge tone="ok" title="Until this snapshot it was undeclared: needed by something, declared by no source">now declared</Badge>}{" "}
+                {h.diff.componentsAdded.some((c) => c.kind === "undeclared") && <Badge tone="undeclared" title="needed by something, declared by no source">as undeclared</Badge>}{" "}
                 <Link href={`/environments/${env}/history?from=${h.number - 1}&to=${h.number}`} className="font-mono text-ink hover:underline">
                   snapshot #{h.number}
                 </Link>{" "}

@@ -18,7 +18,7 @@ import { fetchJson, type ApiError } from "@/lib/client/fetcher";
 import type { analysisMeta } from "@/lib/data/environment-analysis";
 import type { DrillResponse } from "@/lib/data/snapshot-graph";
 import { MiniMap } from "./MiniMap";
-import { incidentSummary } from "./summary";
+import { incidentSummary, unownedFirst } from "./summary";
 
 type DrillResult = DrillResponse & ReturnType<typeof analysisMeta>;
 
@@ -65,7 +65,7 @@ export function Drills({ env }: { env: string }) {
       <Link href={`/environments/${env}/components/${encodeURIComponent(k)}`} className="font-mono text-ink hover:underline">
         {k}
       </Link>
-      {undeclared.has(k) && <Badge tone="undeclared" title="Needed by something, declared by no source: its own needs are unknown">placeholder</Badge>}
+      {undeclared.has(k) && <Badge tone="undeclared" title="needed by something, declared by no source">undeclared</Badge>}
       {result?.failed.components.includes(k) && <Badge tone="down">failed</Badge>}
       {byKey.get(k) && <span className="text-xs text-faint">tier {byKey.get(k)!.tier}</span>}
     </li>
@@ -120,7 +120,7 @@ export function Drills({ env }: { env: string }) {
         <div className="space-y-4" aria-busy={drill.isValidating} data-testid="drill-result">
           <SnapshotMeta meta={result} what="drill" />
           <div className="grid grid-cols-2 gap-3 md:grid-cols-6">
-            <Stat label="Down" value={<span data-testid="down-count">{result.down.length}</span>} tone="down" hint="including what failed" />
+            <Stat label="Down (incl. what failed)" value={<span data-testid="down-count">{result.down.length}</span>} tone="down" hint="hard needs unmet" />
             <Stat label="Degraded" value={result.degraded.length} tone="degraded" hint="soft needs unmet" />
             {(["1", "2", "3", "4"] as const).map((t) => (
               <Stat key={t} label={`Tier ${t} down`} value={result.byTier[t]} tone={t === "1" && result.byTier[t] > 0 ? "down" : "ink"} />
@@ -151,13 +151,13 @@ export function Drills({ env }: { env: string }) {
 
           <section aria-labelledby="teams-heading" className="space-y-3">
             <h2 id="teams-heading" className="text-lg font-semibold">
-              Who to page <span className="text-sm font-normal text-muted">({result.teams.length} teams, most affected first)</span>
+              Who to page <span className="text-sm font-normal text-muted">({result.teams.length} teams, unowned first, then most affected)</span>
             </h2>
             <div className="grid gap-3 lg:grid-cols-2">
-              {result.teams.map((t) => (
+              {unownedFirst(result.teams).map((t) => (
                 <section key={t.team ?? "(none)"} className="rounded-lg border border-line bg-surface p-4" data-testid="drill-team">
                   <header className="flex flex-wrap items-baseline justify-between gap-2">
-                    <h3 className="font-semibold">{t.team ? (t.contact?.name ?? t.team) : <span className="text-degraded">No owning team</span>}</h3>
+                    <h3 className="font-semibold">{t.team ? (t.contact?.name ?? t.team) : <span className="text-degraded">Unowned — nobody is paged</span>}</h3>
                     <span className="text-sm text-muted">
                       <span className="text-down">{t.down.length} down</span> · <span className="text-degraded">{t.degraded.length} degraded</span>
                     </span>

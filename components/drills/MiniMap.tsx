@@ -84,7 +84,7 @@ export function MiniMap({ env, failed, down, degraded, edges, undeclared }: { en
               return (
                 <Link key={k} href={`/environments/${env}/components/${encodeURIComponent(k)}`}>
                   <g transform={`translate(${p.x},${p.y})`}>
-                    <title>{`${k}${undeclared.has(k) ? " (undeclared placeholder)" : ""}`}</title>
+                    <title>{`${k}${undeclared.has(k) ? " (undeclared: needed by something, declared by no source)" : ""}`}</title>
                     <rect width={BOX_W} height={17} rx={isFailed ? 0 : 4} fill={isFailed ? tone : "var(--color-raised)"} fillOpacity={isFailed ? 0.85 : 1} stroke={undeclared.has(k) ? "var(--color-undeclared)" : tone} strokeDasharray={undeclared.has(k) ? "3 2" : undefined} />
                     <text x={6} y={12} className={`font-mono ${isFailed ? "fill-[var(--color-on-brass)]" : "fill-[var(--color-ink)]"}`}>
                       {k.length > 22 ? `${k.slice(0, 21)}…` : k}

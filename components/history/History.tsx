@@ -48,7 +48,7 @@ export function History({ env }: { env: string }) {
       )}
       {snapshots.data && items.length === 0 && <Notice title="No snapshot yet">Nothing has been pushed to this environment. The first push makes snapshot #1.</Notice>}
 
-      <Card title="Top pinch points over time">
+      <Card title="Top 8 by betweenness: rank over time">
         {trend.data ? (
           trend.data.snapshots.length > 1 ? (
             <RankChart trend={trend.data} />
@@ -95,7 +95,7 @@ export function History({ env }: { env: string }) {
                     </td>
                     <td className="px-1.5 py-1 text-right font-mono tabular-nums">
                       {s.components}
-                      {s.undeclared > 0 && <span className="text-xs text-faint"> ({s.undeclared} undecl.)</span>}
+                      {s.undeclared > 0 && <span className="text-xs text-muted" title="needed by something, declared by no source"> ({s.undeclared} undeclared)</span>}
                     </td>
                     <td className="px-1.5 py-1 text-right font-mono tabular-nums">{s.dependencies}</td>
                     <td className="px-1.5 py-1">
@@ -148,7 +148,7 @@ function DiffView({ env, diff }: { env: string; diff: DiffResponse }) {
         <ul className="max-h-48 space-y-0.5 overflow-auto">
           {diff.componentsAdded.map((c) => (
             <li key={c.key}>
-              + {link(c.key)} <span className="text-xs text-muted">{c.kind === "undeclared" ? "placeholder" : `${c.kind}, ${c.team ?? "unowned"}, tier ${c.tier}`}</span>
+              + {link(c.key)} <span className="text-xs text-muted">{c.kind === "undeclared" ? "undeclared" : `${c.kind}, ${c.team ?? "unowned"}, tier ${c.tier}`}</span>
             </li>
           ))}
         </ul>

@@ -18,7 +18,7 @@ export function RankChart({ trend }: { trend: RankTrend }) {
   });
   const worst = Math.max(1, ...trend.series.flatMap((s) => s.points.map((p) => p.rank ?? 0)));
   return (
-    <figure aria-label={`Rank of the current top ${trend.series.length} components over snapshots #${trend.snapshots[0] ?? "?"} to #${trend.snapshots.at(-1) ?? "?"}`} data-testid="rank-chart">
+    <figure aria-label={`Rank by betweenness of the current top ${trend.series.length} components over snapshots #${trend.snapshots[0] ?? "?"} to #${trend.snapshots.at(-1) ?? "?"}`} data-testid="rank-chart">
       <div className="h-72 w-full">
         <ResponsiveContainer width="100%" height="100%">
           <LineChart data={data} margin={{ top: 14, right: 16, bottom: 8, left: 0 }}>
@@ -37,7 +37,7 @@ export function RankChart({ trend }: { trend: RankTrend }) {
           </LineChart>
         </ResponsiveContainer>
       </div>
-      <figcaption className="mt-1 text-xs text-muted">Lines start where a component first appears in an analysed snapshot; rank 1 (top) is the component most shortest paths run through; the rank axis is logarithmic.</figcaption>
+      <figcaption className="mt-1 text-xs text-muted">Rank by betweenness: rank 1 (top) is the component most shortest paths run through. Lines start where a component first appears in an analysed snapshot; the rank axis is logarithmic.</figcaption>
     </figure>
   );
 }

@@ -116,8 +116,8 @@ export function DiffPreview({ diff }: { diff: DiffSummary }) {
                   <span className="text-ok">+ </span>
                   {comp.key}
                 </td>
-                <td className={`${td} ${comp.kind === "undeclared" ? "text-undeclared" : ""}`}>{comp.kind === "undeclared" ? "placeholder (undeclared)" : comp.kind}</td>
-                <td className={td}>{comp.team ?? (comp.kind === "undeclared" ? <span className="text-faint">—</span> : <span className="text-degraded">no owner</span>)}</td>
+                <td className={`${td} ${comp.kind === "undeclared" ? "text-undeclared" : ""}`}>{comp.kind === "undeclared" ? <span title="needed by something, declared by no source">undeclared</span> : comp.kind}</td>
+                <td className={td}>{comp.team ?? (comp.kind === "undeclared" ? <span className="text-faint">—</span> : <span className="text-degraded">unowned</span>)}</td>
                 <td className={`${td} font-mono`}>{comp.tier}</td>
                 <td className={`${td} font-mono text-xs text-muted`}>{comp.source ?? "—"}</td>
               </tr>

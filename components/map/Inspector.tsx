@@ -4,6 +4,7 @@
 import { useId, useState, type FormEvent, type ReactNode } from "react";
 import { z } from "zod";
 import { SLUG_PATTERN } from "@/lib/inventory/types";
+import { betweennessPct, measure, pinchScore } from "@/components/ui/format";
 import { KIND_LABEL } from "./shapes";
 import type { MapGraph, MapMetrics, MapNode } from "./types";
 
@@ -24,18 +25,18 @@ export const MEASURE_ROWS: MeasureRow[] = [
     id: "betweenness",
     label: "Betweenness",
     meaning: "Share of the shortest dependency paths between other components that pass through it.",
-    format: (m) => `${(m.betweenness * 100).toFixed(2)}%`,
+    format: (m) => betweennessPct(m.betweenness),
   },
   {
     id: "pinchScore",
     label: "Pinch score",
     meaning: "0–100: paths through it, what its failure takes down (weighted by tier), and whether it runs single.",
-    format: (m) => Math.round(m.pinchScore).toString(),
+    format: (m) => pinchScore(m.pinchScore),
   },
   {
     id: "blastDown",
-    label: "Down with it",
-    meaning: "Components that go down when it fails, through hard needs.",
+    label: "Takes down",
+    meaning: "Components that go down when it alone fails, through hard needs (itself not counted).",
     format: (m) => m.blastDown.toString(),
   },
   {
@@ -48,19 +49,19 @@ export const MEASURE_ROWS: MeasureRow[] = [
     id: "pagerank",
     label: "PageRank",
     meaning: "How much of the estate leans on it, directly or through the things that lean on it.",
-    format: (m) => m.pagerank.toFixed(4),
+    format: (m) => measure(m.pagerank),
   },
   {
     id: "eigenvector",
     label: "Eigenvector",
     meaning: "High when its neighbours are themselves well connected: it sits in the dense core.",
-    format: (m) => m.eigenvector.toFixed(3),
+    format: (m) => measure(m.eigenvector),
   },
   {
     id: "clustering",
     label: "Clustering",
     meaning: "How often its neighbours also connect to each other; low means it is their only link.",
-    format: (m) => m.clustering.toFixed(3),
+    format: (m) => measure(m.clustering),
   },
   {
     id: "articulation",

@@ -24,7 +24,7 @@ import { arrowDir, nextSelection } from "./keyboard";
 import { toFlow, type Box, type MapFlowEdge, type MapFlowNode } from "./layout";
 import { PHASE_LABEL } from "./layout-protocol";
 import { edgeTypes, nodeTypes, DecorContext, type Decor } from "./nodes";
-import { KIND_LABEL, shapePaths } from "./shapes";
+import { KIND_LABEL, NODE_H, NODE_W, shapePaths } from "./shapes";
 import { COLOUR_MODES, type ColourMode, type MapGraph, type PinnedPositions, type Position } from "./types";
 import { useElkLayout } from "./useElkLayout";
 import {
@@ -91,6 +91,7 @@ function readExportTheme(): ExportTheme {
     ink: v("--pp-ink", d.ink),
     muted: v("--pp-muted", d.muted),
     brass: v("--pp-brass", d.brass),
+    info: v("--pp-info", d.info),
     cycle: d.cycle,
     undeclared: d.undeclared,
   };
@@ -618,11 +619,13 @@ function MapCanvasInner(props: MapCanvasProps) {
             >
               <Background variant={BackgroundVariant.Dots} gap={24} size={1} color="var(--pp-line)" />
               <Controls showInteractive={false} aria-label="Zoom and fit" position="bottom-right" />
+              {/* bottom-left, away from where the layout starts drawing; hidden while the inspector narrows the canvas */}
+              {inspected ? null : (
               <MiniMap<MapFlowNode>
                 ariaLabel="Overview of the whole map"
                 pannable
                 zoomable
-                position="top-right"
+                position="bottom-left"
                 nodeColor={(n) => {
                   if (n.type === "component") {
                     const p = paintNode(n.data.item.node, palette);
@@ -633,12 +636,13 @@ function MapCanvasInner(props: MapCanvasProps) {
                 }}
                 nodeStrokeColor={(n) => (n.type === "teamGroup" ? "#6c7f8d" : "transparent")}
               />
-              <Panel position="bottom-left">
+              )}
+              <Panel position="top-left">
                 <LegendPanel legend={legend} />
               </Panel>
               {layout.status !== "done" ? (
                 <Panel position="top-center">
-                  <LayoutStatus state={layout} count={view.items.length} />
+                  <LayoutStatus state={layout} count={view.items.length} onClearFilters={filters === NO_FILTERS ? undefined : () => setFilters(NO_FILTERS)} />
                 </Panel>
               ) : null}
             </ReactFlow>
@@ -669,7 +673,7 @@ function MapCanvasInner(props: MapCanvasProps) {
   );
 }
 
-function LayoutStatus(props: { state: ReturnType<typeof useElkLayout>; count: number }) {
+function LayoutStatus(props: { state: ReturnType<typeof useElkLayout>; count: number; onClearFilters?: () => void }) {
   const s = props.state;
   return (
     <div className="pp-progress" role="status" aria-live="polite">
@@ -698,7 +702,14 @@ function LayoutStatus(props: { state: ReturnType<typeof useElkLayout>; count: nu
           </button>
         </>
       ) : (
-        <span>Nothing to show.</span>
+        <>
+          <span>Nothing to show{props.onClearFilters ? ": the filters hide every component." : "."}</span>
+          {props.onClearFilters ? (
+            <button type="button" className="pp-btn" onClick={props.onClearFilters}>
+              Clear filters
+            </button>
+          ) : null}
+        </>
       )}
     </div>
   );
@@ -708,7 +719,7 @@ const LEGEND_KINDS: readonly ComponentKind[] = ALL_KINDS;
 
 function LegendPanel({ legend }: { legend: Legend }) {
   return (
-    <details className="pp-legend" open>
+    <details className="pp-legend">
       <summary aria-label="Legend">Legend · {legend.title}</summary>
       {legend.kind === "ramp" ? (
         <div className="mt-1">
@@ -733,13 +744,14 @@ function LegendPanel({ legend }: { legend: Legend }) {
       )}
       <ul className="mt-2 grid grid-cols-2 gap-x-3 gap-y-0.5" aria-label="Shapes by kind">
         {LEGEND_KINDS.map((k) => {
-          const p = shapePaths(k, 28, 14);
+          // Drawn at node size and scaled down by the viewBox: the fixed-pixel corners and rims of
+          // the node shapes would swamp a 28-pixel box and make cache, service and datastore alike.
+          const p = shapePaths(k, NODE_W, NODE_H);
           return (
             <li key={k} className="flex items-center gap-1.5 text-[11px]">
-              <svg width={30} height={16} aria-hidden="true" overflow="visible">
-                <g transform="translate(1,1)">
-                  <path d={p.outline} className={k === "undeclared" ? "pp-legend-shape pp-outline-dashed" : "pp-legend-shape"} />
-                </g>
+              <svg width={48} height={Math.round((48 * NODE_H) / NODE_W)} viewBox={`-2 -2 ${NODE_W + 4} ${NODE_H + 4}`} aria-hidden="true" overflow="visible">
+                <path d={p.outline} vectorEffect="non-scaling-stroke" className={k === "undeclared" ? "pp-legend-shape pp-outline-dashed" : "pp-legend-shape"} />
+                {p.detail ? <path d={p.detail} fill="none" vectorEffect="non-scaling-stroke" className="pp-legend-edge" /> : null}
               </svg>
               {KIND_LABEL[k]}
             </li>
@@ -757,7 +769,7 @@ function LegendPanel({ legend }: { legend: Legend }) {
           <svg width={30} height={8} aria-hidden="true"><line x1={0} y1={4} x2={30} y2={4} className="pp-legend-edge pp-legend-cycle" /></svg>in a cycle (↻)
         </li>
         <li className="flex items-center gap-1.5">
-          <span className="pp-badge pp-badge-inline">splits</span>removing it splits the graph
+          <span className="pp-badge pp-badge-inline">splits the graph</span>removing it disconnects parts of the estate
         </li>
       </ul>
     </details>

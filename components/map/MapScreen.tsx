@@ -5,6 +5,7 @@ import { usePathname, useRouter, useSearchParams } from "next/navigation";
 import { useCallback, useMemo } from "react";
 import useSWR from "swr";
 import { fetchJson, type ApiError } from "@/lib/client/fetcher";
+import { ageOf, dateTime } from "@/components/ui/format";
 import { ReviewBadge } from "@/components/reviews/ReviewBadge";
 import { useReviews } from "@/components/reviews/useReviews";
 import { Inspector, inspectorLinks, type InspectorSave } from "./Inspector";
@@ -88,8 +89,9 @@ export function MapScreen({ env, focus, canEdit }: { env: string; focus: string 
   const data = graph.data;
   return (
     <div className="flex h-[calc(100vh-7.5rem)] min-h-[520px] flex-col gap-2">
-      <p className="text-xs text-faint">
-        {data.snapshot ? `Snapshot #${data.snapshot.number}. ` : ""}The map shows what the inventory declares, nothing more; undeclared placeholders are drawn dashed.
+      <p className="text-xs text-muted" data-testid="map-caution">
+        {data.snapshot ? `Snapshot #${data.snapshot.number}, pushed ${ageOf(data.snapshot.createdAt)} (${dateTime(data.snapshot.createdAt)}). ` : "No snapshot yet. "}
+        The map is only as good as the inventory: it shows what was declared, nothing more; undeclared components (needed by something, declared by no source) are drawn dashed.
       </p>
       <div className="min-h-0 flex-1 overflow-hidden rounded-lg border border-line">
         <MapCanvas

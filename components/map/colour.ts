@@ -24,7 +24,7 @@ export type MeasureMode = Exclude<ColourMode, "tier" | "team">;
 export const MODE_LABELS: Record<ColourMode, string> = {
   betweenness: "Betweenness",
   pinchScore: "Pinch score",
-  blastDown: "Blast radius (down)",
+  blastDown: "Takes down",
   tier: "Tier",
   team: "Team",
 };

@@ -14,6 +14,8 @@ export interface ExportTheme {
   ink: string;
   muted: string;
   brass: string;
+  /** sky blue: the "splits the graph" badge, the same tone as on screen */
+  info: string;
   cycle: string;
   undeclared: string;
 }
@@ -25,6 +27,7 @@ export const DEFAULT_EXPORT_THEME: ExportTheme = {
   ink: "#e7edf1",
   muted: "#9fb0bd",
   brass: "#d9a441",
+  info: "#56b4e9",
   cycle: "#cc79a7",
   undeclared: "#999999",
 };
@@ -122,7 +125,7 @@ export function renderSvg(args: {
     );
     if (n.articulation) {
       out.push(
-        `<g transform="translate(${b.width - 44},-9)"><rect width="48" height="16" rx="8" fill="${theme.brass}"/><text x="24" y="12" text-anchor="middle" font-size="10" font-weight="700" fill="#1b1406">splits</text></g>`,
+        `<g transform="translate(${b.width - 44},-9)"><rect width="48" height="16" rx="8" fill="${theme.info}"/><text x="24" y="12" text-anchor="middle" font-size="10" font-weight="700" fill="#0e1419">splits</text></g>`,
       );
     }
     out.push(`</g>`);

@@ -62,8 +62,8 @@ export const ComponentNode = memo(function ComponentNode(props: NodeProps<Compon
         <span className="pp-node-kind">{sub}</span>
       </div>
       {node.metrics?.articulation ? (
-        <span className="pp-badge" title="Splits the graph: removing it disconnects parts of the estate">
-          splits
+        <span className="pp-badge" title="Removing it disconnects parts of the estate (an articulation point)">
+          splits the graph
         </span>
       ) : null}
       {props.data.pinned ? (

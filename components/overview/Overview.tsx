@@ -7,7 +7,7 @@ import useSWR from "swr";
 import { Badge } from "@/components/ui/Badge";
 import { Card, Stat } from "@/components/ui/Card";
 import { fetchJson, type ApiError } from "@/lib/client/fetcher";
-import { ageOf } from "@/components/ui/format";
+import { ageOf, betweennessPct, percent, pinchScore } from "@/components/ui/format";
 import type { EnvironmentCounts } from "@/lib/data/components";
 import type { EnvironmentSummary } from "@/lib/data/environments";
 import type { RankingItem, RankingsResponse } from "@/components/rankings/api-types";
@@ -28,12 +28,15 @@ interface ImportsResponse {
 }
 
 
-const pct = (v: number) => `${(v * 100).toFixed(v < 0.01 ? 2 : 1)}%`;
-
-function TopList({ env, title, items, value }: { env: string; title: string; items: RankingItem[] | undefined; value: (i: RankingItem) => string }) {
+function TopList({ env, title, items, error, value }: { env: string; title: string; items: RankingItem[] | undefined; error: ApiError | undefined; value: (i: RankingItem) => string }) {
   return (
     <Card title={title} action={<Link className="text-xs text-brass hover:underline" href={`/environments/${env}/pinch-points`}>All pinch points</Link>}>
-      {!items ? (
+      {error && !items ? (
+        <p role="alert" className="text-sm text-down">
+          {error.status === 404 ? "No ranking yet: " : "Could not load the ranking: "}
+          {error.message}
+        </p>
+      ) : !items ? (
         <p className="text-sm text-muted">Waiting for the first analysis…</p>
       ) : (
         <ol className="space-y-1.5">
@@ -43,8 +46,8 @@ function TopList({ env, title, items, value }: { env: string; title: string; ite
               <Link href={`/environments/${env}/components/${i.key}`} className="font-mono text-ink hover:text-brass">
                 {i.key}
               </Link>
-              {i.articulation && <Badge tone="info" title="Removing it splits the graph">splits</Badge>}
-              {i.inCycle && <Badge tone="cycle">cycle</Badge>}
+              {i.articulation && <Badge tone="info" title="Removing it splits the graph into disconnected parts">splits the graph</Badge>}
+              {i.inCycle && <Badge tone="cycle">in a cycle</Badge>}
               <span className="ml-auto font-mono tabular-nums text-muted">{value(i)}</span>
               <Link href={`/environments/${env}/drills?fail=${i.key}`} className="text-xs text-faint hover:text-brass" aria-label={`Blast radius of ${i.key}`}>
                 blast radius
@@ -70,11 +73,25 @@ export function Overview({ env }: { env: string }) {
   const ranked = byPinch.data;
 
   if (components.error?.status === 404) {
+    const known = environments.data?.items ?? [];
     return (
-      <Card title="No such environment">
+      <Card title={`No environment called “${env}”`}>
         <p className="text-muted">
-          Nothing has been pushed to <span className="font-mono text-ink">{env}</span> yet. An admin creates it with its first push.
+          Nothing has been pushed to <span className="font-mono text-ink">{env}</span>. Check the spelling; an admin creates a new environment with its first push.
         </p>
+        {known.length > 0 && (
+          <p className="mt-2 text-sm text-muted">
+            Environments that exist:{" "}
+            {known.map((e, n) => (
+              <span key={e.slug}>
+                {n > 0 && ", "}
+                <Link href={`/environments/${e.slug}`} className="font-mono text-brass hover:underline">
+                  {e.slug}
+                </Link>
+              </span>
+            ))}
+          </p>
+        )}
       </Card>
     );
   }
@@ -116,8 +133,8 @@ export function Overview({ env }: { env: string }) {
         <Stat label="Cycles" value={boot.data ? cycles.length : "—"} tone={cycles.length ? "down" : "ink"} hint="cannot cold-start unaided" />
       </div>
       <div className="grid gap-4 lg:grid-cols-2">
-        <TopList env={env} title="Highest pinch score" items={ranked?.items} value={(i) => i.pinchScore.toFixed(1)} />
-        <TopList env={env} title="Most paths through it (betweenness)" items={byBetweenness.data?.items} value={(i) => pct(i.betweenness)} />
+        <TopList env={env} title="Top 5 by pinch score" items={ranked?.items} error={byPinch.error} value={(i) => pinchScore(i.pinchScore)} />
+        <TopList env={env} title="Top 5 by betweenness (most paths through it)" items={byBetweenness.data?.items} error={byBetweenness.error} value={(i) => betweennessPct(i.betweenness)} />
       </div>
       {cycles.length > 0 && (
         <Card title="Dependency cycles">
@@ -131,9 +148,9 @@ export function Overview({ env }: { env: string }) {
           <p className="mt-2 text-xs text-muted">Each member waits on another: after a full outage none of them can start without manual help.</p>
         </Card>
       )}
-      <p className="text-xs text-faint">
+      <p className="text-xs text-muted">
         Pinchpoint knows only what the inventory declares: rankings and drills are as good as the files pushed to it
-        {ranked ? `, and ${pct(ranked.snapshot.undeclaredShare)} of these components are undeclared placeholders` : ""}. A drill is not a guarantee;
+        {ranked ? `, and ${percent(ranked.snapshot.undeclaredShare)} of these components are undeclared (needed by something, declared by no source)` : ""}. A drill is not a guarantee;
         changes to production follow your own change and incident processes.
       </p>
     </div>

@@ -12,7 +12,7 @@ import { Badge } from "@/components/ui/Badge";
 import { Button } from "@/components/ui/Button";
 import { Card } from "@/components/ui/Card";
 import { SelectField, TextField } from "@/components/ui/LabelledField";
-import { measure } from "@/components/ui/format";
+import { betweennessPct, measure, pinchScore } from "@/components/ui/format";
 import { Notice } from "@/components/ui/Notice";
 import { useUrlState } from "@/components/ui/url-state";
 import { fetchJson, type ApiError } from "@/lib/client/fetcher";
@@ -85,7 +85,7 @@ export function PinchPoints({ env }: { env: string }) {
               </Link>
               <div className="mt-0.5 flex flex-wrap items-center gap-1">
                 {r.name !== r.key && <span className="mr-1 text-xs text-faint">{r.name}</span>}
-                {r.kind === "undeclared" && <Badge tone="undeclared" title="Needed by something, declared by no source">placeholder</Badge>}
+                {r.kind === "undeclared" && <Badge tone="undeclared" title="needed by something, declared by no source">undeclared</Badge>}
                 {r.single && <Badge tone="degraded" title={MEASURE_HELP.single.short}>single</Badge>}
                 <ReviewBadge review={r.review} compact />
                 <Link
@@ -103,15 +103,15 @@ export function PinchPoints({ env }: { env: string }) {
       col.accessor("team", { header: "Team", cell: (i) => <span className="whitespace-nowrap">{i.getValue() ?? <Badge tone="degraded">unowned</Badge>}</span> }),
       col.accessor("tier", { header: "Tier", meta: { className: num } }),
       col.accessor("kind", { header: "Kind", cell: (i) => <span className="text-muted">{i.getValue()}</span> }),
-      col.accessor("betweenness", { header: "Betweenness", cell: (i) => measure(i.getValue()), meta: { className: num, help: MEASURE_HELP.betweenness.short } }),
+      col.accessor("betweenness", { header: "Betweenness", cell: (i) => betweennessPct(i.getValue()), meta: { className: num, help: MEASURE_HELP.betweenness.short } }),
       col.accessor("pagerank", { header: "PageRank", cell: (i) => measure(i.getValue()), meta: { className: num, help: MEASURE_HELP.pagerank.short } }),
       col.accessor("eigenvector", { header: "Eigenvector", cell: (i) => measure(i.getValue()), meta: { className: num, help: MEASURE_HELP.eigenvector.short } }),
       col.accessor("clustering", { header: "Clustering", cell: (i) => measure(i.getValue()), meta: { className: num, help: MEASURE_HELP.clustering.short } }),
-      col.accessor((r) => r.blastRadius.down, { id: "blastDown", header: "Down", meta: { className: num, help: MEASURE_HELP.blastDown.short } }),
+      col.accessor((r) => r.blastRadius.down, { id: "blastDown", header: MEASURE_HELP.blastDown.label, meta: { className: num, help: MEASURE_HELP.blastDown.short } }),
       col.accessor((r) => r.blastRadius.degraded, { id: "blastDegraded", header: "Degraded", meta: { className: num, help: MEASURE_HELP.blastDegraded.short } }),
-      col.accessor("pinchScore", { header: "Pinch", cell: (i) => i.getValue().toFixed(1), meta: { className: num, help: MEASURE_HELP.pinchScore.short } }),
-      col.accessor("articulation", { header: "Cut", cell: (i) => (i.getValue() ? <Badge tone="down">cut vertex</Badge> : null), meta: { help: MEASURE_HELP.articulation.short } }),
-      col.accessor("inCycle", { header: "Cycle", cell: (i) => (i.getValue() ? <Badge tone="cycle">in cycle</Badge> : null), meta: { help: MEASURE_HELP.inCycle.short } }),
+      col.accessor("pinchScore", { header: MEASURE_HELP.pinchScore.label, cell: (i) => pinchScore(i.getValue()), meta: { className: num, help: MEASURE_HELP.pinchScore.short } }),
+      col.accessor("articulation", { header: MEASURE_HELP.articulation.label, cell: (i) => (i.getValue() ? <Badge tone="info">splits the graph</Badge> : null), meta: { help: MEASURE_HELP.articulation.short } }),
+      col.accessor("inCycle", { header: "Cycle", cell: (i) => (i.getValue() ? <Badge tone="cycle">in a cycle</Badge> : null), meta: { help: MEASURE_HELP.inCycle.short } }),
       col.display({ id: "trend", header: "Trend", cell: (i) => (i.row.original.trend ? <Sparkline points={i.row.original.trend} /> : <span className="text-xs text-faint">…</span>) }),
     ],
     [env],

@@ -32,7 +32,7 @@ export function SnapshotMeta({ meta, what = "rankings", counts = true }: { meta:
           Analysis of newer snapshot #{latest.number} {latest.status === "failed" ? "failed" : `${latest.status} (${Math.round(latest.progress * 100)}%)`}; these {what === "drill" ? "results" : "ranks"} are from #{snapshot.number}.
         </p>
       )}
-      <p className="text-xs text-faint" data-testid="caution">
+      <p className="text-xs text-muted" data-testid="caution">
         {what === "drill"
           ? "A drill follows the declared dependencies only: it is a rehearsal aid, not a guarantee of what an outage will do. Changes to production go through your own change and incident processes."
           : "Ranks are only as good as the inventory: a dependency nobody declared is invisible here. Changes to production go through your own change and incident processes."}

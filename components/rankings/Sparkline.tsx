@@ -13,8 +13,10 @@ export function Sparkline({ points, width = 64, height = 18 }: { points: Array<{
   const xy = known.map((p) => [(index.get(p.snapshot) ?? 0) * step, 2 + ((p.rank - best) / span) * (height - 4)] as const);
   const first = known[0]!.rank;
   const last = known[known.length - 1]!.rank;
-  const moved = first === last ? "steady" : last < first ? `up ${first - last}` : `down ${last - first}`;
-  const tone = last < first ? "var(--color-down)" : "var(--color-info)";
+  // Rank 1 is best, so a falling number is "better"; said in words, and drawn in a neutral ink
+  // so a move is never mistaken for the vermilion "down" state.
+  const moved = first === last ? "steady" : last < first ? `rank better by ${first - last}` : `rank worse by ${last - first}`;
+  const tone = "var(--pp-muted)";
   const end = xy[xy.length - 1]!;
   return (
     <svg width={width} height={height} role="img" aria-label={`Rank over ${known.length} snapshots: ${first} to ${last} (${moved})`} className="overflow-visible">

@@ -17,7 +17,7 @@ export const MEASURE_HELP = {
     short: "How many of its neighbours also connect to each other (0–1). Low with many neighbours: it is the only link between them.",
   },
   blastDown: {
-    label: "Down",
+    label: "Takes down",
     short: "Components that go down if it fails alone (hard needs, any-of groups honoured), itself not counted.",
   },
   blastDegraded: {
@@ -29,11 +29,11 @@ export const MEASURE_HELP = {
     short: "0–100 blend of betweenness, tier-weighted blast radius and single-instance risk; weights set per environment.",
   },
   articulation: {
-    label: "Cut vertex",
+    label: "Splits the graph",
     short: "Removing it splits the graph into disconnected parts (an articulation point).",
   },
   inCycle: {
-    label: "In cycle",
+    label: "In a cycle",
     short: "Part of a dependency cycle: these components cannot cold-start without each other.",
   },
   single: {

@@ -120,7 +120,7 @@ export function ReviewsScreen({ env, canWrite, canReadAudit, queueViewer }: { en
                     </td>
                     {canWrite && (
                       <td className="whitespace-nowrap py-2 text-right">
-                        <Button variant="ghost" onClick={() => setDraft({ key: r.key, status: r.status, rationale: r.rationale, reviewBy: r.reviewBy ?? "" })}>
+                        <Button variant="ghost" onClick={() => setDraft({ key: r.key, status: r.status, rationale: r.rationale, reviewBy: r.reviewBy ?? "" })} aria-label={`Change review of ${r.key}`}>
                           Change
                         </Button>
                         <Button variant="ghost" onClick={() => void clear(r.key)} aria-label={`Clear review of ${r.key}`}>

@@ -20,8 +20,9 @@ export function ThemeToggle() {
     setTheme(next);
   }
   return (
-    <button type="button" onClick={toggle} className="text-muted hover:text-ink" aria-label={`Switch to ${theme === "dark" ? "light" : "dark"} theme`}>
-      {theme === "dark" ? "Light" : "Dark"}
+    // The visible text names the action, not a bare "Light"/"Dark" that could read as the current state.
+    <button type="button" onClick={toggle} className="text-muted hover:text-ink" title={`Theme: ${theme}`}>
+      {`Switch to ${theme === "dark" ? "light" : "dark"} theme`}
     </button>
   );
 }

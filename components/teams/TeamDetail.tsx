@@ -129,10 +129,10 @@ function ComponentsTable({ items, empty }: { items: TeamComponent[]; empty: stri
             <th className="pb-1 pr-3 font-medium">Tier</th>
             <th className="pb-1 pr-3 text-right font-medium">Pinch score</th>
             <th className="pb-1 pr-3 text-right font-medium" title="place by pinch score in its environment">
-              By score
+              Rank by pinch score
             </th>
             <th className="pb-1 text-right font-medium" title="place by betweenness, the default ranking">
-              By betweenness
+              Rank by betweenness
             </th>
           </tr>
         </thead>
@@ -208,7 +208,7 @@ export function TeamDetail({ slug, canEdit, isAdmin }: { slug: string; canEdit: 
           <Members team={team} isAdmin={isAdmin} onChanged={() => void mutate()} />
         </div>
       </div>
-      <Card title={`Pinch points (${team.pinchPoints.length})`}>
+      <Card title={`Top 10 by pinch score (${team.pinchPoints.length} of this team's)`}>
         <p className="mb-3 text-xs text-muted">This team&apos;s components in their environment&apos;s top 10 by pinch score. Scores are only as good as the inventory pushed.</p>
         <ComponentsTable items={team.pinchPoints} empty="None of this team's components is in its environment's top 10." />
       </Card>

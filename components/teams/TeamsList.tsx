@@ -84,7 +84,7 @@ export function TeamsList({ isAdmin }: { isAdmin: boolean }) {
                 <th className="pb-2 pr-3 text-right font-medium">People</th>
                 <th className="pb-2 pr-3 text-right font-medium">Components</th>
                 <th className="pb-2 text-right font-medium" title="components in their environment's top 10 by pinch score">
-                  Pinch points
+                  In top 10 by pinch score
                 </th>
               </tr>
             </thead>
@@ -110,7 +110,7 @@ export function TeamsList({ isAdmin }: { isAdmin: boolean }) {
             </tbody>
           </table>
           <p className="mt-3 text-xs text-muted" data-testid="unowned-total">
-            {data.unownedCount} component{data.unownedCount === 1 ? "" : "s"} in all environments have no owner.
+            {data.unownedCount} component{data.unownedCount === 1 ? "" : "s"} in all environments are unowned.
           </p>
         </div>
       )}

@@ -89,7 +89,7 @@ export function UnownedQueue({ environment, viewer }: { environment?: string; vi
     <Card
       title={
         <span>
-          Nobody owns these{environment ? <span className="font-mono text-muted"> · {environment}</span> : " · every environment"}
+          Unowned{environment ? <span className="font-mono text-muted"> · {environment}</span> : " · every environment"}
         </span>
       }
       action={data && <span className="font-mono text-xs text-muted" data-testid="unowned-count">{items.length} left</span>}

@@ -14,7 +14,13 @@ export const ageOf = (iso: string): string => ageFromSeconds((Date.now() - Date.
 export const percent = (share: number, digits = 1): string => `${(share * 100).toFixed(digits)}%`;
 
 /** Measures in [0,1] shown with four decimals: enough to tell neighbours apart, short enough for a column. */
-export const measure = (v: number): string => (v === 0 ? "0" : v.toFixed(4));
+export const measure = (v: number): string => v.toFixed(4);
+
+/** Betweenness as a share of shortest paths, two decimals everywhere so "0.41%" and "0.00%" line up across screens. */
+export const betweennessPct = (v: number): string => `${(v * 100).toFixed(2)}%`;
+
+/** Pinch score (0–100) always with one decimal, the same on every screen. */
+export const pinchScore = (v: number): string => v.toFixed(1);
 
 export const plural = (n: number, one: string, many = `${one}s`): string => `${n} ${n === 1 ? one : many}`;
 

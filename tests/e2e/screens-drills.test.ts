@@ -41,10 +41,10 @@ describe("drills", () => {
       return res.json();
     })) as { down: string[]; teams: Array<{ team: string | null; contact: { email: string | null } | null }> };
     expect(await downCount(page)).toBe(expected.down.length);
-    // Who to page: one card per team, biggest first, with the team's e-mail.
+    // Who to page: one card per team, the unowned one first (nobody is paged for it), then biggest first.
     await expect.poll(() => page.getByTestId("drill-team").count()).toBe(expected.teams.length);
-    const firstTeam = expected.teams[0];
-    expect(await page.getByTestId("drill-team").first().textContent()).toContain(firstTeam?.contact?.email ?? "No owning team");
+    const firstTeam = expected.teams.find((t) => !t.team) ?? expected.teams[0];
+    expect(await page.getByTestId("drill-team").first().textContent()).toContain(firstTeam?.team ? (firstTeam.contact?.email ?? "") : "Unowned — nobody is paged");
     expect(await page.getByRole("link", { name: /@harbor-pantry\.example$/ }).count()).toBeGreaterThan(5);
     await expect.poll(() => page.getByTestId("drill-minimap").count(), { timeout: 15_000 }).toBe(1);
     // Snapshot age and undeclared share beside the result, and the caution that a drill is no guarantee.
@@ -58,9 +58,9 @@ describe("drills", () => {
     await expect.poll(() => page.getByText("Copied to the clipboard.").count()).toBe(1);
     const text = await page.evaluate(() => navigator.clipboard.readText());
     expect(text).toContain("if component dns-resolver fails");
-    expect(text).toMatch(/Down: \d{3,} \(tier 1: \d+/);
+    expect(text).toMatch(/Down \(incl\. what failed\): \d{3,} \(tier 1: \d+/);
     expect(text).toContain("not a guarantee");
-    expect(text).toMatch(/From snapshot #\d+/);
+    expect(text).toMatch(/From snapshot #\d+, pushed \d{4}-\d{2}-\d{2} \d{2}:\d{2} UTC; \d+\.\d% of its \d+ components are undeclared/);
     expect(text).toContain("/drills?fail=dns-resolver");
   });
 

@@ -34,8 +34,10 @@ export async function enqueueMail<T extends TemplateName>(input: EnqueueInput<T>
   const to = [...new Set(recipientsSchema.parse(input.to.map((a) => a.trim().toLowerCase())))];
   const mail = renderMail(input.template, input.data, { appUrl: appUrl() });
   const rows = await db().sequelize.query<{ id: string }>(
-    `INSERT INTO outbox_messages ("to", subject, text, html, template, dedupe_key)
-     VALUES (ARRAY[:to]::text[], :subject, :text, :html, :template, :dedupeKey)
+    // Due from now, truncated to milliseconds: delivery compares against a JavaScript Date (ms), and a
+    // microsecond-precise now() could otherwise stay "in the future" for the rest of that millisecond.
+    `INSERT INTO outbox_messages ("to", subject, text, html, template, dedupe_key, next_attempt_at)
+     VALUES (ARRAY[:to]::text[], :subject, :text, :html, :template, :dedupeKey, date_trunc('milliseconds', now()))
      ON CONFLICT (dedupe_key) DO NOTHING
      RETURNING id`,
     {

@@ -47,6 +47,6 @@ describe("map", () => {
     await screenshot(page, "map-focus-session-service");
     await page.locator('.react-flow__node[data-id="session-service"]').click();
     await screenshot(page, "map-focus-inspector");
-    await expect.poll(() => page.getByText("Takes down", { exact: true }).first().isVisible(), { timeout: 10_000 }).toBe(true);
+    await expect.poll(() => page.getByRole("complementary", { name: /^Inspector:/ }).getByText("Takes down", { exact: true }).isVisible(), { timeout: 10_000 }).toBe(true);
   });
 });

@@ -1,0 +1,51 @@
+// The CI example really works: examples/ci/push-inventory.sh, with an API token an admin made,
+// dry-runs a team's file against the served app (nothing changes: it is the seed's own file) and
+// turns a broken file into file:line:column messages with a failing exit status.
+import { spawnSync } from "node:child_process";
+import { mkdtempSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import path from "node:path";
+import type { Browser, Page } from "playwright-core";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { baseUrl, launch } from "./browser";
+import { signedInPage } from "./pages/signin";
+
+const root = path.resolve(__dirname, "../..");
+let browser: Browser;
+let page: Page;
+let token: string;
+
+beforeAll(async () => {
+  browser = await launch();
+  page = await signedInPage(browser, "admin");
+  const res = await page.request.post(`${baseUrl()}/api/v1/tokens`, { data: { name: "e2e-ci-example", scopes: ["inventory:write"], environment: "production", source: "checkout-repo" } });
+  expect(res.status()).toBe(201);
+  token = ((await res.json()) as { token: string }).token;
+});
+afterAll(async () => {
+  await browser?.close();
+});
+
+const run = (args: string[]) =>
+  spawnSync("sh", [path.join(root, "examples/ci/push-inventory.sh"), ...args], {
+    env: { PATH: process.env.PATH ?? "/usr/bin:/bin", PINCHPOINT_URL: baseUrl(), PINCHPOINT_TOKEN: token, PINCHPOINT_ENV: "production" },
+    encoding: "utf8",
+    timeout: 30_000,
+  });
+
+describe("examples/ci/push-inventory.sh", () => {
+  it("dry-runs the checkout team's file: accepted, nothing would change", () => {
+    const out = run(["--dry-run", path.join(root, "examples/harbor-pantry/checkout.yaml")]);
+    expect({ status: out.status, stderr: out.stderr }).toMatchObject({ status: 0 });
+    expect(out.stdout + out.stderr).toMatch(/changed\W+false/i);
+  });
+
+  it("reports a broken file as file:line:column messages and fails", () => {
+    const dir = mkdtempSync(path.join(tmpdir(), "pp-ci-"));
+    const file = path.join(dir, "broken.yaml");
+    writeFileSync(file, "pinchpoint: 1\nsource: checkout-repo\ncomponents:\n  - key: cart-service\n    kind: spaceship\n");
+    const out = run(["--dry-run", file]);
+    expect(out.status).toBe(1);
+    expect(out.stdout + out.stderr).toContain(`${file}:5:11`);
+  });
+});

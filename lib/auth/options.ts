@@ -6,7 +6,7 @@ import type { OAuthConfig } from "next-auth/providers/oauth";
 import { z } from "zod";
 import { isRole } from "./roles";
 import { SIGN_IN_ERRORS } from "./messages";
-import { clearFailedSignIns, isSignInBlocked, recordFailedSignIn } from "@/lib/data/sign-in-attempts";
+import { isSignInBlocked, reserveAttempt, signInSucceeded } from "@/lib/data/sign-in-attempts";
 import { normaliseEmail, verifyPassword } from "@/lib/data/users";
 import { userForOidcIdentity } from "@/lib/data/sso-users";
 
@@ -84,12 +84,11 @@ export const authOptions: NextAuthOptions = {
         const email = normaliseEmail(parsed.data.email);
         const who = { email, address: clientAddress(req?.headers) };
         if (await isSignInBlocked(who)) throw new Error(SIGN_IN_ERRORS.limited);
+        const { status, reservation } = await reserveAttempt(who);
+        if (status === "limited") throw new Error(SIGN_IN_ERRORS.limited);
         const user = await verifyPassword({ email, password: parsed.data.password });
-        if (!user) {
-          await recordFailedSignIn(who);
-          throw new Error(SIGN_IN_ERRORS.wrong);
-        }
-        await clearFailedSignIns({ email });
+        if (!user) throw new Error(SIGN_IN_ERRORS.wrong);
+        await signInSucceeded({ email, reservation });
         return { id: user.id, email: user.email, name: user.name, role: user.role };
       },
     }),

@@ -28,7 +28,7 @@ afterAll(async () => {
 
 const run = (args: string[]) =>
   spawnSync("sh", [path.join(root, "examples/ci/push-inventory.sh"), ...args], {
-    env: { PATH: process.env.PATH ?? "/usr/bin:/bin", PINCHPOINT_URL: baseUrl(), PINCHPOINT_TOKEN: token, PINCHPOINT_ENV: "production" },
+    env: { ...process.env, PINCHPOINT_URL: baseUrl(), PINCHPOINT_TOKEN: token, PINCHPOINT_ENV: "production", PINCHPOINT_MODE: "dry-run" },
     encoding: "utf8",
     timeout: 30_000,
   });

@@ -70,6 +70,14 @@ describe("sign-in", () => {
     await expect(attempt("engineer@harbor-pantry.example", DEMO_PASSWORD, "203.0.113.99")).rejects.toThrow(SIGN_IN_ERRORS.limited);
   });
 
+  it("lets no more than the limit of parallel guesses reach a password check", async () => {
+    const results = await Promise.allSettled(Array.from({ length: 12 }, (_, i) => attempt("lead@harbor-pantry.example", `guess-${i}`, `198.18.0.${i}`)));
+    const messages = results.map((r) => (r.status === "rejected" ? String((r.reason as Error).message) : "accepted"));
+    expect(messages.filter((m) => m === SIGN_IN_ERRORS.wrong).length).toBeLessThanOrEqual(SIGN_IN_LIMITS.account);
+    expect(messages.filter((m) => m === SIGN_IN_ERRORS.wrong || m === SIGN_IN_ERRORS.limited)).toHaveLength(12);
+    await expect(attempt("lead@harbor-pantry.example", DEMO_PASSWORD, "198.18.1.1")).rejects.toThrow(SIGN_IN_ERRORS.limited);
+  });
+
   it("limits failed attempts per address across accounts", async () => {
     for (let i = 0; i < SIGN_IN_LIMITS.address; i++) await attempt(`someone-${i}@harbor-pantry.example`, "wrong", "192.0.2.50").catch(() => undefined);
     await expect(attempt("architect@harbor-pantry.example", DEMO_PASSWORD, "192.0.2.50")).rejects.toThrow(SIGN_IN_ERRORS.limited);

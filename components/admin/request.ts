@@ -1,5 +1,7 @@
 // JSON requests from the admin screens, keeping the whole error body (issues included) so a form
 // can put each problem beside its field.
+import { dateTime } from "@/components/ui/format";
+
 export interface RequestProblem {
   status: number;
   error: string;
@@ -31,6 +33,5 @@ export async function sendJson<T>(url: string, method: string, body?: unknown): 
 
 export function formatWhen(iso: string | null): string {
   if (!iso) return "—";
-  const d = new Date(iso);
-  return d.toLocaleString(undefined, { year: "numeric", month: "short", day: "numeric", hour: "2-digit", minute: "2-digit" });
+  return dateTime(iso);
 }

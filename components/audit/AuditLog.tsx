@@ -2,6 +2,7 @@
 // The audit log: who did what, when, with before and after. Filters live in the URL so a view
 // of the log can be pasted into an incident channel.
 import { usePathname, useRouter } from "next/navigation";
+import { dateTime } from "@/components/ui/format";
 import { useState } from "react";
 import useSWR from "swr";
 import { Button } from "@/components/ui/Button";
@@ -24,8 +25,7 @@ function toQuery(filters: AuditFilters, offset: number): string {
   return q.toString();
 }
 
-const when = (iso: string) =>
-  new Date(iso).toLocaleString("en-GB", { year: "numeric", month: "short", day: "numeric", hour: "2-digit", minute: "2-digit", second: "2-digit", timeZone: "UTC" }) + " UTC";
+const when = (iso: string) => dateTime(iso, { seconds: true });
 
 export function AuditLog({ initial, initialOffset }: { initial: AuditFilters; initialOffset: number }) {
   const router = useRouter();

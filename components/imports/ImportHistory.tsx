@@ -1,6 +1,7 @@
 "use client";
 
 import Link from "next/link";
+import { dateTime } from "@/components/ui/format";
 import { useState } from "react";
 import useSWR from "swr";
 import { Button } from "@/components/ui/Button";
@@ -23,9 +24,7 @@ export const HISTORY_PAGE_SIZE = 20;
 
 export const historyKey = (env: string, offset: number) => `/api/v1/environments/${env}/imports?limit=${HISTORY_PAGE_SIZE}&offset=${offset}`;
 
-function when(iso: string) {
-  return new Date(iso).toLocaleString(undefined, { month: "short", day: "numeric", hour: "2-digit", minute: "2-digit", second: "2-digit" });
-}
+const when = (iso: string) => dateTime(iso, { seconds: true });
 
 function Counts({ s }: { s: NonNullable<ImportRow["summary"]> }) {
   const parts: [string, number | undefined, string][] = [

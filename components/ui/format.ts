@@ -24,9 +24,10 @@ export const pinchScore = (v: number): string => v.toFixed(1);
 
 export const plural = (n: number, one: string, many = `${one}s`): string => `${n} ${n === 1 ? one : many}`;
 
-export function dateTime(iso: string): string {
-  const d = new Date(iso);
-  return `${d.toISOString().slice(0, 10)} ${d.toISOString().slice(11, 16)} UTC`;
+/** Every time on every screen: UTC, to the minute (or second), so people in different zones quote the same string. */
+export function dateTime(iso: string | Date, { seconds = false }: { seconds?: boolean } = {}): string {
+  const s = (iso instanceof Date ? iso : new Date(iso)).toISOString();
+  return `${s.slice(0, 10)} ${s.slice(11, seconds ? 19 : 16)} UTC`;
 }
 
 /** Only http(s) and mailto links become clickable: an inventory file must not inject javascript: URLs. */

@@ -1,6 +1,7 @@
 // /admin/mail: what Pinchpoint has sent. In demo mode the local sink's messages can be read here;
 // elsewhere mail leaves for the configured SMTP server and only the outbox's state is shown.
 import Link from "next/link";
+import { dateTime } from "@/components/ui/format";
 import { Card, Stat } from "@/components/ui/Card";
 import { requirePagePermission } from "@/lib/auth/page";
 import { demoMode } from "@/lib/config";
@@ -21,7 +22,7 @@ function smtpServer(): string {
   }
 }
 
-const when = (d: Date | null) => (d ? d.toISOString().replace("T", " ").slice(0, 19) + " UTC" : "no date");
+const when = (d: Date | null) => (d ? dateTime(d, { seconds: true }) : "no date");
 
 export default async function AdminMailPage({ searchParams }: { searchParams: Promise<{ m?: string | string[]; view?: string | string[] }> }) {
   await requirePagePermission("admin");

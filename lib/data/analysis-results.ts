@@ -96,6 +96,20 @@ export async function getAnalysisView({ environmentId, withGraph = false }: { en
   };
 }
 
+/** The measure columns of component_metrics, as rows come back from SQL. */
+export interface MetricColumns {
+  betweenness: number;
+  pagerank: number;
+  eigenvector: number;
+  clustering: number;
+  blast_down: number;
+  blast_degraded: number;
+  pinch_score: number;
+  articulation: boolean;
+  in_cycle: boolean;
+}
+export const METRIC_COLUMNS = "betweenness, pagerank, eigenvector, clustering, blast_down, blast_degraded, pinch_score, articulation, in_cycle";
+
 export const RANKING_SORTS = {
   betweenness: "m.betweenness",
   pagerank: "m.pagerank",
@@ -166,24 +180,17 @@ export async function getRankings(query: RankingQuery): Promise<{ total: number;
   }
   const column = RANKING_SORTS[query.sort];
   const direction = query.order === "asc" ? "ASC" : "DESC";
-  const rows = await db().sequelize.query<{
-    key: string;
-    name: string;
-    kind: ComponentKind;
-    team: string | null;
-    tier: number;
-    rank: number;
-    betweenness: number;
-    pagerank: number;
-    eigenvector: number;
-    clustering: number;
-    blast_down: number;
-    blast_degraded: number;
-    pinch_score: number;
-    articulation: boolean;
-    in_cycle: boolean;
-    total: string;
-  }>(
+  const rows = await db().sequelize.query<
+    MetricColumns & {
+      key: string;
+      name: string;
+      kind: ComponentKind;
+      team: string | null;
+      tier: number;
+      rank: number;
+      total: string;
+    }
+  >(
     `SELECT m.key, m.name, m.kind, COALESCE(a.owner_team, m.team) AS team, m.tier, m.rank, m.betweenness, m.pagerank,
             m.eigenvector, m.clustering, m.blast_down, m.blast_degraded, m.pinch_score, m.articulation, m.in_cycle,
             count(*) OVER () AS total

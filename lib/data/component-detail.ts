@@ -3,6 +3,7 @@
 import { QueryTypes } from "sequelize";
 import { db } from "@/models";
 import type { ComponentKind, Strength, Tier } from "@/lib/inventory/types";
+import type { ComponentListItem } from "./components";
 import { notFound } from "@/lib/errors";
 
 export interface ComponentEdge {
@@ -14,19 +15,9 @@ export interface ComponentEdge {
   via: string | null;
 }
 
-export interface ComponentDetail {
-  key: string;
-  name: string;
-  kind: ComponentKind;
-  team: string | null;
-  declaredTeam: string | null;
-  tier: Tier;
-  replicas: number;
-  zones: string[];
-  tags: string[];
+/** A list item (effective owner, declared team, source, notes) plus everything else known. */
+export interface ComponentDetail extends ComponentListItem {
   links: Record<string, string>;
-  source: string | null;
-  notes: string | null;
   annotationUpdatedAt: string | null;
   needs: ComponentEdge[];
   dependents: ComponentEdge[];

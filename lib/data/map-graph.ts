@@ -3,7 +3,7 @@
 import { QueryTypes } from "sequelize";
 import { db } from "@/models";
 import type { MapGraph } from "@/components/map/types";
-import { getAnalysisView } from "./analysis-results";
+import { METRIC_COLUMNS, getAnalysisView, type MetricColumns } from "./analysis-results";
 import { listTeams } from "./teams";
 import { effectiveOwners, getSnapshotGraph } from "./snapshot-graph";
 
@@ -16,18 +16,7 @@ export async function getMapGraph({ environmentId, slug }: { environmentId: stri
     getSnapshotGraph({ snapshotId: snapshot.id }),
     effectiveOwners({ environmentId }),
     view.served
-      ? db().sequelize.query<{
-          key: string;
-          betweenness: number;
-          pagerank: number;
-          eigenvector: number;
-          clustering: number;
-          blast_down: number;
-          blast_degraded: number;
-          pinch_score: number;
-          articulation: boolean;
-          in_cycle: boolean;
-        }>("SELECT key, betweenness, pagerank, eigenvector, clustering, blast_down, blast_degraded, pinch_score, articulation, in_cycle FROM component_metrics WHERE snapshot_id = :id", {
+      ? db().sequelize.query<MetricColumns & { key: string }>(`SELECT key, ${METRIC_COLUMNS} FROM component_metrics WHERE snapshot_id = :id`, {
           type: QueryTypes.SELECT,
           replacements: { id: view.served.id },
         })

@@ -20,6 +20,7 @@ export const NAV: NavItem[] = [
   { label: "Components", href: (env) => envPath(env, "/components"), match: under("/components") },
   { label: "Imports", href: (env) => envPath(env, "/imports"), match: under("/imports") },
   { label: "History", href: (env) => envPath(env, "/history"), match: under("/history") },
+  { label: "Drift", href: (env) => envPath(env, "/drift"), match: under("/drift") },
   { label: "Reviews", href: (env) => envPath(env, "/reviews"), match: under("/reviews") },
   { label: "Teams", href: () => "/teams", match: (p) => p.startsWith("/teams") },
   // Architects reach the audit log here; admins everything else as well.

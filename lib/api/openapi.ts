@@ -40,6 +40,7 @@ export const OPERATIONS: Record<string, Partial<Record<Method, Operation>>> = {
   "/environments/{env}/rankings/export": { get: { summary: "The ranking as CSV", rule: "read" } },
   "/environments/{env}/rankings/history": { get: { summary: "Ranks of components over recent snapshots", rule: "read" } },
   "/environments/{env}/drills": { post: { summary: "Fail components and/or zones: down, degraded, teams to page", rule: "read", body: drillBodySchema } },
+  "/environments/{env}/drift": { get: { summary: "Traced calls against declared needs: seen but never declared, declared but never seen", rule: "read" } },
   "/environments/{env}/boot-order": { get: { summary: "Cold-start stages; cycles that cannot start unaided", rule: "read" } },
   "/environments/{env}/graph": { get: { summary: "Components, dependencies and measures for the map", rule: "read" } },
   "/environments/{env}/map/positions": {

@@ -19,6 +19,7 @@ const MATRIX: Record<string, Partial<Record<"GET" | "POST" | "PUT" | "PATCH" | "
   "environments/[env]/components/[key]/blast-radius": { GET: "read" },
   "environments/[env]/components/[key]/history": { GET: "read" },
   "environments/[env]/drills": { POST: "read" },
+  "environments/[env]/drift": { GET: "read" },
   "environments/[env]/graph": { GET: "read" },
   "environments/[env]/imports": { GET: "read" },
   "environments/[env]/inventory": { POST: "inventory:write" },

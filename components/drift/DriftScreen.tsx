@@ -143,7 +143,7 @@ function DeclaredNotSeenTable({ env, rows }: { env: string; rows: DeclaredNotSee
                 </span>
               </td>
               <td className={td}>
-                <Badge tone={r.strength === "hard" ? "degraded" : "muted"}>{r.strength}</Badge>
+                <Badge tone="muted">{r.strength}</Badge>
               </td>
               <td className={`${td} text-xs text-muted`}>
                 source <span className="font-mono text-ink">{r.source}</span>

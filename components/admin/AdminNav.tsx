@@ -8,6 +8,7 @@ import { roleHas, type Permission, type Role } from "@/lib/auth/roles";
 const ITEMS: { href: string; label: string; permission: Permission }[] = [
   { href: "/admin/users", label: "Users", permission: "admin" },
   { href: "/admin/tokens", label: "Tokens", permission: "admin" },
+  { href: "/admin/environments", label: "Environments", permission: "admin" },
   { href: "/admin/audit", label: "Audit log", permission: "reviews:write" },
   { href: "/admin/mail", label: "Mail", permission: "admin" },
 ];

@@ -10,6 +10,7 @@ import { componentsQuerySchema, pushQuerySchema } from "./schemas/inventory";
 import { positionsSchema } from "./schemas/map";
 import { reviewBodySchema, reviewsQuerySchema, auditQuerySchema } from "./schemas/reviews";
 import { addMemberSchema, createTeamSchema, updateTeamSchema } from "./schemas/teams";
+import { createEnvironmentSchema, deleteEnvironmentQuerySchema, renameEnvironmentSchema } from "./schemas/environments";
 import { createTokenSchema } from "./schemas/tokens";
 import { acceptInviteSchema, inviteUserSchema, updateUserSchema } from "./schemas/users";
 import { pinchWeightsSchema } from "@/lib/analysis/types";
@@ -25,7 +26,15 @@ interface Operation {
 
 /** Path (OpenAPI template) → method → operation. */
 export const OPERATIONS: Record<string, Partial<Record<Method, Operation>>> = {
-  "/environments": { get: { summary: "Environments with their latest snapshot and analysis status", rule: "read" } },
+  "/environments": {
+    get: { summary: "Environments with their latest snapshot and analysis status", rule: "read" },
+    post: { summary: "Create an empty environment (409 if the slug exists); audited", rule: "admin", body: createEnvironmentSchema },
+  },
+  "/environments/{env}": {
+    get: { summary: "One environment: counts, latest snapshot, analysis status", rule: "read" },
+    patch: { summary: "Rename an environment (the slug never changes); audited", rule: "admin", body: renameEnvironmentSchema },
+    delete: { summary: "Delete an environment and everything of it, bound tokens included; ?confirm=<slug> required; audited", rule: "admin", query: deleteEnvironmentQuerySchema },
+  },
   "/environments/{env}/inventory": {
     post: { summary: "Push an inventory (YAML, JSON, Compose, CSV or OTLP/JSON); dry_run=true writes nothing", rule: "inventory:write", query: pushQuerySchema, body: "inventory" },
   },

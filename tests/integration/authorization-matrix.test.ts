@@ -12,7 +12,8 @@ import { call, createApiToken, createUser, type TestUser } from "../support/api"
 
 const MATRIX: Record<string, Partial<Record<"GET" | "POST" | "PUT" | "PATCH" | "DELETE", RouteRule>>> = {
   "audit": { GET: "reviews:write" },
-  "environments": { GET: "read" },
+  "environments": { GET: "read", POST: "admin" },
+  "environments/[env]": { GET: "read", PATCH: "admin", DELETE: "admin" },
   "environments/[env]/boot-order": { GET: "read" },
   "environments/[env]/components": { GET: "read" },
   "environments/[env]/components/[key]": { GET: "read", PATCH: "components:annotate" },

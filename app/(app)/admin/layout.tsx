@@ -10,7 +10,7 @@ export default async function AdminLayout({ children }: { children: ReactNode })
     <div className="space-y-5">
       <div>
         <h1 className="text-2xl font-semibold tracking-tight">Admin</h1>
-        <p className="mt-1 text-sm text-muted">Who may sign in, what they may do, and which tokens CI jobs push with. Every change here is written to the audit log.</p>
+        <p className="mt-1 text-sm text-muted">Who may sign in, what they may do, which environments exist, and which tokens CI jobs push with. Every change here is written to the audit log.</p>
       </div>
       <AdminNav role={user.role} />
       {children}

@@ -1,7 +1,12 @@
 // GET /api/v1/environments — every environment with its latest snapshot and analysis status.
+// POST /api/v1/environments — create an empty environment `{ slug, name? }` (admin; 409 if the slug exists).
 import { NextResponse } from "next/server";
+import { readJson } from "@/lib/api/query";
+import { createEnvironmentSchema } from "@/lib/api/schemas/environments";
 import { withPermission } from "@/lib/auth/with-permission";
+import { createEnvironmentAsAdmin } from "@/lib/data/environment-admin";
 import { listEnvironments } from "@/lib/data/environments";
+import { parseOrThrow } from "@/lib/errors";
 
 export const GET = withPermission(
   "read",
@@ -13,3 +18,8 @@ export const GET = withPermission(
   },
   { acrossEnvironments: true },
 );
+
+export const POST = withPermission("admin", async ({ req, actor }) => {
+  const input = parseOrThrow(createEnvironmentSchema, await readJson(req), "body");
+  return NextResponse.json(await createEnvironmentAsAdmin({ input, actor }), { status: 201 });
+});

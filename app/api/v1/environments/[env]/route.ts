@@ -1,0 +1,28 @@
+// GET /api/v1/environments/{env} — one environment's summary (read).
+// PATCH — rename `{ name }` (admin). DELETE ?confirm=<slug> — delete it and everything of it (admin).
+import { NextResponse } from "next/server";
+import { parseParams, parseQuery, readJson } from "@/lib/api/query";
+import { envParamsSchema } from "@/lib/api/schemas/common";
+import { deleteEnvironmentQuerySchema, renameEnvironmentSchema } from "@/lib/api/schemas/environments";
+import { withPermission } from "@/lib/auth/with-permission";
+import { deleteEnvironmentAsAdmin, getEnvironmentSummaryOrThrow, renameEnvironmentAsAdmin } from "@/lib/data/environment-admin";
+import { parseOrThrow } from "@/lib/errors";
+
+type Params = { env: string };
+
+export const GET = withPermission<Params>("read", async ({ params }) => {
+  const { env } = parseParams(params, envParamsSchema);
+  return NextResponse.json(await getEnvironmentSummaryOrThrow({ slug: env }));
+});
+
+export const PATCH = withPermission<Params>("admin", async ({ req, params, actor }) => {
+  const { env } = parseParams(params, envParamsSchema);
+  const input = parseOrThrow(renameEnvironmentSchema, await readJson(req), "body");
+  return NextResponse.json(await renameEnvironmentAsAdmin({ slug: env, input, actor }));
+});
+
+export const DELETE = withPermission<Params>("admin", async ({ req, params, actor }) => {
+  const { env } = parseParams(params, envParamsSchema);
+  const { confirm } = parseQuery(req.url, deleteEnvironmentQuerySchema);
+  return NextResponse.json(await deleteEnvironmentAsAdmin({ slug: env, confirm, actor }));
+});

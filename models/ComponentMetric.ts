@@ -19,6 +19,7 @@ export class ComponentMetric extends Model<InferAttributes<ComponentMetric>, Inf
   declare blastDown: number;
   declare blastDegraded: number;
   declare pinchScore: number;
+  declare singlePoint: CreationOptional<boolean>;
   declare rank: number;
 
   static initModel(sequelize: Sequelize): typeof ComponentMetric {
@@ -40,6 +41,7 @@ export class ComponentMetric extends Model<InferAttributes<ComponentMetric>, Inf
         blastDown: { type: DataTypes.INTEGER, allowNull: false },
         blastDegraded: { type: DataTypes.INTEGER, allowNull: false },
         pinchScore: { type: DataTypes.DOUBLE, allowNull: false },
+        singlePoint: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
         rank: { type: DataTypes.INTEGER, allowNull: false },
       },
       { sequelize, tableName: "component_metrics", underscored: true, timestamps: false },

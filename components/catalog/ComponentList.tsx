@@ -4,7 +4,7 @@
 import Link from "next/link";
 import { useMemo } from "react";
 import useSWR from "swr";
-import { isSinglePoint, type ComponentsResponse } from "@/components/rankings/api-types";
+import type { ComponentsResponse } from "@/components/rankings/api-types";
 import { Badge } from "@/components/ui/Badge";
 import { Button } from "@/components/ui/Button";
 import { Stat } from "@/components/ui/Card";
@@ -93,7 +93,7 @@ export function ComponentList({ env }: { env: string }) {
                 <td className="px-2 py-1.5 text-right font-mono tabular-nums">{c.tier}</td>
                 <td className="px-2 py-1.5 text-right font-mono tabular-nums">{c.replicas}</td>
                 <td className="px-2 py-1.5 font-mono text-xs text-muted">
-                  {c.zones.join(", ") || "—"} {c.kind !== "undeclared" && isSinglePoint(c) && <Badge tone="degraded" title="One replica or fewer than two zones">single</Badge>}
+                  {c.zones.join(", ") || "—"} {c.kind !== "undeclared" && c.singlePoint && <Badge tone="degraded" title="One replica or fewer than two zones">single</Badge>}
                 </td>
                 <td className="px-2 py-1.5 font-mono text-xs text-muted">{c.source ?? "—"}</td>
                 <td className="px-2 py-1.5 text-right">

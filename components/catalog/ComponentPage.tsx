@@ -7,7 +7,6 @@ import useSWR from "swr";
 import { ReviewBadge } from "@/components/reviews/ReviewBadge";
 import { useReviews } from "@/components/reviews/useReviews";
 import { dependencyChangeLine, dependencyLine, fieldChanges } from "@/components/history/diff-lines";
-import { isSinglePoint } from "@/components/rankings/api-types";
 import { MEASURE_HELP } from "@/components/rankings/measures";
 import { Badge } from "@/components/ui/Badge";
 import { Card } from "@/components/ui/Card";
@@ -89,7 +88,7 @@ export function ComponentPage({ env, componentKey }: { env: string; componentKey
             {d.kind === "undeclared" && <Badge tone="undeclared" title="needed by something, declared by no source">undeclared</Badge>}
             {m?.articulation && <Badge tone="info" title={MEASURE_HELP.articulation.short}>splits the graph</Badge>}
             {m?.inCycle && <Badge tone="cycle" title={MEASURE_HELP.inCycle.short}>in a cycle</Badge>}
-            {d.kind !== "undeclared" && isSinglePoint(d) && <Badge tone="degraded">single</Badge>}
+            {d.kind !== "undeclared" && d.singlePoint && <Badge tone="degraded">single</Badge>}
             <ReviewBadge review={reviews.byKey[d.key]} />
           </h1>
           {d.name !== d.key && <p className="text-muted">{d.name}</p>}

@@ -17,7 +17,8 @@ import { Notice } from "@/components/ui/Notice";
 import { useUrlState } from "@/components/ui/url-state";
 import { fetchJson, type ApiError } from "@/lib/client/fetcher";
 import { COMPONENT_KINDS } from "@/lib/inventory/types";
-import { isSinglePoint, type ComponentsResponse, type RankingItem, type RankingsResponse, type RankTrendResponse } from "./api-types";
+import type { RankingItem, RankingsResponse, RankTrendResponse } from "./api-types";
+import type { TeamOverview } from "@/lib/data/team-admin";
 import { MEASURE_HELP } from "./measures";
 import { SnapshotMeta } from "./SnapshotMeta";
 import { Sparkline } from "./Sparkline";
@@ -29,7 +30,6 @@ const ASC_FIRST = new Set<Sort>(["key", "team", "kind", "tier", "rank"]);
 const isSort = (s: string | null): s is Sort => SORTS.includes(s as Sort);
 
 interface Row extends RankingItem {
-  single: boolean | null;
   trend: Array<{ snapshot: number; rank: number | null }> | undefined;
   review: ReviewSummary | null;
 }
@@ -53,22 +53,19 @@ export function PinchPoints({ env }: { env: string }) {
   query.set("offset", String((page - 1) * PAGE_SIZE));
 
   const rankings = useSWR<RankingsResponse, ApiError>(`/api/v1/environments/${env}/rankings?${query}`, fetchJson, { keepPreviousData: true, refreshInterval: 30_000 });
-  const components = useSWR<ComponentsResponse, ApiError>(`/api/v1/environments/${env}/components`, fetchJson);
+  // Team names for the filter; the rows themselves carry everything the table shows.
+  const teamList = useSWR<{ items: TeamOverview[] }, ApiError>("/api/v1/teams", fetchJson);
   const keys = rankings.data?.items.map((i) => i.key) ?? [];
   const trends = useSWR<RankTrendResponse, ApiError>(keys.length ? `/api/v1/environments/${env}/rankings/history?count=12&keys=${keys.join(",")}` : null, fetchJson, { keepPreviousData: true });
 
-  const byKey = useMemo(() => new Map(components.data?.items.map((c) => [c.key, c]) ?? []), [components.data]);
-  const teams = useMemo(() => [...new Set(components.data?.items.map((c) => c.team).filter((t): t is string => !!t) ?? [])].sort(), [components.data]);
+  const teams = useMemo(() => (teamList.data?.items ?? []).map((t) => ({ value: t.slug, label: t.name })), [teamList.data]);
   const reviews = useReviews(env);
   const trendByKey = useMemo(() => new Map(trends.data?.series.map((s) => [s.key, s.points]) ?? []), [trends.data]);
 
   const rows: Row[] = useMemo(
     () =>
-      (rankings.data?.items ?? []).map((item) => {
-        const c = byKey.get(item.key);
-        return { ...item, single: c ? isSinglePoint(c) : null, trend: trendByKey.get(item.key), review: reviews.byKey[item.key] ?? null };
-      }),
-    [rankings.data, byKey, trendByKey, reviews.byKey],
+      (rankings.data?.items ?? []).map((item) => ({ ...item, trend: trendByKey.get(item.key), review: reviews.byKey[item.key] ?? null })),
+    [rankings.data, trendByKey, reviews.byKey],
   );
 
   const columns = useMemo(
@@ -86,7 +83,7 @@ export function PinchPoints({ env }: { env: string }) {
               <div className="mt-0.5 flex flex-wrap items-center gap-1">
                 {r.name !== r.key && <span className="mr-1 text-xs text-faint">{r.name}</span>}
                 {r.kind === "undeclared" && <Badge tone="undeclared" title="needed by something, declared by no source">undeclared</Badge>}
-                {r.single && <Badge tone="degraded" title={MEASURE_HELP.single.short}>single</Badge>}
+                {r.singlePoint && r.kind !== "undeclared" && <Badge tone="degraded" title={MEASURE_HELP.single.short}>single</Badge>}
                 <ReviewBadge review={r.review} compact />
                 <Link
                   href={`/environments/${env}/drills?fail=${encodeURIComponent(r.key)}`}
@@ -157,7 +154,7 @@ export function PinchPoints({ env }: { env: string }) {
           onChange={(e) => url.set({ q: e.target.value.trim() || null, page: null })}
           className="w-56"
         />
-        <SelectField label="Team" value={filters.team} onChange={(e) => url.set({ team: e.target.value || null, page: null })} options={[{ value: "", label: "All teams" }, ...teams.map((t) => ({ value: t, label: t }))]} />
+        <SelectField label="Team" value={filters.team} onChange={(e) => url.set({ team: e.target.value || null, page: null })} options={[{ value: "", label: "All teams" }, ...teams]} />
         <SelectField label="Tier" value={filters.tier} onChange={(e) => url.set({ tier: e.target.value || null, page: null })} options={[{ value: "", label: "All tiers" }, ...[1, 2, 3, 4].map((t) => ({ value: String(t), label: `Tier ${t}` }))]} />
         <SelectField label="Kind" value={filters.kind} onChange={(e) => url.set({ kind: e.target.value || null, page: null })} options={[{ value: "", label: "All kinds" }, ...[...COMPONENT_KINDS, "undeclared"].map((k) => ({ value: k, label: k }))]} />
         {(filters.q || filters.team || filters.tier || filters.kind) && (

@@ -24,6 +24,3 @@ export interface ComponentsResponse {
 }
 
 export type { RankingItem, ComponentListItem };
-
-/** Common practice for a single point of failure: one replica, or everything in one zone. */
-export const isSinglePoint = (c: Pick<ComponentListItem, "replicas" | "zones">): boolean => c.replicas <= 1 || c.zones.length < 2;

@@ -114,6 +114,7 @@ export async function analyse(
       blastDown: blast.down[v]!,
       blastDegraded: blast.degraded[v]!,
       pinchScore: pinch.score[v]!,
+      singlePoint: pinch.s[v] === 1,
       bootStage: boot.stageOf[v]!,
       dominator: {
         reachedFrom: dom.reachedFrom[v]!,

@@ -77,6 +77,8 @@ export interface NodeMetrics {
   blastDown: number;
   blastDegraded: number;
   pinchScore: number;
+  /** S of the pinch score: one replica, or fewer than two distinct zones (common practice). */
+  singlePoint: boolean;
   /** Stage in the boot order (0 = needs nothing). */
   bootStage: number;
   dominator: DominatorInfo;

@@ -167,6 +167,7 @@ async function storeResult({
       blast_down: n.blastDown,
       blast_degraded: n.blastDegraded,
       pinch_score: n.pinchScore,
+      single_point: n.singlePoint,
       rank: i + 1,
     };
   });
@@ -180,12 +181,12 @@ async function storeResult({
     await sequelize.query("DELETE FROM component_metrics WHERE snapshot_id = $1", { bind: [snapshotId], transaction });
     await sequelize.query(
       `INSERT INTO component_metrics (snapshot_id, key, name, kind, team, tier, betweenness, pagerank, eigenvector, clustering,
-              articulation, in_cycle, blast_down, blast_degraded, pinch_score, rank)
+              articulation, in_cycle, blast_down, blast_degraded, pinch_score, single_point, rank)
        SELECT $1, t.key, t.name, t.kind, t.team, t.tier, t.betweenness, t.pagerank, t.eigenvector, t.clustering,
-              t.articulation, t.in_cycle, t.blast_down, t.blast_degraded, t.pinch_score, t.rank
+              t.articulation, t.in_cycle, t.blast_down, t.blast_degraded, t.pinch_score, t.single_point, t.rank
          FROM jsonb_to_recordset($2::jsonb) AS t(key text, name text, kind text, team text, tier smallint,
               betweenness float8, pagerank float8, eigenvector float8, clustering float8, articulation boolean,
-              in_cycle boolean, blast_down integer, blast_degraded integer, pinch_score float8, rank integer)`,
+              in_cycle boolean, blast_down integer, blast_degraded integer, pinch_score float8, single_point boolean, rank integer)`,
       { bind: [snapshotId, JSON.stringify(rows)], transaction },
     );
     const extra = new Map(result.nodes.map((n) => [n.key, { bootStage: n.bootStage, dominator: n.dominator }]));

@@ -107,8 +107,9 @@ export interface MetricColumns {
   pinch_score: number;
   articulation: boolean;
   in_cycle: boolean;
+  single_point: boolean;
 }
-export const METRIC_COLUMNS = "betweenness, pagerank, eigenvector, clustering, blast_down, blast_degraded, pinch_score, articulation, in_cycle";
+export const METRIC_COLUMNS = "betweenness, pagerank, eigenvector, clustering, blast_down, blast_degraded, pinch_score, articulation, in_cycle, single_point";
 
 export const RANKING_SORTS = {
   betweenness: "m.betweenness",
@@ -144,6 +145,8 @@ export interface RankingItem {
   pinchScore: number;
   articulation: boolean;
   inCycle: boolean;
+  /** one replica or fewer than two zones: the S of the pinch score, as the analysis saw it */
+  singlePoint: boolean;
 }
 
 export interface RankingQuery {
@@ -192,7 +195,7 @@ export async function getRankings(query: RankingQuery): Promise<{ total: number;
     }
   >(
     `SELECT m.key, m.name, m.kind, COALESCE(a.owner_team, m.team) AS team, m.tier, m.rank, m.betweenness, m.pagerank,
-            m.eigenvector, m.clustering, m.blast_down, m.blast_degraded, m.pinch_score, m.articulation, m.in_cycle,
+            m.eigenvector, m.clustering, m.blast_down, m.blast_degraded, m.pinch_score, m.articulation, m.in_cycle, m.single_point,
             count(*) OVER () AS total
        FROM component_metrics m
        LEFT JOIN component_annotations a ON a.environment_id = :environmentId AND a.key = m.key
@@ -218,6 +221,7 @@ export async function getRankings(query: RankingQuery): Promise<{ total: number;
       pinchScore: r.pinch_score,
       articulation: r.articulation,
       inCycle: r.in_cycle,
+      singlePoint: r.single_point,
     })),
   };
 }

@@ -4,6 +4,7 @@ import { QueryTypes } from "sequelize";
 import { db } from "@/models";
 import type { ComponentKind, Strength, Tier } from "@/lib/inventory/types";
 import type { ComponentListItem } from "./components";
+import { isSinglePoint } from "@/lib/analysis/pinch-score";
 import { notFound } from "@/lib/errors";
 
 export interface ComponentEdge {
@@ -79,6 +80,7 @@ export async function getComponentDetail({ environmentId, key }: { environmentId
     links: row.links,
     source: row.source,
     notes: row.notes,
+    singlePoint: isSinglePoint(row.replicas, row.zones),
     annotationUpdatedAt: row.updated_at?.toISOString() ?? null,
     needs,
     dependents,

@@ -1,6 +1,7 @@
 // Components of an environment as the app shows them: declared fields plus the owner annotation.
 import { QueryTypes } from "sequelize";
 import { db } from "@/models";
+import { isSinglePoint } from "@/lib/analysis/pinch-score";
 import type { ComponentKind, Tier } from "@/lib/inventory/types";
 
 export interface ComponentListItem {
@@ -16,6 +17,8 @@ export interface ComponentListItem {
   tags: string[];
   source: string | null;
   notes: string | null;
+  /** one replica or fewer than two zones: the analysis' own rule (lib/analysis/pinch-score.ts) */
+  singlePoint: boolean;
 }
 
 export interface ComponentFilter {
@@ -51,6 +54,7 @@ const toItem = (r: Row): ComponentListItem => ({
   tags: r.tags,
   source: r.source,
   notes: r.notes,
+  singlePoint: isSinglePoint(r.replicas, r.zones),
 });
 
 export async function listComponents({

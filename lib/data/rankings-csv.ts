@@ -17,6 +17,7 @@ export const RANKINGS_CSV_COLUMNS = [
   "pinch_score",
   "articulation",
   "in_cycle",
+  "single_point",
   "snapshot",
 ] as const;
 
@@ -32,7 +33,7 @@ export function rankingsCsv({ items, snapshot }: { items: RankingItem[]; snapsho
   const lines = [RANKINGS_CSV_COLUMNS.join(",")];
   for (const i of items) {
     lines.push(
-      [i.rank, i.key, i.name, i.kind, i.team, i.tier, i.betweenness, i.pagerank, i.eigenvector, i.clustering, i.blastRadius.down, i.blastRadius.degraded, i.pinchScore, i.articulation, i.inCycle, snapshot]
+      [i.rank, i.key, i.name, i.kind, i.team, i.tier, i.betweenness, i.pagerank, i.eigenvector, i.clustering, i.blastRadius.down, i.blastRadius.degraded, i.pinchScore, i.articulation, i.inCycle, i.singlePoint, snapshot]
         .map(csvField)
         .join(","),
     );

@@ -1,10 +1,11 @@
 // Migrations in order. Listed explicitly (not globbed) so they work from tsx, vitest and Next alike.
 import * as m0001 from "./0001-initial";
 import * as m0002 from "./0002-analysis";
-import * as m0004 from "./0004-reviews";
 import * as m0003 from "./0003-invites";
-import * as m0006 from "./0006-map-positions";
+import * as m0004 from "./0004-reviews";
 import * as m0005 from "./0005-outbox";
+import * as m0006 from "./0006-map-positions";
+import * as m0007 from "./0007-single-point";
 
 export const MIGRATIONS = [
   { name: "0001-initial", ...m0001 },
@@ -13,4 +14,5 @@ export const MIGRATIONS = [
   { name: "0004-reviews", ...m0004 },
   { name: "0005-outbox", ...m0005 },
   { name: "0006-map-positions", ...m0006 },
+  { name: "0007-single-point", ...m0007 },
 ];

@@ -73,6 +73,10 @@ describe("analysis jobs", () => {
     const top = (sorted.json as { items: Array<{ key: string; blastRadius: { down: number } }> }).items;
     // auth down → gateway, web, app down (hard chain): 3.
     expect(top.map((i) => [i.key, i.blastRadius.down])).toEqual([["auth", 3], ["db", 3]]);
+    // A single point (common practice): one replica, or fewer than two zones — the S of the pinch score.
+    const all = (await call(rankings, { url: "/api/v1/environments/prod/rankings?limit=50", params: { env: "prod" }, as: viewer })).json as { items: Array<{ key: string; singlePoint: boolean }> };
+    const single = Object.fromEntries(all.items.map((i) => [i.key, i.singlePoint]));
+    expect(single).toMatchObject({ auth: true, gateway: false, db: false, a: true });
   });
 
   it("answers single blast radius and multi-failure drills with teams to page", async () => {

@@ -47,6 +47,41 @@ function Section({ title, total, children }: { title: string; total: number; chi
 const th = "px-3 py-1.5 text-left text-xs font-medium uppercase tracking-wide text-faint";
 const td = "px-3 py-1.5 align-top";
 
+function Table({ headers, children }: { headers: string[]; children: ReactNode }) {
+  return (
+    <table className="w-full text-sm">
+      <thead className="bg-surface">
+        <tr>
+          {headers.map((h) => (
+            <th key={h} className={th}>
+              {h}
+            </th>
+          ))}
+        </tr>
+      </thead>
+      <tbody>{children}</tbody>
+    </table>
+  );
+}
+
+/** Before → after per changed field, the label shown on the first field's row only. */
+function FieldChanges({ what, items }: { what: string; items: Array<{ id: string; label: ReactNode; changes: Record<string, { before: unknown; after: unknown } | undefined> }> }) {
+  return (
+    <Table headers={[what, "Field", "Before", "After"]}>
+      {items.slice(0, ROW_LIMIT).flatMap((item) =>
+        Object.entries(item.changes).map(([field, delta], i) => (
+          <tr key={`${item.id}.${field}`} className={i === 0 ? "border-t border-line" : ""}>
+            <td className={td}>{i === 0 ? item.label : ""}</td>
+            <td className={`${td} font-mono text-xs`}>{field}</td>
+            <td className={`${td} text-down`}>{show(delta?.before)}</td>
+            <td className={`${td} text-ok`}>{show(delta?.after)}</td>
+          </tr>
+        )),
+      )}
+    </Table>
+  );
+}
+
 function dependencyLabel(d: Pick<SnapshotDependency, "from" | "to" | "group">) {
   return (
     <span className="font-mono">
@@ -58,16 +93,7 @@ function dependencyLabel(d: Pick<SnapshotDependency, "from" | "to" | "group">) {
 
 function DependencyTable({ rows, mark }: { rows: SnapshotDependency[]; mark: "+" | "−" }) {
   return (
-    <table className="w-full text-sm">
-      <thead className="bg-surface">
-        <tr>
-          <th className={th}>Dependency (needs)</th>
-          <th className={th}>Strength</th>
-          <th className={th}>Via</th>
-          <th className={th}>Source</th>
-        </tr>
-      </thead>
-      <tbody>
+    <Table headers={["Dependency (needs)", "Strength", "Via", "Source"]}>
         {rows.slice(0, ROW_LIMIT).map((d, i) => (
           <tr key={i} className="border-t border-line">
             <td className={td}>
@@ -79,14 +105,12 @@ function DependencyTable({ rows, mark }: { rows: SnapshotDependency[]; mark: "+"
             <td className={`${td} font-mono text-xs text-muted`}>{d.source ?? "—"}</td>
           </tr>
         ))}
-      </tbody>
-    </table>
+    </Table>
   );
 }
 
 export function DiffPreview({ diff }: { diff: DiffSummary }) {
   const c = diff.counts;
-  const dependenciesChanged = diff.dependenciesChanged ?? [];
   return (
     <div className="space-y-5">
       <div className="grid grid-cols-2 gap-2 sm:grid-cols-3 lg:grid-cols-6" data-testid="diff-counts">
@@ -95,21 +119,11 @@ export function DiffPreview({ diff }: { diff: DiffSummary }) {
         <Count label="Components changed" value={c.componentsChanged} tone="change" />
         <Count label="Dependencies added" value={c.dependenciesAdded} tone="add" />
         <Count label="Dependencies removed" value={c.dependenciesRemoved} tone="remove" />
-        <Count label="Dependencies changed" value={dependenciesChanged.length} tone="change" />
+        <Count label="Dependencies changed" value={diff.dependenciesChanged.length} tone="change" />
       </div>
 
       <Section title="Components added" total={diff.componentsAdded.length}>
-        <table className="w-full text-sm">
-          <thead className="bg-surface">
-            <tr>
-              <th className={th}>Key</th>
-              <th className={th}>Kind</th>
-              <th className={th}>Team</th>
-              <th className={th}>Tier</th>
-              <th className={th}>Source</th>
-            </tr>
-          </thead>
-          <tbody>
+        <Table headers={["Key", "Kind", "Team", "Tier", "Source"]}>
             {diff.componentsAdded.slice(0, ROW_LIMIT).map((comp) => (
               <tr key={comp.key} className="border-t border-line" data-testid="diff-added">
                 <td className={`${td} font-mono`}>
@@ -122,21 +136,11 @@ export function DiffPreview({ diff }: { diff: DiffSummary }) {
                 <td className={`${td} font-mono text-xs text-muted`}>{comp.source ?? "—"}</td>
               </tr>
             ))}
-          </tbody>
-        </table>
+        </Table>
       </Section>
 
       <Section title="Components removed" total={diff.componentsRemoved.length}>
-        <table className="w-full text-sm">
-          <thead className="bg-surface">
-            <tr>
-              <th className={th}>Key</th>
-              <th className={th}>Kind</th>
-              <th className={th}>Team</th>
-              <th className={th}>Was declared by</th>
-            </tr>
-          </thead>
-          <tbody>
+        <Table headers={["Key", "Kind", "Team", "Was declared by"]}>
             {diff.componentsRemoved.slice(0, ROW_LIMIT).map((comp) => (
               <tr key={comp.key} className="border-t border-line">
                 <td className={`${td} font-mono`}>
@@ -148,33 +152,11 @@ export function DiffPreview({ diff }: { diff: DiffSummary }) {
                 <td className={`${td} font-mono text-xs text-muted`}>{comp.source ?? "—"}</td>
               </tr>
             ))}
-          </tbody>
-        </table>
+        </Table>
       </Section>
 
       <Section title="Components changed" total={diff.componentsChanged.length}>
-        <table className="w-full text-sm">
-          <thead className="bg-surface">
-            <tr>
-              <th className={th}>Key</th>
-              <th className={th}>Field</th>
-              <th className={th}>Before</th>
-              <th className={th}>After</th>
-            </tr>
-          </thead>
-          <tbody>
-            {diff.componentsChanged.slice(0, ROW_LIMIT).flatMap((change) =>
-              Object.entries(change.changes).map(([field, delta], i) => (
-                <tr key={`${change.key}.${field}`} className={i === 0 ? "border-t border-line" : ""}>
-                  <td className={`${td} font-mono`}>{i === 0 ? change.key : ""}</td>
-                  <td className={`${td} font-mono text-xs`}>{field}</td>
-                  <td className={`${td} text-down`}>{show(delta?.before)}</td>
-                  <td className={`${td} text-ok`}>{show(delta?.after)}</td>
-                </tr>
-              )),
-            )}
-          </tbody>
-        </table>
+        <FieldChanges what="Key" items={diff.componentsChanged.map((c) => ({ id: c.key, label: <span className="font-mono">{c.key}</span>, changes: c.changes }))} />
       </Section>
 
       <Section title="Dependencies added" total={diff.dependenciesAdded.length}>
@@ -183,29 +165,8 @@ export function DiffPreview({ diff }: { diff: DiffSummary }) {
       <Section title="Dependencies removed" total={diff.dependenciesRemoved.length}>
         <DependencyTable rows={diff.dependenciesRemoved} mark="−" />
       </Section>
-      <Section title="Dependencies changed" total={dependenciesChanged.length}>
-        <table className="w-full text-sm">
-          <thead className="bg-surface">
-            <tr>
-              <th className={th}>Dependency</th>
-              <th className={th}>Field</th>
-              <th className={th}>Before</th>
-              <th className={th}>After</th>
-            </tr>
-          </thead>
-          <tbody>
-            {dependenciesChanged.slice(0, ROW_LIMIT).flatMap((change) =>
-              Object.entries(change.changes).map(([field, delta], i) => (
-                <tr key={`${change.from}>${change.to}>${change.group ?? ""}.${field}`} className={i === 0 ? "border-t border-line" : ""}>
-                  <td className={td}>{i === 0 ? dependencyLabel(change) : ""}</td>
-                  <td className={`${td} font-mono text-xs`}>{field}</td>
-                  <td className={`${td} text-down`}>{show(delta?.before)}</td>
-                  <td className={`${td} text-ok`}>{show(delta?.after)}</td>
-                </tr>
-              )),
-            )}
-          </tbody>
-        </table>
+      <Section title="Dependencies changed" total={diff.dependenciesChanged.length}>
+        <FieldChanges what="Dependency" items={diff.dependenciesChanged.map((d) => ({ id: `${d.from}>${d.to}>${d.group ?? ""}`, label: dependencyLabel(d), changes: d.changes }))} />
       </Section>
     </div>
   );

@@ -1,22 +1,16 @@
 // Admin → Environments in the browser: an admin creates a scratch environment, renames it inline,
 // and deletes it only after typing its slug; the default environment offers no delete; other roles
 // are turned away on the server. Uses its own environment so no other test's data changes.
-import type { Browser, Page } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { baseUrl, launch, screenshot } from "./browser";
+import type { Page } from "playwright-core";
+import { describe, expect, it } from "vitest";
+import { baseUrl, screenshot, browserForFile } from "./browser";
 import { signedInPage } from "./pages/signin";
+
+const browser = browserForFile();
 
 const SLUG = "e2e-scratch";
 
-let browser: Browser;
-beforeAll(async () => {
-  browser = await launch();
-});
-afterAll(async () => {
-  await browser?.close();
-});
-
-const signedIn = (role: string): Promise<Page> => signedInPage(browser, role, { width: 1366, height: 900 });
+const signedIn = (role: string): Promise<Page> => signedInPage(browser(), role, { width: 1366, height: 900 });
 
 describe("admin environments screen", () => {
   it("creates, renames and deletes an environment, the delete asking for the slug", async () => {

@@ -1,19 +1,13 @@
 // Admin → Tokens and Admin → Users in the browser: a token shown once then revoked, an invite
 // link that works once, and the pages closed to everyone but admins (checked on the server).
-import type { Browser, Page } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { baseUrl, launch, screenshot } from "./browser";
+import type { Page } from "playwright-core";
+import { describe, expect, it } from "vitest";
+import { baseUrl, screenshot, browserForFile } from "./browser";
 import { signedInPage } from "./pages/signin";
 
-let browser: Browser;
-beforeAll(async () => {
-  browser = await launch();
-});
-afterAll(async () => {
-  await browser?.close();
-});
+const browser = browserForFile();
 
-const signedIn = (role: string): Promise<Page> => signedInPage(browser, role, { width: 1366, height: 900 });
+const signedIn = (role: string): Promise<Page> => signedInPage(browser(), role, { width: 1366, height: 900 });
 
 describe("admin screens", () => {
   it("creates a token, shows it once, and revokes it after asking", async () => {
@@ -68,7 +62,7 @@ describe("admin screens", () => {
     expect(await own.getByRole("button", { name: "Deactivate" }).count()).toBe(0);
     await screenshot(page, "admin-users-invited");
 
-    const invitee = await browser.newContext({ viewport: { width: 1366, height: 900 } });
+    const invitee = await browser().newContext({ viewport: { width: 1366, height: 900 } });
     const invitePage = await invitee.newPage();
     const path = new URL(link).pathname;
     await invitePage.goto(`${baseUrl()}${path}`);
@@ -80,7 +74,7 @@ describe("admin screens", () => {
     await expect.poll(() => invitePage.getByTestId("signed-in-as").textContent()).toContain(email);
     await invitee.close();
 
-    const again = await browser.newContext();
+    const again = await browser().newContext();
     const againPage = await again.newPage();
     await againPage.goto(`${baseUrl()}${path}`);
     await againPage.getByTestId("invite-invalid").waitFor();

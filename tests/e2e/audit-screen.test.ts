@@ -1,19 +1,13 @@
 // The audit screen in the browser: an admin filters the log and reads before/after; a viewer is
 // turned away on the server.
-import type { Browser, Page } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { baseUrl, launch, screenshot } from "./browser";
+import type { Page } from "playwright-core";
+import { describe, expect, it } from "vitest";
+import { baseUrl, screenshot, browserForFile } from "./browser";
 import { signedInPage } from "./pages/signin";
 
-let browser: Browser;
-beforeAll(async () => {
-  browser = await launch();
-});
-afterAll(async () => {
-  await browser?.close();
-});
+const browser = browserForFile();
 
-const signedIn = (role: string): Promise<Page> => signedInPage(browser, role, { width: 1366, height: 900 });
+const signedIn = (role: string): Promise<Page> => signedInPage(browser(), role, { width: 1366, height: 900 });
 
 const count = async (page: Page) => Number((await page.getByTestId("audit-total").textContent())?.match(/\d+/)?.[0] ?? -1);
 

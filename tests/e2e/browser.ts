@@ -2,6 +2,7 @@
 import { mkdirSync } from "node:fs";
 import path from "node:path";
 import { chromium, type Browser, type Page } from "playwright-core";
+import { afterAll, beforeAll } from "vitest";
 
 export const baseUrl = () => {
   const url = process.env.PINCHPOINT_E2E_URL;
@@ -23,4 +24,22 @@ export async function screenshot(page: Page, name: string): Promise<string> {
   const file = path.join(SCREENSHOT_DIR, `${name}.png`);
   await page.screenshot({ path: file, fullPage: true });
   return file;
+}
+
+/**
+ * One browser for a test file: launched before its tests (and before the file's own beforeAll
+ * hooks registered after this call), closed after them. Returns a getter.
+ */
+export function browserForFile(): () => Browser {
+  let browser: Browser | undefined;
+  beforeAll(async () => {
+    browser = await launch();
+  });
+  afterAll(async () => {
+    await browser?.close();
+  });
+  return () => {
+    if (!browser) throw new Error("the browser is launched in beforeAll; use it inside hooks and tests");
+    return browser;
+  };
 }

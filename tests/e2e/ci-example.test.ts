@@ -5,25 +5,22 @@ import { spawnSync } from "node:child_process";
 import { mkdtempSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import path from "node:path";
-import type { Browser, Page } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { baseUrl, launch } from "./browser";
+import type { Page } from "playwright-core";
+import { beforeAll, describe, expect, it } from "vitest";
+import { baseUrl, browserForFile } from "./browser";
 import { signedInPage } from "./pages/signin";
 
+const browser = browserForFile();
+
 const root = path.resolve(__dirname, "../..");
-let browser: Browser;
 let page: Page;
 let token: string;
 
 beforeAll(async () => {
-  browser = await launch();
-  page = await signedInPage(browser, "admin");
+  page = await signedInPage(browser(), "admin");
   const res = await page.request.post(`${baseUrl()}/api/v1/tokens`, { data: { name: "e2e-ci-example", scopes: ["inventory:write"], environment: "production", source: "checkout-repo" } });
   expect(res.status()).toBe(201);
   token = ((await res.json()) as { token: string }).token;
-});
-afterAll(async () => {
-  await browser?.close();
 });
 
 const run = (args: string[]) =>

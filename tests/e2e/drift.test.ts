@@ -2,21 +2,18 @@
 // the drift screen lists the traced call that no file declares and the declared needs no trace shows.
 // Writes only the observed edges of source `e2e-traces`, which no other test reads; traces never
 // change the declared graph, the snapshots or the rankings.
-import type { Browser, Page } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import type { Page } from "playwright-core";
+import { beforeAll, describe, expect, it } from "vitest";
 import type { Drift } from "@/lib/data/drift";
-import { baseUrl, launch, screenshot } from "./browser";
+import { baseUrl, screenshot, browserForFile } from "./browser";
 import { signedInPage } from "./pages/signin";
 
-let browser: Browser;
+const browser = browserForFile();
+
 let page: Page;
 
 beforeAll(async () => {
-  browser = await launch();
-  page = await signedInPage(browser, "admin", { width: 1366, height: 900 });
-});
-afterAll(async () => {
-  await browser?.close();
+  page = await signedInPage(browser(), "admin", { width: 1366, height: 900 });
 });
 
 const span = (traceId: string, spanId: string, parentSpanId: string, kind: number, peer?: string) => ({

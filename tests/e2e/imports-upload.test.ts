@@ -1,18 +1,12 @@
 // The imports screen as a new engineer meets it: a broken file first (errors at the right lines,
 // with the offending lines shown), then a good one → dry-run preview → push → history.
 // Writes only source `e2e-imports-repo` with keys `e2e-imp-*` in `production`, which no other test reads.
-import type { Browser, Page } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { baseUrl, launch, screenshot } from "./browser";
+import type { Page } from "playwright-core";
+import { describe, expect, it } from "vitest";
+import { baseUrl, screenshot, browserForFile } from "./browser";
 import { signedInPage } from "./pages/signin";
 
-let browser: Browser;
-beforeAll(async () => {
-  browser = await launch();
-});
-afterAll(async () => {
-  await browser?.close();
-});
+const browser = browserForFile();
 
 // Line 7 has an unknown field, line 12 a kind that does not exist.
 const BROKEN = `pinchpoint: 1
@@ -50,7 +44,7 @@ async function upload(page: Page, name: string, text: string) {
   await page.getByLabel("Inventory file").setInputFiles({ name, mimeType: "application/yaml", buffer: Buffer.from(text) });
 }
 
-const signedIn = (role: string): Promise<Page> => signedInPage(browser, role, { width: 1366, height: 900 });
+const signedIn = (role: string): Promise<Page> => signedInPage(browser(), role, { width: 1366, height: 900 });
 
 describe("imports screen", () => {
   it("shows a broken file's errors at their lines, previews a good one, pushes it, and lists it", async () => {

@@ -1,19 +1,16 @@
 // E-mail end to end: an owner assignment in the browser queues a notice, the worker delivers it to
 // the SMTP sink, and the admin's mail page shows it with the team's address as recipient.
-import type { Browser, Page } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { baseUrl, launch, screenshot } from "./browser";
+import type { Page } from "playwright-core";
+import { beforeAll, describe, expect, it } from "vitest";
+import { baseUrl, screenshot, browserForFile } from "./browser";
 import { signedInPage } from "./pages/signin";
 
-let browser: Browser;
+const browser = browserForFile();
+
 let page: Page;
 
 beforeAll(async () => {
-  browser = await launch();
-  page = await signedInPage(browser, "admin", { width: 1366, height: 900 });
-});
-afterAll(async () => {
-  await browser?.close();
+  page = await signedInPage(browser(), "admin", { width: 1366, height: 900 });
 });
 
 describe("mail", () => {

@@ -1,19 +1,19 @@
 // The map at 2,000 components, measured in headless Chromium (timings printed, never asserted):
 // it opens on a view it can lay out quickly (the teams, or the top pinch points when even that is too tangled), and focus mode lays out a neighbourhood.
-import type { Browser, Page } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import type { Page } from "playwright-core";
+import { beforeAll, describe, expect, it } from "vitest";
 import { generateGraph } from "../../scripts/bench/generate";
 import { inventoryYaml } from "../../scripts/bench/push";
-import { baseUrl, launch, screenshot } from "./browser";
+import { baseUrl, screenshot, browserForFile } from "./browser";
 import { signedInPage } from "./pages/signin";
 
+const browser = browserForFile();
+
 const ENV = "e2e-large";
-let browser: Browser;
 let page: Page;
 
 beforeAll(async () => {
-  browser = await launch();
-  page = await signedInPage(browser, "admin", { width: 1366, height: 900 });
+  page = await signedInPage(browser(), "admin", { width: 1366, height: 900 });
   // A seeded 2,000-component estate (the benchmark's generator), pushed as the admin creating the environment.
   const body = inventoryYaml(generateGraph({ n: 2000, seed: 7 }), "e2e-large-repo", ENV);
   const res = await page.request.post(`${baseUrl()}/api/v1/environments/${ENV}/inventory`, { data: body, headers: { "content-type": "application/yaml" } });
@@ -24,9 +24,6 @@ beforeAll(async () => {
     if (Date.now() > deadline) throw new Error("the 2,000-component snapshot was not analysed within 60 s");
     await new Promise((r) => setTimeout(r, 500));
   }
-});
-afterAll(async () => {
-  await browser?.close();
 });
 
 describe("map at 2,000 components", () => {

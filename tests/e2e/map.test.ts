@@ -1,19 +1,16 @@
 // The map: opens on the demo, lays out in the browser (ELK in a web worker), node count equals the
 // filtered component count, focus mode from the URL, the inspector with measures.
-import type { Browser, Page } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { baseUrl, launch, screenshot } from "./browser";
+import type { Page } from "playwright-core";
+import { beforeAll, describe, expect, it } from "vitest";
+import { baseUrl, screenshot, browserForFile } from "./browser";
 import { signedInPage } from "./pages/signin";
 
-let browser: Browser;
+const browser = browserForFile();
+
 let page: Page;
 
 beforeAll(async () => {
-  browser = await launch();
-  page = await signedInPage(browser, "lead", { width: 1366, height: 900 });
-});
-afterAll(async () => {
-  await browser?.close();
+  page = await signedInPage(browser(), "lead", { width: 1366, height: 900 });
 });
 
 async function countFromApi(): Promise<number> {

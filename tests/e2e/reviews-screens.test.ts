@@ -1,19 +1,13 @@
 // Risk reviews in the browser: an architect accepts the risk of legacy-ftp-drop (a component no
 // other test reads) with a date and sees the badge; a viewer sees reviews but no form.
-import type { Browser, Page } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { baseUrl, launch, screenshot } from "./browser";
+import type { Page } from "playwright-core";
+import { describe, expect, it } from "vitest";
+import { baseUrl, screenshot, browserForFile } from "./browser";
 import { signedInPage } from "./pages/signin";
 
-let browser: Browser;
-beforeAll(async () => {
-  browser = await launch();
-});
-afterAll(async () => {
-  await browser?.close();
-});
+const browser = browserForFile();
 
-const signedIn = (role: string): Promise<Page> => signedInPage(browser, role, { width: 1366, height: 900 });
+const signedIn = (role: string): Promise<Page> => signedInPage(browser(), role, { width: 1366, height: 900 });
 
 const inDays = (days: number) => new Date(Date.now() + days * 86_400_000).toISOString().slice(0, 10);
 

@@ -1,26 +1,23 @@
 // Drills: pick a component with the keyboard, see what goes down and who to page, copy the summary.
-import type { Browser, BrowserContext, Page } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { baseUrl, launch, screenshot } from "./browser";
+import type { BrowserContext, Page } from "playwright-core";
+import { beforeAll, describe, expect, it } from "vitest";
+import { baseUrl, screenshot, browserForFile } from "./browser";
 import { SignInPage } from "./pages/signin";
 
-let browser: Browser;
+const browser = browserForFile();
+
 let context: BrowserContext;
 let page: Page;
 const downCount = async (p: Page) => Number((await p.getByTestId("down-count").textContent()) ?? 0);
 
 beforeAll(async () => {
-  browser = await launch();
-  context = await browser.newContext({ viewport: { width: 1366, height: 768 } });
+  context = await browser().newContext({ viewport: { width: 1366, height: 768 } });
   await context.grantPermissions(["clipboard-read", "clipboard-write"], { origin: baseUrl() });
   page = await context.newPage();
   const signin = new SignInPage(page);
   await signin.open();
   await signin.signIn("engineer@harbor-pantry.example");
   await page.waitForURL((u) => u.pathname === "/");
-});
-afterAll(async () => {
-  await browser?.close();
 });
 
 describe("drills", () => {

@@ -1,18 +1,15 @@
 // History: the snapshot list, a diff between two picked snapshots, and the rank chart.
-import type { Browser, Page } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { baseUrl, launch, screenshot } from "./browser";
+import type { Page } from "playwright-core";
+import { beforeAll, describe, expect, it } from "vitest";
+import { baseUrl, screenshot, browserForFile } from "./browser";
 import { signedInPage } from "./pages/signin";
 
-let browser: Browser;
+const browser = browserForFile();
+
 let page: Page;
 
 beforeAll(async () => {
-  browser = await launch();
-  page = await signedInPage(browser, "architect", { width: 1366, height: 768 });
-});
-afterAll(async () => {
-  await browser?.close();
+  page = await signedInPage(browser(), "architect", { width: 1366, height: 768 });
 });
 
 describe("history", () => {

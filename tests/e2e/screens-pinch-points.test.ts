@@ -1,10 +1,11 @@
 // The pinch-point table: sign in, open, sort by a header, filter, export; values match the API.
-import type { Browser, Page } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { baseUrl, launch, screenshot } from "./browser";
+import type { Page } from "playwright-core";
+import { beforeAll, describe, expect, it } from "vitest";
+import { baseUrl, screenshot, browserForFile } from "./browser";
 import { signedInPage } from "./pages/signin";
 
-let browser: Browser;
+const browser = browserForFile();
+
 let page: Page;
 const ENV_URL = () => `${baseUrl()}/environments/production`;
 
@@ -16,11 +17,7 @@ const api = (p: Page, path: string) => p.evaluate(async (u) => (await fetch(u)).
 const firstKey = (p: Page) => p.locator('[data-testid="rankings-table"] tbody tr').first().locator("td").nth(1).locator("a.font-mono").textContent();
 
 beforeAll(async () => {
-  browser = await launch();
-  page = await signedInPage(browser, "viewer", { width: 1366, height: 768 });
-});
-afterAll(async () => {
-  await browser?.close();
+  page = await signedInPage(browser(), "viewer", { width: 1366, height: 768 });
 });
 
 describe("pinch points", () => {

@@ -1,21 +1,14 @@
 // Sign in through the page as each role and see the overview of the demo environment.
-import type { Browser } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { baseUrl, launch, screenshot } from "./browser";
+import { describe, expect, it } from "vitest";
+import { baseUrl, screenshot, browserForFile } from "./browser";
 import { SignInPage } from "./pages/signin";
 import { ROLES } from "@/lib/auth/roles";
 
-let browser: Browser;
-beforeAll(async () => {
-  browser = await launch();
-});
-afterAll(async () => {
-  await browser?.close();
-});
+const browser = browserForFile();
 
 describe("sign-in", () => {
   it("refuses a wrong password with a readable message", async () => {
-    const page = await browser.newPage();
+    const page = await browser().newPage();
     const signin = new SignInPage(page);
     await signin.open();
     await screenshot(page, "signin");
@@ -27,7 +20,7 @@ describe("sign-in", () => {
   });
 
   it("sends an anonymous visitor of a page to sign-in", async () => {
-    const page = await browser.newPage();
+    const page = await browser().newPage();
     await page.goto(`${baseUrl()}/environments/production`);
     expect(new URL(page.url()).pathname).toBe("/signin");
     await page.close();
@@ -35,7 +28,7 @@ describe("sign-in", () => {
 
   for (const role of ROLES) {
     it(`signs in as ${role} and shows the overview with counts`, async () => {
-      const context = await browser.newContext({ viewport: { width: 1366, height: 900 } });
+      const context = await browser().newContext({ viewport: { width: 1366, height: 900 } });
       const page = await context.newPage();
       const signin = new SignInPage(page);
       await signin.open();

@@ -1,19 +1,12 @@
 // Single sign-on end to end: the sign-in page → the OpenID Connect stand-in → back signed in;
 // the first sign-in creates a viewer, and an identity with a verified address links to that account.
-import type { Browser } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { baseUrl, launch, screenshot } from "./browser";
+import { describe, expect, it } from "vitest";
+import { baseUrl, screenshot, browserForFile } from "./browser";
 
-let browser: Browser;
-beforeAll(async () => {
-  browser = await launch();
-});
-afterAll(async () => {
-  await browser?.close();
-});
+const browser = browserForFile();
 
 async function signInThroughStandIn(login: string) {
-  const context = await browser.newContext({ viewport: { width: 1280, height: 800 } });
+  const context = await browser().newContext({ viewport: { width: 1280, height: 800 } });
   const page = await context.newPage();
   await page.goto(`${baseUrl()}/signin`);
   await page.getByRole("button", { name: /Continue with/ }).click();

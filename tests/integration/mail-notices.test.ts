@@ -2,28 +2,21 @@
 // the messages with the right recipients. Metrics rows are written directly so that which
 // component enters the top ten is set by the test, not by the analysis.
 import { randomBytes } from "node:crypto";
-import { mkdtemp, readdir, readFile, rm } from "node:fs/promises";
-import { tmpdir } from "node:os";
-import path from "node:path";
-import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it, vi } from "vitest";
+import { beforeAll, describe, expect, it } from "vitest";
 import { db } from "@/models";
-import { parseEml } from "@/lib/mail/eml";
 import { noticeInvite, noticeOwnerAssigned, noticeReviewsDue, noticeTopTenChanges } from "@/lib/mail/notices";
 import { deliverOutbox } from "@/lib/mail/outbox";
-import { startMailSink, type MailSink } from "@/lib/mail/sink";
-import { createMailTransport } from "@/lib/mail/transport";
 import { createUser, type TestUser } from "../support/api";
+import { mailSinkForFile, TEST_FROM } from "../support/mail-sink";
 
-let sink: MailSink;
-let dir: string;
+const sink = mailSinkForFile();
 let envId: string;
 let architects: TestUser[];
 let lead: TestUser;
 
 async function deliverAll() {
-  await deliverOutbox({ transport: createMailTransport(`smtp://127.0.0.1:${sink.port}`), from: "Pinchpoint <pinchpoint@harbor-pantry.example>" });
-  const names = (await readdir(dir)).filter((n) => n.endsWith(".eml")).sort();
-  return Promise.all(names.map(async (n) => parseEml(await readFile(path.join(dir, n)))));
+  await deliverOutbox({ transport: sink.transport(), from: TEST_FROM });
+  return sink.emls();
 }
 
 async function snapshot(number: number) {
@@ -66,8 +59,6 @@ async function metrics(snapshotId: string, rows: [string, number, string | null]
 }
 
 beforeAll(async () => {
-  dir = await mkdtemp(path.join(tmpdir(), "pp-mail-notices-"));
-  sink = await startMailSink({ port: 0, dir });
   const { Environment, Team, Component, Source } = db().models;
   envId = (await Environment.create({ slug: "production", name: "Production", pinchWeights: null })).id;
   const source = await Source.create({ environmentId: envId, name: "storefront-repo", lastFormat: "pinchpoint", lastPushAt: new Date() });
@@ -82,17 +73,6 @@ beforeAll(async () => {
   await db().models.User.update({ active: false }, { where: { id: retired.id } });
   lead = await createUser("lead", "lead@harbor-pantry.example");
 });
-afterAll(async () => {
-  await sink.close();
-  await rm(dir, { recursive: true, force: true });
-});
-beforeEach(async () => {
-  await db().models.OutboxMessage.destroy({ where: {} });
-  for (const n of await readdir(dir)) await rm(path.join(dir, n));
-  vi.spyOn(console, "warn").mockImplementation(() => undefined);
-  vi.spyOn(console, "error").mockImplementation(() => undefined);
-});
-afterEach(() => vi.restoreAllMocks());
 
 describe("noticeOwnerAssigned", () => {
   it("mails the new owner team's address, naming the component, environment and who assigned it", async () => {

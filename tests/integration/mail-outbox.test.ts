@@ -1,27 +1,14 @@
 // The outbox against real PostgreSQL and a real SMTP conversation with the local sink: queued in
 // the caller's transaction, delivered once, retried with backoff, given up on, never thrown.
-import { mkdtemp, readdir, readFile, rm } from "node:fs/promises";
 import { createServer } from "node:net";
-import { tmpdir } from "node:os";
-import path from "node:path";
-import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it, vi } from "vitest";
+import { describe, expect, it } from "vitest";
 import { db } from "@/models";
-import { parseEml } from "@/lib/mail/eml";
 import { BACKOFF_MS, deliverOutbox, enqueueMail, MAX_ATTEMPTS } from "@/lib/mail/outbox";
-import { startMailSink, type MailSink } from "@/lib/mail/sink";
 import { createMailTransport } from "@/lib/mail/transport";
-
-const FROM = "Pinchpoint <pinchpoint@harbor-pantry.example>";
+import { mailSinkForFile, TEST_FROM as FROM } from "../support/mail-sink";
 const invite = (to: string[], n = 1) => ({ to, template: "invite" as const, data: { link: `https://pp.example/invite/${n}` } });
 
-let sink: MailSink;
-let dir: string;
-const sinkTransport = () => createMailTransport(`smtp://127.0.0.1:${sink.port}`);
-
-async function emls() {
-  const names = (await readdir(dir)).filter((n) => n.endsWith(".eml")).sort();
-  return Promise.all(names.map(async (n) => parseEml(await readFile(path.join(dir, n)))));
-}
+const { transport: sinkTransport, emls } = mailSinkForFile({ maxBytes: 200_000 });
 
 /** A port nothing listens on: bind an ephemeral one, then let it go. */
 async function closedPort(): Promise<number> {
@@ -34,21 +21,6 @@ async function closedPort(): Promise<number> {
 
 const row = (id: string) => db().models.OutboxMessage.findByPk(id, { rejectOnEmpty: true });
 
-beforeAll(async () => {
-  dir = await mkdtemp(path.join(tmpdir(), "pp-mail-outbox-"));
-  sink = await startMailSink({ port: 0, dir, maxBytes: 200_000 });
-});
-afterAll(async () => {
-  await sink.close();
-  await rm(dir, { recursive: true, force: true });
-});
-beforeEach(async () => {
-  await db().models.OutboxMessage.destroy({ where: {} });
-  for (const n of await readdir(dir)) await rm(path.join(dir, n));
-  vi.spyOn(console, "warn").mockImplementation(() => undefined);
-  vi.spyOn(console, "error").mockImplementation(() => undefined);
-});
-afterEach(() => vi.restoreAllMocks());
 
 describe("enqueueMail", () => {
   it("queues nothing when the caller's transaction rolls back, so a failed change sends no mail", async () => {

@@ -20,14 +20,11 @@ import { COMPONENT_KINDS } from "@/lib/inventory/types";
 import type { RankingItem, RankingsResponse, RankTrendResponse } from "./api-types";
 import type { TeamOverview } from "@/lib/data/team-admin";
 import { MEASURE_HELP } from "./measures";
+import { defaultRankingOrder, isRankingSort as isSort, type RankingSort } from "@/lib/api/ranking-sorts";
 import { SnapshotMeta } from "./SnapshotMeta";
 import { Sparkline } from "./Sparkline";
 
 export const PAGE_SIZE = 25;
-const SORTS = ["rank", "key", "team", "tier", "kind", "betweenness", "pagerank", "eigenvector", "clustering", "blastDown", "blastDegraded", "pinchScore", "articulation", "inCycle"] as const;
-type Sort = (typeof SORTS)[number];
-const ASC_FIRST = new Set<Sort>(["key", "team", "kind", "tier", "rank"]);
-const isSort = (s: string | null): s is Sort => SORTS.includes(s as Sort);
 
 interface Row extends RankingItem {
   trend: Array<{ snapshot: number; rank: number | null }> | undefined;
@@ -40,9 +37,9 @@ const num = "text-right font-mono tabular-nums";
 export function PinchPoints({ env }: { env: string }) {
   const url = useUrlState();
   const sortParam = url.get("sort");
-  const sort: Sort = isSort(sortParam) ? sortParam : "betweenness";
+  const sort: RankingSort = isSort(sortParam) ? sortParam : "betweenness";
   const orderParam = url.get("order");
-  const order: "asc" | "desc" = orderParam === "asc" || orderParam === "desc" ? orderParam : ASC_FIRST.has(sort) ? "asc" : "desc";
+  const order: "asc" | "desc" = orderParam === "asc" || orderParam === "desc" ? orderParam : defaultRankingOrder(sort);
   const page = Math.max(1, Number(url.get("page") ?? 1) || 1);
   const filters = { team: url.get("team") ?? "", tier: url.get("tier") ?? "", kind: url.get("kind") ?? "", q: url.get("q") ?? "" };
 
@@ -119,7 +116,7 @@ export function PinchPoints({ env }: { env: string }) {
 
   const toggleSort = (id: string) => {
     if (!isSort(id)) return;
-    const nextOrder = id === sort ? (order === "asc" ? "desc" : "asc") : ASC_FIRST.has(id) ? "asc" : "desc";
+    const nextOrder = id === sort ? (order === "asc" ? "desc" : "asc") : defaultRankingOrder(id);
     url.set({ sort: id, order: nextOrder, page: null });
   };
 

@@ -4,12 +4,12 @@
 import { z } from "zod";
 import type { RouteRule } from "@/lib/auth/with-permission";
 import { inventoryJsonSchema } from "@/lib/inventory/schema";
-import { annotateBodySchema, drillBodySchema, rankingsQuerySchema } from "./schemas/analysis";
+import { annotateBodySchema, drillBodySchema, rankHistoryQuerySchema, rankingsExportQuerySchema, rankingsQuerySchema } from "./schemas/analysis";
 import { pageQuerySchema } from "./schemas/history";
 import { componentsQuerySchema, pushQuerySchema } from "./schemas/inventory";
 import { positionsSchema } from "./schemas/map";
 import { reviewBodySchema, reviewsQuerySchema, auditQuerySchema } from "./schemas/reviews";
-import { addMemberSchema, createTeamSchema, updateTeamSchema } from "./schemas/teams";
+import { addMemberSchema, createTeamSchema, unownedQuerySchema, updateTeamSchema } from "./schemas/teams";
 import { createEnvironmentSchema, deleteEnvironmentQuerySchema, renameEnvironmentSchema } from "./schemas/environments";
 import { createTokenSchema } from "./schemas/tokens";
 import { acceptInviteSchema, inviteUserSchema, updateUserSchema } from "./schemas/users";
@@ -46,8 +46,8 @@ export const OPERATIONS: Record<string, Partial<Record<Method, Operation>>> = {
   "/environments/{env}/components/{key}/blast-radius": { get: { summary: "What goes down or degraded when this component fails", rule: "read" } },
   "/environments/{env}/components/{key}/history": { get: { summary: "Snapshots that added, changed or removed this component", rule: "read" } },
   "/environments/{env}/rankings": { get: { summary: "Ranked pinch points of the newest analysed snapshot", rule: "read", query: rankingsQuerySchema } },
-  "/environments/{env}/rankings/export": { get: { summary: "The ranking as CSV", rule: "read" } },
-  "/environments/{env}/rankings/history": { get: { summary: "Ranks of components over recent snapshots", rule: "read" } },
+  "/environments/{env}/rankings/export": { get: { summary: "The ranking as CSV", rule: "read", query: rankingsExportQuerySchema } },
+  "/environments/{env}/rankings/history": { get: { summary: "Ranks of components over recent snapshots", rule: "read", query: rankHistoryQuerySchema } },
   "/environments/{env}/drills": { post: { summary: "Fail components and/or zones: down, degraded, teams to page", rule: "read", body: drillBodySchema } },
   "/environments/{env}/drift": { get: { summary: "Traced calls against declared needs: seen but never declared, declared but never seen", rule: "read" } },
   "/environments/{env}/boot-order": { get: { summary: "Cold-start stages; cycles that cannot start unaided", rule: "read" } },
@@ -72,7 +72,7 @@ export const OPERATIONS: Record<string, Partial<Record<Method, Operation>>> = {
     get: { summary: "Teams", rule: "read" },
     post: { summary: "Create a team", rule: "admin", body: createTeamSchema },
   },
-  "/teams/unowned": { get: { summary: "Components nobody owns, across environments", rule: "read" } },
+  "/teams/unowned": { get: { summary: "Components nobody owns, across environments", rule: "read", query: unownedQuerySchema } },
   "/teams/{slug}": {
     get: { summary: "One team: members, contacts, components", rule: "read" },
     patch: { summary: "Change a team (admin; a lead for e-mail, on-call and description)", rule: "components:annotate", body: updateTeamSchema },

@@ -2,6 +2,7 @@
 import { QueryTypes } from "sequelize";
 import { db } from "@/models";
 import type { ComponentKind, Tier } from "@/lib/inventory/types";
+import type { RankingSort } from "@/lib/api/ranking-sorts";
 
 export interface AnalysisStatusInfo {
   status: "queued" | "running" | "done" | "failed" | "none";
@@ -111,7 +112,8 @@ export interface MetricColumns {
 }
 export const METRIC_COLUMNS = "betweenness, pagerank, eigenvector, clustering, blast_down, blast_degraded, pinch_score, articulation, in_cycle, single_point";
 
-export const RANKING_SORTS = {
+/** Sort key → the SQL column it orders by (the keys are lib/api/ranking-sorts.ts). */
+export const RANKING_SORTS: Record<RankingSort, string> = {
   betweenness: "m.betweenness",
   pagerank: "m.pagerank",
   eigenvector: "m.eigenvector",
@@ -127,8 +129,7 @@ export const RANKING_SORTS = {
   articulation: "m.articulation",
   inCycle: "m.in_cycle",
   rank: "m.rank",
-} as const;
-export type RankingSort = keyof typeof RANKING_SORTS;
+};
 
 export interface RankingItem {
   key: string;

@@ -1,12 +1,11 @@
 import { z } from "zod";
-import { RANKING_SORTS, type RankingSort } from "@/lib/data/analysis-results";
+import { RANKING_SORT_KEYS } from "@/lib/api/ranking-sorts";
 import { keySchema, kindSchema, slugSchema } from "./common";
 
-const sortKeys = Object.keys(RANKING_SORTS) as [RankingSort, ...RankingSort[]];
 
 export const rankingsQuerySchema = z
   .object({
-    sort: z.enum(sortKeys).default("betweenness"),
+    sort: z.enum(RANKING_SORT_KEYS).default("betweenness"),
     order: z.enum(["asc", "desc"]).optional(),
     limit: z.coerce.number().int().min(1).max(1000).default(50),
     offset: z.coerce.number().int().min(0).default(0),
@@ -14,6 +13,22 @@ export const rankingsQuerySchema = z
     kind: kindSchema.optional(),
     tier: z.coerce.number().int().min(1).max(4).optional(),
     q: z.string().max(128).optional(),
+  })
+  .strict();
+
+/** The CSV export: the same filters and sort as the rankings, every row. */
+export const rankingsExportQuerySchema = rankingsQuerySchema.omit({ limit: true, offset: true });
+
+export const rankHistoryQuerySchema = z
+  .object({
+    keys: z
+      .string()
+      .max(20_000)
+      .transform((s) => s.split(",").filter(Boolean))
+      .pipe(z.array(keySchema).max(200))
+      .optional(),
+    top: z.coerce.number().int().min(1).max(50).default(8),
+    count: z.coerce.number().int().min(2).max(100).default(20),
   })
   .strict();
 
@@ -36,3 +51,5 @@ export const annotateBodySchema = z
   })
   .strict()
   .refine((b) => b.team !== undefined || b.notes !== undefined, { message: "send team, notes, or both" });
+
+export { defaultRankingOrder } from "@/lib/api/ranking-sorts";

@@ -60,3 +60,5 @@ export const addMemberSchema = z
 export type AddMemberInput = z.infer<typeof addMemberSchema>;
 
 export const memberParamsSchema = z.object({ slug: slugSchema, userId: z.uuid() });
+
+export const unownedQuerySchema = z.object({ environment: slugSchema.optional() }).strict();

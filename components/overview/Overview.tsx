@@ -10,12 +10,11 @@ import { fetchJson, type ApiError } from "@/lib/client/fetcher";
 import { ageOf, betweennessPct, percent, pinchScore } from "@/components/ui/format";
 import type { EnvironmentCounts } from "@/lib/data/components";
 import type { EnvironmentSummary } from "@/lib/data/environments";
+import type { EnvironmentAdminSummary } from "@/lib/data/environment-admin";
 import type { RankingItem, RankingsResponse } from "@/components/rankings/api-types";
 
-interface ComponentsResponse {
-  environment: string;
-  counts: EnvironmentCounts;
-}
+/** GET /api/v1/environments/{env}: the summary plus component counts. */
+type EnvironmentResponse = EnvironmentAdminSummary & { counts: EnvironmentCounts };
 
 
 interface BootOrderResponse {
@@ -62,17 +61,19 @@ function TopList({ env, title, items, error, value }: { env: string; title: stri
 
 export function Overview({ env }: { env: string }) {
   const refresh = { refreshInterval: 15_000 };
-  const components = useSWR<ComponentsResponse, ApiError>(`/api/v1/environments/${env}/components`, fetchJson, refresh);
-  const environments = useSWR<{ items: EnvironmentSummary[] }, ApiError>("/api/v1/environments", fetchJson, refresh);
+  // One light request for the counts and the latest snapshot; the full list only to suggest names.
+  const environment = useSWR<EnvironmentResponse, ApiError>(`/api/v1/environments/${env}`, fetchJson, refresh);
+  const missing = environment.error?.status === 404;
+  const environments = useSWR<{ items: EnvironmentSummary[] }, ApiError>(missing ? "/api/v1/environments" : null, fetchJson);
   const byPinch = useSWR<RankingsResponse, ApiError>(`/api/v1/environments/${env}/rankings?sort=pinchScore&limit=5`, fetchJson, refresh);
   const byBetweenness = useSWR<RankingsResponse, ApiError>(`/api/v1/environments/${env}/rankings?sort=betweenness&limit=5`, fetchJson, refresh);
   const boot = useSWR<BootOrderResponse, ApiError>(`/api/v1/environments/${env}/boot-order`, fetchJson, refresh);
   const imports = useSWR<ImportsResponse, ApiError>(`/api/v1/environments/${env}/imports?limit=1`, fetchJson, refresh);
-  const summary = environments.data?.items.find((e) => e.slug === env);
-  const counts = components.data?.counts;
+  const summary = environment.data;
+  const counts = summary?.counts;
   const ranked = byPinch.data;
 
-  if (components.error?.status === 404) {
+  if (missing) {
     const known = environments.data?.items ?? [];
     return (
       <Card title={`No environment called “${env}”`}>
@@ -107,7 +108,7 @@ export function Overview({ env }: { env: string }) {
         <p className="mt-1 text-sm text-muted" data-testid="snapshot-line">
           {summary?.latestSnapshot
             ? `Snapshot #${summary.latestSnapshot.number}, pushed ${ageOf(summary.latestSnapshot.createdAt)}`
-            : environments.isLoading
+            : environment.isLoading
               ? "Loading…"
               : "No snapshot yet"}
           {summary?.analysis && ` · analysis ${summary.analysis.status}${summary.analysis.status === "running" ? ` (${Math.round(summary.analysis.progress * 100)}%)` : ""}`}
@@ -120,12 +121,12 @@ export function Overview({ env }: { env: string }) {
           </p>
         )}
       </div>
-      {components.error && components.error.status !== 404 && (
+      {environment.error && !missing && (
         <p role="alert" className="rounded-md border border-down/50 bg-down/10 px-3 py-2 text-sm">
-          Could not load the components: {components.error.message}
+          Could not load this environment: {environment.error.message}
         </p>
       )}
-      <div className="grid grid-cols-2 gap-3 md:grid-cols-5" aria-busy={components.isLoading}>
+      <div className="grid grid-cols-2 gap-3 md:grid-cols-5" aria-busy={environment.isLoading}>
         <Stat label="Components" value={counts?.components ?? "—"} hint={counts ? `${counts.dependencies} dependencies` : undefined} />
         <Stat label="Teams" value={counts?.teams ?? "—"} hint="owning at least one component" />
         <Stat label="Unowned" value={counts?.unowned ?? "—"} tone={counts && counts.unowned > 0 ? "degraded" : "ink"} hint="declared with no team: nobody to page" />

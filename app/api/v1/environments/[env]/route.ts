@@ -1,4 +1,4 @@
-// GET /api/v1/environments/{env} — one environment's summary (read).
+// GET /api/v1/environments/{env} — one environment's summary with its component counts (read).
 // PATCH — rename `{ name }` (admin). DELETE ?confirm=<slug> — delete it and everything of it (admin).
 import { NextResponse } from "next/server";
 import { parseParams, parseQuery, readJson } from "@/lib/api/query";
@@ -6,13 +6,15 @@ import { envParamsSchema } from "@/lib/api/schemas/common";
 import { deleteEnvironmentQuerySchema, renameEnvironmentSchema } from "@/lib/api/schemas/environments";
 import { withPermission } from "@/lib/auth/with-permission";
 import { deleteEnvironmentAsAdmin, getEnvironmentSummaryOrThrow, renameEnvironmentAsAdmin } from "@/lib/data/environment-admin";
+import { countComponents } from "@/lib/data/components";
 import { parseOrThrow } from "@/lib/errors";
 
 type Params = { env: string };
 
 export const GET = withPermission<Params>("read", async ({ params }) => {
   const { env } = parseParams(params, envParamsSchema);
-  return NextResponse.json(await getEnvironmentSummaryOrThrow({ slug: env }));
+  const summary = await getEnvironmentSummaryOrThrow({ slug: env });
+  return NextResponse.json({ ...summary, counts: await countComponents({ environmentId: summary.id }) });
 });
 
 export const PATCH = withPermission<Params>("admin", async ({ req, params, actor }) => {

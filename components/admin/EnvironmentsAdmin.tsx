@@ -7,7 +7,8 @@ import { mutate } from "swr";
 import { Button } from "@/components/ui/Button";
 import { Card } from "@/components/ui/Card";
 import { ageOf, dateTime, plural } from "@/components/ui/format";
-import type { DeletedEnvironment, EnvironmentAdminSummary } from "@/lib/data/environment-admin";
+import type { DeletedEnvironment } from "@/lib/data/environment-admin";
+import type { EnvironmentSummary } from "@/lib/data/environments";
 import { sendJson, type RequestProblem } from "./request";
 
 const input = "mt-1 w-full rounded-md border border-line bg-raised px-3 py-2 text-sm text-ink outline-none focus:border-brass";
@@ -19,7 +20,7 @@ function fieldError(problem: RequestProblem | null, field: string): string | und
 /** Other screens (token form, overview) read the environment list through swr: tell them it changed. */
 const refreshShared = () => mutate("/api/v1/environments");
 
-function AnalysisState({ env }: { env: EnvironmentAdminSummary }) {
+function AnalysisState({ env }: { env: EnvironmentSummary }) {
   if (!env.latestSnapshot) return <span className="text-faint">—</span>;
   const a = env.analysis;
   if (!a) return <span className="text-muted">not queued</span>;
@@ -32,7 +33,7 @@ function AnalysisState({ env }: { env: EnvironmentAdminSummary }) {
   );
 }
 
-function RenameCell({ env, onRenamed }: { env: EnvironmentAdminSummary; onRenamed: (message: ReactNode) => Promise<void> }) {
+function RenameCell({ env, onRenamed }: { env: EnvironmentSummary; onRenamed: (message: ReactNode) => Promise<void> }) {
   const [editing, setEditing] = useState(false);
   const [problem, setProblem] = useState<RequestProblem | null>(null);
   const [pending, setPending] = useState(false);
@@ -54,7 +55,7 @@ function RenameCell({ env, onRenamed }: { env: EnvironmentAdminSummary; onRename
     const name = String(new FormData(event.currentTarget).get("name") ?? "");
     setPending(true);
     setProblem(null);
-    const result = await sendJson<EnvironmentAdminSummary>(`/api/v1/environments/${env.slug}`, "PATCH", { name });
+    const result = await sendJson<EnvironmentSummary>(`/api/v1/environments/${env.slug}`, "PATCH", { name });
     setPending(false);
     if (!result.ok) {
       setProblem(result.problem);
@@ -97,7 +98,7 @@ function RenameCell({ env, onRenamed }: { env: EnvironmentAdminSummary; onRename
 }
 
 /** A modal that asks for the slug to be typed: deleting takes the whole graph and its history with it. */
-function DeleteDialog({ env, onClose, onDeleted }: { env: EnvironmentAdminSummary; onClose: () => void; onDeleted: (result: DeletedEnvironment) => Promise<void> }) {
+function DeleteDialog({ env, onClose, onDeleted }: { env: EnvironmentSummary; onClose: () => void; onDeleted: (result: DeletedEnvironment) => Promise<void> }) {
   const ref = useRef<HTMLDialogElement>(null);
   const [typed, setTyped] = useState("");
   const [problem, setProblem] = useState<RequestProblem | null>(null);
@@ -203,13 +204,13 @@ function DeleteDialog({ env, onClose, onDeleted }: { env: EnvironmentAdminSummar
   );
 }
 
-export function EnvironmentsAdmin({ environments }: { environments: EnvironmentAdminSummary[] }) {
+export function EnvironmentsAdmin({ environments }: { environments: EnvironmentSummary[] }) {
   const router = useRouter();
   const [, startRefresh] = useTransition();
   const [problem, setProblem] = useState<RequestProblem | null>(null);
   const [pending, setPending] = useState(false);
   const [notice, setNotice] = useState<ReactNode>(null);
-  const [deleting, setDeleting] = useState<EnvironmentAdminSummary | null>(null);
+  const [deleting, setDeleting] = useState<EnvironmentSummary | null>(null);
   const formId = useId();
 
   async function refresh(message: ReactNode) {
@@ -228,7 +229,7 @@ export function EnvironmentsAdmin({ environments }: { environments: EnvironmentA
     setPending(true);
     setProblem(null);
     setNotice(null);
-    const result = await sendJson<EnvironmentAdminSummary>("/api/v1/environments", "POST", { slug, ...(name ? { name } : {}) });
+    const result = await sendJson<EnvironmentSummary>("/api/v1/environments", "POST", { slug, ...(name ? { name } : {}) });
     setPending(false);
     if (!result.ok) {
       setProblem(result.problem);

@@ -10,11 +10,10 @@ import { fetchJson, type ApiError } from "@/lib/client/fetcher";
 import { ageOf, betweennessPct, percent, pinchScore } from "@/components/ui/format";
 import type { EnvironmentCounts } from "@/lib/data/components";
 import type { EnvironmentSummary } from "@/lib/data/environments";
-import type { EnvironmentAdminSummary } from "@/lib/data/environment-admin";
 import type { RankingItem, RankingsResponse } from "@/components/rankings/api-types";
 
 /** GET /api/v1/environments/{env}: the summary plus component counts. */
-type EnvironmentResponse = EnvironmentAdminSummary & { counts: EnvironmentCounts };
+type EnvironmentResponse = EnvironmentSummary & { counts: EnvironmentCounts };
 
 
 interface BootOrderResponse {

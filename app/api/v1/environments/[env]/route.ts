@@ -5,7 +5,8 @@ import { parseParams, parseQuery, readJson } from "@/lib/api/query";
 import { envParamsSchema } from "@/lib/api/schemas/common";
 import { deleteEnvironmentQuerySchema, renameEnvironmentSchema } from "@/lib/api/schemas/environments";
 import { withPermission } from "@/lib/auth/with-permission";
-import { deleteEnvironmentAsAdmin, getEnvironmentSummaryOrThrow, renameEnvironmentAsAdmin } from "@/lib/data/environment-admin";
+import { deleteEnvironmentAsAdmin, renameEnvironmentAsAdmin } from "@/lib/data/environment-admin";
+import { getEnvironmentSummaryOrThrow } from "@/lib/data/environments";
 import { countComponents } from "@/lib/data/components";
 import { parseOrThrow } from "@/lib/errors";
 

@@ -2,9 +2,8 @@
 // dependents, and its measures in the served analysis.
 import { QueryTypes } from "sequelize";
 import { db } from "@/models";
-import type { ComponentKind, Strength, Tier } from "@/lib/inventory/types";
-import type { ComponentListItem } from "./components";
-import { isSinglePoint } from "@/lib/analysis/pinch-score";
+import type { ComponentKind, Strength } from "@/lib/inventory/types";
+import { COMPONENT_SELECT, toComponentListItem, type ComponentListItem, type ComponentRow } from "./components";
 import { notFound } from "@/lib/errors";
 
 export interface ComponentEdge {
@@ -27,29 +26,10 @@ export interface ComponentDetail extends ComponentListItem {
 
 export async function getComponentDetail({ environmentId, key }: { environmentId: string; key: string }): Promise<ComponentDetail> {
   const { sequelize } = db();
-  const [row] = await sequelize.query<{
-    key: string;
-    name: string;
-    kind: ComponentKind;
-    team: string | null;
-    declared_team: string | null;
-    tier: number;
-    replicas: number;
-    zones: string[];
-    tags: string[];
-    links: Record<string, string>;
-    source: string | null;
-    notes: string | null;
-    updated_at: Date | null;
-  }>(
-    `SELECT c.key, c.name, c.kind, COALESCE(a.owner_team, c.team) AS team, c.team AS declared_team, c.tier, c.replicas,
-            c.zones, c.tags, c.links, s.name AS source, a.notes, a.updated_at
-       FROM components c
-       LEFT JOIN component_annotations a ON a.environment_id = c.environment_id AND a.key = c.key
-       LEFT JOIN sources s ON s.id = c.source_id
-      WHERE c.environment_id = :environmentId AND c.key = :key`,
-    { type: QueryTypes.SELECT, replacements: { environmentId, key } },
-  );
+  const [row] = await sequelize.query<ComponentRow>(`${COMPONENT_SELECT} WHERE c.environment_id = :environmentId AND c.key = :key`, {
+    type: QueryTypes.SELECT,
+    replacements: { environmentId, key },
+  });
   if (!row) throw notFound(`Component "${key}"`);
   const edges = (direction: "needs" | "dependents") =>
     sequelize.query<ComponentEdge>(
@@ -68,19 +48,8 @@ export async function getComponentDetail({ environmentId, key }: { environmentId
     ),
   ]);
   return {
-    key: row.key,
-    name: row.name,
-    kind: row.kind,
-    team: row.team,
-    declaredTeam: row.declared_team,
-    tier: row.tier as Tier,
-    replicas: row.replicas,
-    zones: row.zones,
-    tags: row.tags,
+    ...toComponentListItem(row),
     links: row.links,
-    source: row.source,
-    notes: row.notes,
-    singlePoint: isSinglePoint(row.replicas, row.zones),
     annotationUpdatedAt: row.updated_at?.toISOString() ?? null,
     needs,
     dependents,

@@ -28,7 +28,8 @@ export interface ComponentFilter {
   unowned?: boolean;
 }
 
-interface Row {
+/** A component row with its owner annotation and source, as COMPONENT_SELECT returns it. */
+export interface ComponentRow {
   key: string;
   name: string;
   kind: ComponentKind;
@@ -40,9 +41,19 @@ interface Row {
   tags: string[];
   source: string | null;
   notes: string | null;
+  links: Record<string, string>;
+  updated_at: Date | null;
 }
 
-const toItem = (r: Row): ComponentListItem => ({
+/** Components with their effective owner (assigned, else declared), notes and source; add a WHERE. */
+export const COMPONENT_SELECT = `
+  SELECT c.key, c.name, c.kind, COALESCE(a.owner_team, c.team) AS team, c.team AS declared_team, c.tier,
+         c.replicas, c.zones, c.tags, c.links, s.name AS source, a.notes, a.updated_at
+    FROM components c
+    LEFT JOIN component_annotations a ON a.environment_id = c.environment_id AND a.key = c.key
+    LEFT JOIN sources s ON s.id = c.source_id`;
+
+export const toComponentListItem = (r: ComponentRow): ComponentListItem => ({
   key: r.key,
   name: r.name,
   kind: r.kind,
@@ -79,17 +90,11 @@ export async function listComponents({
     replacements.q = `%${filter.q.replace(/[\\%_]/g, (m) => `\\${m}`)}%`;
   }
   if (filter.unowned) where.push("COALESCE(a.owner_team, c.team) IS NULL AND c.kind <> 'undeclared'");
-  const rows = await db().sequelize.query<Row>(
-    `SELECT c.key, c.name, c.kind, COALESCE(a.owner_team, c.team) AS team, c.team AS declared_team, c.tier,
-            c.replicas, c.zones, c.tags, s.name AS source, a.notes
-       FROM components c
-       LEFT JOIN component_annotations a ON a.environment_id = c.environment_id AND a.key = c.key
-       LEFT JOIN sources s ON s.id = c.source_id
-      WHERE ${where.join(" AND ")}
-      ORDER BY c.key`,
-    { type: QueryTypes.SELECT, replacements },
-  );
-  return rows.map(toItem);
+  const rows = await db().sequelize.query<ComponentRow>(`${COMPONENT_SELECT} WHERE ${where.join(" AND ")} ORDER BY c.key`, {
+    type: QueryTypes.SELECT,
+    replacements,
+  });
+  return rows.map(toComponentListItem);
 }
 
 export interface EnvironmentCounts {

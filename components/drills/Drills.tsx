@@ -18,7 +18,7 @@ import { fetchJson, type ApiError } from "@/lib/client/fetcher";
 import type { analysisMeta } from "@/lib/data/environment-analysis";
 import type { DrillResponse } from "@/lib/data/snapshot-graph";
 import { MiniMap } from "./MiniMap";
-import { incidentSummary, unownedFirst } from "./summary";
+import { incidentSummary } from "./summary";
 
 type DrillResult = DrillResponse & ReturnType<typeof analysisMeta>;
 
@@ -154,7 +154,7 @@ export function Drills({ env }: { env: string }) {
               Who to page <span className="text-sm font-normal text-muted">({result.teams.length} teams, unowned first, then most affected)</span>
             </h2>
             <div className="grid gap-3 lg:grid-cols-2">
-              {unownedFirst(result.teams).map((t) => (
+              {result.teams.map((t) => (
                 <section key={t.team ?? "(none)"} className="rounded-lg border border-line bg-surface p-4" data-testid="drill-team">
                   <header className="flex flex-wrap items-baseline justify-between gap-2">
                     <h3 className="font-semibold">{t.team ? (t.contact?.name ?? t.team) : <span className="text-degraded">Unowned — nobody is paged</span>}</h3>

@@ -3,10 +3,6 @@ import type { DrillResponse } from "@/lib/data/snapshot-graph";
 import type { analysisMeta } from "@/lib/data/environment-analysis";
 import { dateTime, percent } from "@/components/ui/format";
 
-/** Unowned first: nobody is paged for those, so they need a human to notice them before anyone else. */
-export function unownedFirst<T extends { team: string | null }>(teams: readonly T[]): T[] {
-  return [...teams.filter((t) => !t.team), ...teams.filter((t) => t.team)];
-}
 
 export function incidentSummary({ env, result, link, undeclared }: { env: string; result: DrillResponse & Pick<ReturnType<typeof analysisMeta>, "snapshot">; link: string; undeclared: ReadonlySet<string> }): string {
   const lines: string[] = [];
@@ -19,7 +15,7 @@ export function incidentSummary({ env, result, link, undeclared }: { env: string
   if (placeholders.length) lines.push(`Includes ${placeholders.length} undeclared (needed by something, declared by no source): ${placeholders.join(", ")}`);
   lines.push("");
   lines.push("Teams to page, unowned first, then most affected:");
-  for (const t of unownedFirst(result.teams)) {
+  for (const t of result.teams) {
     const counts = `${t.down.length} down, ${t.degraded.length} degraded`;
     if (!t.team) {
       lines.push(`- unowned, nobody is paged: ${counts} — ${[...t.down, ...t.degraded].slice(0, 10).join(", ")}${t.down.length + t.degraded.length > 10 ? ", …" : ""}`);

@@ -17,7 +17,12 @@ export interface DrillResult {
   unknown: string[];
 }
 
-export function drill(graph: CompactGraph, request: DrillRequest): DrillResult {
+/**
+ * `teamOf` gives the team to page for a component (the caller may know owners the graph does not);
+ * by default the team the graph carries. Teams come back unowned first — nobody is paged for
+ * those, so a person must notice them — then by how much each has down, then degraded.
+ */
+export function drill(graph: CompactGraph, request: DrillRequest, teamOf: (v: number) => string | null = (v) => graph.team[v] ?? null): DrillResult {
   const unknown: string[] = [];
   const components: number[] = [];
   for (const k of request.components ?? []) {
@@ -40,13 +45,19 @@ export function drill(graph: CompactGraph, request: DrillRequest): DrillResult {
   const byTier = { "1": 0, "2": 0, "3": 0, "4": 0 };
   for (const v of result.down) {
     const k = graph.keys[v]!;
-    entry(graph.team[v] ?? null).down.push(k);
+    entry(teamOf(v)).down.push(k);
     const t = String(graph.tier[v]) as keyof typeof byTier;
     byTier[t]++;
   }
-  for (const v of result.degraded) entry(graph.team[v] ?? null).degraded.push(graph.keys[v]!);
+  for (const v of result.degraded) entry(teamOf(v)).degraded.push(graph.keys[v]!);
   const teams = [...byTeam.entries()]
     .map(([team, e]) => ({ team, ...e }))
-    .sort((a, b) => b.down.length - a.down.length || (a.team ?? "~").localeCompare(b.team ?? "~"));
+    .sort(
+      (a, b) =>
+        Number(a.team !== null) - Number(b.team !== null) ||
+        b.down.length - a.down.length ||
+        b.degraded.length - a.degraded.length ||
+        (a.team ?? "").localeCompare(b.team ?? ""),
+    );
   return { down, degraded, teams, byTier, unknown };
 }

@@ -83,27 +83,16 @@ export async function runDrill({
   if (unknownZones.length) {
     throw new AppError("invalid_request", `No component runs in ${unknownZones.join(", ")}`, unknownZones.map((z) => ({ path: "fail.zones", message: `no component declares zone "${z}"; known zones: ${[...knownZones].sort().join(", ") || "none"}` })));
   }
-  const result = drill(graph, request);
+  const [assigned, contacts] = await Promise.all([effectiveOwners({ environmentId }), teamContacts()]);
+  const teamOf = (v: number): string | null => {
+    const key = graph.keys[v]!;
+    return assigned.has(key) ? (assigned.get(key) ?? null) : (graph.team[v] ?? null);
+  };
+  const result = drill(graph, request, teamOf);
   if (result.unknown.length) {
     throw new AppError("invalid_request", `Unknown component${result.unknown.length > 1 ? "s" : ""}: ${result.unknown.join(", ")}`, result.unknown.map((k) => ({ path: "fail.components", message: `no component "${k}" in snapshot #${snapshot.number}` })));
   }
-  const [assigned, contacts] = await Promise.all([effectiveOwners({ environmentId }), teamContacts()]);
-  const teamOf = (key: string): string | null => {
-    if (assigned.has(key)) return assigned.get(key) ?? null;
-    const i = graph.indexOf.get(key);
-    return i === undefined ? null : (graph.team[i] ?? null);
-  };
-  const byTeam = new Map<string | null, { down: string[]; degraded: string[] }>();
-  const slot = (team: string | null) => {
-    let e = byTeam.get(team);
-    if (!e) byTeam.set(team, (e = { down: [], degraded: [] }));
-    return e;
-  };
-  for (const k of result.down) slot(teamOf(k)).down.push(k);
-  for (const k of result.degraded) slot(teamOf(k)).degraded.push(k);
-  const teams = [...byTeam.entries()]
-    .map(([team, e]) => ({ team, contact: team ? (contacts.get(team) ?? null) : null, ...e }))
-    .sort((a, b) => b.down.length - a.down.length || b.degraded.length - a.degraded.length || (a.team ?? "~").localeCompare(b.team ?? "~"));
+  const teams = result.teams.map((t) => ({ ...t, contact: t.team ? (contacts.get(t.team) ?? null) : null }));
   return {
     failed: { components: [...(request.components ?? [])], zones: [...(request.zones ?? [])] },
     down: result.down,

@@ -112,4 +112,16 @@ describe("drill (API shape)", () => {
     expect(r.byTier).toEqual({ "1": 2, "2": 1, "3": 0, "4": 0 });
     expect(r.teams.map((t) => t.team).sort()).toEqual(["identity", "payments", "storefront"]);
   });
+
+  it("pages by the owner the caller knows, unowned first (nobody is paged for those)", () => {
+    // The caller's owners override the graph's: checkout has no owner now, web moved to payments.
+    const owners: Record<string, string | null> = { checkout: null, web: "payments" };
+    const teamOf = (v: number) => {
+      const k = g.keys[v]!;
+      return k in owners ? (owners[k] ?? null) : (g.team[v] ?? null);
+    };
+    const r = drill(g, { components: ["sessions"] }, teamOf);
+    expect(r.teams[0]).toMatchObject({ team: null, down: ["checkout"] });
+    expect(r.teams.find((t) => t.team === "payments")?.down).toContain("web");
+  });
 });

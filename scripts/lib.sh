@@ -51,3 +51,13 @@ wait_for_http() {
     sleep 0.2
   done
 }
+
+# Is nothing listening on 127.0.0.1:PORT? (bash's /dev/tcp: no extra tool needed)
+port_free() { ! (exec 3<>"/dev/tcp/127.0.0.1/$1") 2>/dev/null; }
+
+# The first free port from $1 upward, so that a second checkout's tests do not collide with the first's.
+pick_port() {
+  local p=$1
+  while ! port_free "$p"; do p=$((p + 1)); done
+  echo "$p"
+}

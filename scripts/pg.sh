@@ -115,6 +115,10 @@ CONF
         rm -f "$data/postmaster.pid"
       fi
     fi
+    if ! (! (exec 3<>"/dev/tcp/127.0.0.1/$port") 2>/dev/null); then
+      say "port $port on 127.0.0.1 is taken by another process (another checkout's cluster?); choose another with PINCHPOINT_PG_PORT (tests: PINCHPOINT_TEST_PG_PORT)"
+      exit 1
+    fi
     as_pg "$bin/pg_ctl" -D "$data" -l "$data/server.log" -o "-p $port ${PINCHPOINT_PG_OPTIONS:-}" -w -t 60 start >/dev/null \
       || { say "start failed; last lines of $data/server.log:"; tail -n 20 "$data/server.log" >&2; exit 1; }
   fi

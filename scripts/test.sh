@@ -12,13 +12,22 @@ ensure_node_modules
 ensure_apt \
   "test -x /usr/bin/chromium" chromium \
   "/usr/bin/python3 -c 'import networkx'" python3-networkx \
+  "/usr/bin/python3 -c 'import scipy'" python3-scipy \
   "/usr/bin/python3 -c 'import igraph'" python3-igraph \
   "command -v curl" curl
 
-# Our own cluster: another port and folder than the demo's, fsync off (throwaway data).
-export PINCHPOINT_PG_PORT=${PINCHPOINT_TEST_PG_PORT:-54339}
+# Our own cluster: another port and folder than the demo's, fsync off (throwaway data). Ports not
+# set by the caller are the first free ones from the defaults up, so two checkouts can test at once.
 export PINCHPOINT_PG_NAME=pg-test
 export PINCHPOINT_PG_OPTIONS="-c fsync=off -c synchronous_commit=off -c full_page_writes=off"
+bash scripts/pg.sh stop 2>/dev/null || true   # a cluster this checkout left running earlier
+export PINCHPOINT_PG_PORT=${PINCHPOINT_TEST_PG_PORT:-$(pick_port 54339)}
+export PINCHPOINT_E2E_PORT=${PINCHPOINT_E2E_PORT:-$(pick_port 3100)}
+export PINCHPOINT_E2E_OIDC_PORT=${PINCHPOINT_E2E_OIDC_PORT:-$(pick_port 3111)}
+export PINCHPOINT_E2E_SMTP_PORT=${PINCHPOINT_E2E_SMTP_PORT:-$(pick_port 2535)}
+# What the suite starts, it stops, whether it passes, fails or is interrupted.
+trap 'bash scripts/pg.sh stop || true' EXIT
+trap 'exit 130' INT TERM
 eval "$(bash scripts/pg.sh start)"
 export PINCHPOINT_TEST_ADMIN_URL=$DATABASE_URL
 export NEXTAUTH_SECRET=test-secret-not-for-production

@@ -10,7 +10,7 @@ export function importInventory(req: ImportRequest): ImportResult {
   // Size first: a 413 must not cost a decode or a parse.
   const text = checkedText(req.body);
   if (!text.ok) return text;
-  const opts = { text: text.text, contentType: req.contentType, source: req.source, environment: req.environment };
+  const opts = { text: text.text, contentType: req.contentType, source: req.source, environment: req.environment, positions: req.positions };
   switch (req.format) {
     case "pinchpoint":
       return parsePinchpoint(opts);

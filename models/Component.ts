@@ -15,6 +15,8 @@ export class Component extends Model<InferAttributes<Component>, InferCreationAt
   declare zones: string[];
   declare tags: string[];
   declare links: Record<string, string>;
+  /** Other names it is known by (keys and aliases are one namespace per environment). */
+  declare aliases: CreationOptional<string[]>;
   /** null for an `undeclared` placeholder */
   declare sourceId: string | null;
 
@@ -32,6 +34,7 @@ export class Component extends Model<InferAttributes<Component>, InferCreationAt
         zones: { type: DataTypes.ARRAY(DataTypes.TEXT), allowNull: false },
         tags: { type: DataTypes.ARRAY(DataTypes.TEXT), allowNull: false },
         links: { type: DataTypes.JSONB, allowNull: false },
+        aliases: { type: DataTypes.ARRAY(DataTypes.TEXT), allowNull: false, defaultValue: [] },
         sourceId: { type: DataTypes.UUID, allowNull: true },
       },
       { sequelize, tableName: "components", underscored: true, timestamps: false },

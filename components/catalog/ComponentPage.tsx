@@ -33,6 +33,12 @@ function Field({ label, children }: { label: string; children: ReactNode }) {
   );
 }
 
+const STRENGTH_BADGE = {
+  hard: { tone: "down", title: "down when this need is unmet" },
+  soft: { tone: "degraded", title: "degraded, not down, when unmet" },
+  startup: { tone: "muted", title: "needed only to start: orders the cold start, takes nothing down" },
+} as const;
+
 function EdgeList({ env, edges, empty }: { env: string; edges: ComponentEdge[]; empty: string }) {
   if (!edges.length) return <p className="text-sm text-muted">{empty}</p>;
   return (
@@ -42,8 +48,8 @@ function EdgeList({ env, edges, empty }: { env: string; edges: ComponentEdge[]; 
           <Link href={`/environments/${env}/components/${encodeURIComponent(e.key)}`} className="font-mono text-ink hover:underline">
             {e.key}
           </Link>
-          <Badge tone={e.strength === "hard" ? "down" : "degraded"} title={e.strength === "hard" ? "down when this need is unmet" : "degraded, not down, when unmet"}>
-            {e.strength}
+          <Badge tone={STRENGTH_BADGE[e.strength].tone} title={STRENGTH_BADGE[e.strength].title}>
+            {e.strength === "startup" ? "start-up only" : e.strength}
           </Badge>
           {e.group && <Badge tone="info" title="Met while any one member of the group is up">any of</Badge>}
           {e.kind === "undeclared" && <Badge tone="undeclared" title="needed by something, declared by no source">undeclared</Badge>}

@@ -13,7 +13,8 @@ export function fieldChanges(c: ComponentChange): string[] {
 }
 
 export function dependencyLine(d: SnapshotDependency): string {
-  return `${d.from} → ${d.to} (${d.strength}${d.group ? ", any-of group" : ""}${d.via ? `, via ${d.via}` : ""})`;
+  const known = d.provenance?.filter((p) => p !== "declared") ?? [];
+  return `${d.from} → ${d.to} (${d.strength}${d.group ? ", any-of group" : ""}${d.via ? `, via ${d.via}` : ""}${known.length ? `, ${known.join(" and ")}` : ""})`;
 }
 
 export function dependencyChangeLine(d: DependencyChange): string {

@@ -371,7 +371,7 @@ function MapCanvasInner(props: MapCanvasProps) {
       const sy = s.y + s.height;
       const midY = (sy + t.y) / 2;
       const points = route ?? [{ x: sx, y: sy }, { x: sx, y: midY }, { x: tx, y: midY }, { x: tx, y: t.y }];
-      return [{ points, strength: e.data.edge.strength, inCycle: e.data.edge.inCycle }];
+      return [{ points, strength: e.data.edge.strength, inferred: e.data.edge.inferred, inCycle: e.data.edge.inCycle }];
     });
     const { svg, width, height } = renderSvg({ nodes, edges, groups, theme: readExportTheme(), title: `Pinchpoint map: ${graph.environment}` });
     const base = `pinchpoint-${graph.environment}-map${selection.focus ? `-${selection.focus}` : ""}`;
@@ -471,6 +471,10 @@ function MapCanvasInner(props: MapCanvasProps) {
                 <label className="pp-check">
                   <input type="checkbox" checked={filters.soft} onChange={() => setFilters((f) => ({ ...f, soft: !f.soft }))} />
                   soft (degraded when unmet)
+                </label>
+                <label className="pp-check">
+                  <input type="checkbox" checked={filters.startup} onChange={() => setFilters((f) => ({ ...f, startup: !f.startup }))} />
+                  start-up only (boot order)
                 </label>
               </fieldset>
               <button type="button" className="pp-btn" onClick={() => setFilters(NO_FILTERS)} aria-label="Clear all filters">
@@ -764,6 +768,12 @@ function LegendPanel({ legend }: { legend: Legend }) {
         </li>
         <li className="flex items-center gap-1.5">
           <svg width={30} height={8} aria-hidden="true"><line x1={0} y1={4} x2={30} y2={4} className="pp-legend-edge pp-edge-soft" /></svg>soft need
+        </li>
+        <li className="flex items-center gap-1.5">
+          <svg width={30} height={8} aria-hidden="true"><line x1={0} y1={4} x2={30} y2={4} className="pp-legend-edge pp-edge-startup" /></svg>needed only to start
+        </li>
+        <li className="flex items-center gap-1.5">
+          <svg width={30} height={8} aria-hidden="true"><line x1={0} y1={4} x2={30} y2={4} className="pp-legend-edge pp-edge-inferred" /></svg>inferred from configuration
         </li>
         <li className="flex items-center gap-1.5">
           <svg width={30} height={8} aria-hidden="true"><line x1={0} y1={4} x2={30} y2={4} className="pp-legend-edge pp-legend-cycle" /></svg>in a cycle (↻)

@@ -4,8 +4,16 @@
 import { polylinePath, type Box } from "./layout";
 import { KIND_LABEL, shapePaths } from "./shapes";
 import type { NodePaint } from "./colour";
-import type { ComponentKind } from "@/lib/inventory/types";
+import type { ComponentKind, Strength } from "@/lib/inventory/types";
 import type { Position } from "./types";
+
+/** The same line styles as map.css, as SVG attributes. */
+const EDGE_DASH: Record<Strength | "inferred", string> = {
+  hard: "",
+  soft: ' stroke-dasharray="6 4"',
+  startup: ' stroke-dasharray="1.5 4" stroke-linecap="round"',
+  inferred: ' stroke-dasharray="10 3 2 3"',
+};
 
 export interface ExportTheme {
   canvas: string;
@@ -44,7 +52,8 @@ export interface ExportNode {
 
 export interface ExportEdge {
   points: Position[];
-  strength: "hard" | "soft";
+  strength: Strength;
+  inferred: boolean;
   inCycle: boolean;
 }
 
@@ -106,7 +115,7 @@ export function renderSvg(args: {
     if (e.points.length < 2) continue;
     const stroke = e.inCycle ? theme.cycle : theme.muted;
     out.push(
-      `<path d="${polylinePath(e.points)}" fill="none" stroke="${stroke}" stroke-width="${e.inCycle ? 2 : 1.3}"${e.strength === "soft" ? ' stroke-dasharray="6 4"' : ""} marker-end="url(#${e.inCycle ? "pp-arrow-cycle" : "pp-arrow"})"/>`,
+      `<path d="${polylinePath(e.points)}" fill="none" stroke="${stroke}" stroke-width="${e.inCycle ? 2 : 1.3}"${EDGE_DASH[e.inferred ? "inferred" : e.strength]} marker-end="url(#${e.inCycle ? "pp-arrow-cycle" : "pp-arrow"})"/>`,
     );
   }
   for (const n of nodes) {

@@ -151,7 +151,7 @@ export const RoutedEdge = memo(function RoutedEdge(props: EdgeProps<MapFlowEdge>
   const path = !stale && route ? polylinePath(route) : stepPath;
   const mid = !stale && route ? polylineMidpoint(route) : { x: (props.sourceX + props.targetX) / 2, y: (props.sourceY + props.targetY) / 2 };
   const touched = decor.selected !== null && (props.source === decor.selected || props.target === decor.selected);
-  const cls = ["pp-edge", edge?.strength === "soft" ? "pp-edge-soft" : "", edge?.inCycle ? "pp-edge-cycle" : "", touched ? "pp-edge-touched" : ""]
+  const cls = ["pp-edge", edge && edge.strength !== "hard" ? `pp-edge-${edge.strength}` : "", edge?.inferred ? "pp-edge-inferred" : "", edge?.inCycle ? "pp-edge-cycle" : "", touched ? "pp-edge-touched" : ""]
     .filter(Boolean)
     .join(" ");
   return (

@@ -80,6 +80,14 @@ export function shapePaths(kind: ComponentKind, w: number, h: number): ShapePath
       const c = 14;
       return { outline: `M0,0 H${f(w - c)} L${f(w)},${c} V${f(h)} H0 Z`, detail: `M${f(w - c)},0 V${c} H${f(w)}` };
     }
+    case "telemetry": {
+      // a soft box with a pulse trace across it: it watches, it serves nothing
+      const y = h / 2;
+      return {
+        outline: roundedRect(w, h, 16),
+        detail: `M6,${f(y)} H${f(w * 0.3)} L${f(w * 0.36)},${f(y - 9)} L${f(w * 0.44)},${f(y + 9)} L${f(w * 0.5)},${f(y)} H${f(w - 6)}`,
+      };
+    }
     case "undeclared":
       // square corners and (in the renderer) a dashed grey outline: a key nobody has declared
       return { outline: roundedRect(w, h, 3), detail: null };
@@ -114,5 +122,6 @@ export const KIND_LABEL: Record<ComponentKind, string> = {
   platform: "platform",
   external: "external",
   job: "job",
+  telemetry: "telemetry",
   undeclared: "undeclared",
 };

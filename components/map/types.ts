@@ -1,7 +1,7 @@
 // The map's input, exactly as `GET /api/v1/environments/{env}/graph` serves it.
 // The schema lets the client parse the response (a boundary) rather than trust it.
 import { z } from "zod";
-import { COMPONENT_KINDS, type ComponentKind } from "@/lib/inventory/types";
+import { COMPONENT_KINDS, PROVENANCES, STRENGTHS, type ComponentKind } from "@/lib/inventory/types";
 
 export const MAP_KINDS = [...COMPONENT_KINDS, "undeclared"] as const satisfies readonly ComponentKind[];
 
@@ -32,7 +32,9 @@ export const mapNodeSchema = z.object({
 export const mapEdgeSchema = z.object({
   from: z.string(),
   to: z.string(),
-  strength: z.enum(["hard", "soft"]),
+  strength: z.enum(STRENGTHS),
+  /** How the need is known; absent means declared only. */
+  provenance: z.array(z.enum(PROVENANCES)).optional(),
   group: z.string().nullable(),
   inCycle: z.boolean(),
 });

@@ -1,7 +1,11 @@
 // Pure view model of the map: which components and edges are on the canvas after the
 // filters, the focus neighbourhood and the team grouping. No React, no ELK.
-import type { ComponentKind, Tier } from "@/lib/inventory/types";
+import { strongerStrength, type ComponentKind, type Strength, type Tier } from "@/lib/inventory/types";
 import type { MapEdge, MapGraph, MapNode } from "./types";
+
+/** Known only from a host name in configuration: drawn apart so nobody mistakes it for a declared need. */
+export const isInferredOnly = (e: Pick<MapEdge, "provenance">): boolean =>
+  e.provenance !== undefined && e.provenance.length > 0 && e.provenance.every((p) => p === "inferred");
 
 /** Team slot for components with no owner; never a valid slug (slugs start [a-z0-9]). */
 export const UNOWNED = "_unowned";
@@ -19,9 +23,10 @@ export interface MapFilters {
   kinds: ReadonlySet<ComponentKind> | null;
   hard: boolean;
   soft: boolean;
+  startup: boolean;
 }
 
-export const NO_FILTERS: MapFilters = { teams: null, tiers: null, kinds: null, hard: true, soft: true };
+export const NO_FILTERS: MapFilters = { teams: null, tiers: null, kinds: null, hard: true, soft: true, startup: true };
 
 export interface Adjacency {
   /** needs: dependent → what it needs */
@@ -87,7 +92,7 @@ export function nodePasses(node: MapNode, f: MapFilters): boolean {
 }
 
 export function edgePasses(edge: MapEdge, f: MapFilters): boolean {
-  return edge.strength === "hard" ? f.hard : f.soft;
+  return f[edge.strength];
 }
 
 /** Filters nodes and edges; `keep` (the focused component) survives any node filter so focus never points at nothing. */
@@ -128,8 +133,10 @@ export interface ViewEdge {
   id: string;
   source: string;
   target: string;
-  /** hard when any underlying dependency is hard */
-  strength: "hard" | "soft";
+  /** the strongest of the underlying dependencies (hard, then soft, then startup) */
+  strength: Strength;
+  /** every underlying dependency was inferred from configuration */
+  inferred: boolean;
   inCycle: boolean;
   /** how many component-level dependencies this edge stands for (>1 only between collapsed teams) */
   count: number;
@@ -233,10 +240,11 @@ export function groupSelection(graph: Pick<MapGraph, "teams">, selection: Select
     const prev = byId.get(id);
     if (prev) {
       if (fresh) prev.count += 1;
-      if (e.strength === "hard") prev.strength = "hard";
+      prev.strength = strongerStrength(prev.strength, e.strength);
+      if (!isInferredOnly(e)) prev.inferred = false;
       if (e.inCycle) prev.inCycle = true;
     } else {
-      byId.set(id, { id, source, target, strength: e.strength, inCycle: e.inCycle, count: 1 });
+      byId.set(id, { id, source, target, strength: e.strength, inferred: isInferredOnly(e), inCycle: e.inCycle, count: 1 });
     }
   }
   return { items, groups, edges: [...byId.values()], componentCount: nodes.length, focus: focusKey };

@@ -157,6 +157,7 @@ function readServices(
       zones: [],
       tags: [],
       links: {},
+      aliases: [],
       needs: [...needs].map(([k, strength]): Need => ({ type: "single", key: k, strength, via: null })),
     });
   }

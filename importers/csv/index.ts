@@ -140,6 +140,7 @@ export function parseCsv(opts: Omit<CsvOptions, "body"> & { text: string }): Imp
     zones: [],
     tags: [],
     links: {},
+    aliases: [],
     needs: [...targets].map(([k, strength]) => ({ type: "single", key: k, strength, via: null })),
   }));
   return { ok: true, inventory: { source: origin.source, environment: origin.environment, components, observedEdges: [], warnings } };

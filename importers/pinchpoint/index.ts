@@ -10,6 +10,7 @@ export function importPinchpoint(opts: {
   contentType?: string;
   source?: string;
   environment?: string;
+  positions?: boolean;
 }): ImportResult {
   const text = checkedText(opts.body);
   if (!text.ok) return text;

@@ -9,12 +9,13 @@ import {
   needBranch,
 } from "@/lib/inventory/schema";
 import { MAX_COMPONENTS } from "@/lib/inventory/limits";
-import type {
-  ImportResult,
-  InventoryComponent,
-  InventoryIssue,
-  Need,
-  NormalisedInventory,
+import {
+  strongerStrength,
+  type ImportResult,
+  type InventoryComponent,
+  type InventoryIssue,
+  type Need,
+  type NormalisedInventory,
 } from "@/lib/inventory/types";
 import { isRecord, loadStructured, looksLikeJson, type StructuredSource } from "../shared/structured";
 import { finishIssues, formatPath, type PathSegment } from "../shared/text";
@@ -26,6 +27,8 @@ export interface ParsePinchpointOptions {
   /** From the push URL; when the file names one too they must agree. */
   source?: string;
   environment?: string;
+  /** Fill `at` on every component and need (see ImportRequest.positions). */
+  positions?: boolean;
 }
 
 export const DEFAULT_TIER = 3;
@@ -137,7 +140,9 @@ function normalise(file: InventoryFile, src: StructuredSource, opts: ParsePinchp
       tags: unique(c.tags ?? d.tags ?? []),
       // Links merge name by name so a shared `repo` link in defaults survives a component's own `runbook`.
       links: { ...d.links, ...c.links },
-      needs: normaliseNeeds(c, i, src, warnings),
+      aliases: unique(c.aliases ?? []),
+      needs: normaliseNeeds(c, i, src, warnings, opts.positions === true),
+      ...(opts.positions ? { at: src.locate(["components", i]) } : {}),
     };
   });
   return {
@@ -155,11 +160,12 @@ function normalise(file: InventoryFile, src: StructuredSource, opts: ParsePinchp
  * is the safer one for blast radius) and the first `via` given is kept. The same holds for
  * two any_of groups with the same members.
  */
-function normaliseNeeds(c: ComponentEntry, i: number, src: StructuredSource, warnings: InventoryIssue[]): Need[] {
+function normaliseNeeds(c: ComponentEntry, i: number, src: StructuredSource, warnings: InventoryIssue[], positions: boolean): Need[] {
   const out: Need[] = [];
   const index = new Map<string, { need: Need; j: number }>();
   (c.needs ?? []).forEach((entry: NeedEntry, j) => {
     const need = toNeed(entry);
+    if (positions) need.at = src.locate(["components", i, "needs", j]);
     const id = need.type === "single" ? `1:${need.key}` : `n:${[...need.keys].sort().join(",")}`;
     const prior = index.get(id);
     if (!prior) {
@@ -167,7 +173,7 @@ function normaliseNeeds(c: ComponentEntry, i: number, src: StructuredSource, war
       out.push(need);
       return;
     }
-    if (need.strength === "hard") prior.need.strength = "hard";
+    prior.need.strength = strongerStrength(prior.need.strength, need.strength);
     prior.need.via ??= need.via;
     const what = need.type === "single" ? `need on ${JSON.stringify(need.key)}` : "any_of group with these members";
     warnings.push(at(src, ["components", i, "needs", j], `${what} repeats needs[${prior.j}]; merged into it`));

@@ -16,9 +16,10 @@ export interface BootOrderResult {
   waitsOnCycle: Uint8Array;
 }
 
+/** `components` must be the SCCs of `graph.boot` (start-up-only needs order a cold start too). */
 export function bootOrder(graph: CompactGraph, components: SccResult): BootOrderResult {
   const { n } = graph;
-  const { offsets, targets } = graph.out;
+  const { offsets, targets } = graph.boot;
   const { comp, count, members } = components;
   const stageOfComp = new Int32Array(count);
   const cycleComp = new Uint8Array(count);

@@ -51,8 +51,14 @@ export interface CompactGraph {
    * component that needs itself is a dependency cycle.
    */
   selfLoop: Uint8Array;
-  /** Simple directed graph, dependent → need, no self-loops, each pair once, rows sorted. */
+  /**
+   * Simple directed graph of runtime needs (hard and soft), dependent → need, no self-loops, each
+   * pair once, rows sorted. Start-up-only needs are left out: a running component does not fail
+   * with a one-shot job, so they are not paths failure travels along (DESIGN §10).
+   */
   out: Csr;
+  /** Every need, start-up-only ones included: what a cold start must order. `out` itself when there are none. */
+  boot: Csr;
   /** The same edges reversed: need → dependents. */
   in: Csr;
   /** Undirected simple projection: u–v when u→v or v→u. */
@@ -142,16 +148,24 @@ export function buildGraph(input: AnalysisInput): CompactGraph {
   const selfLoop = new Uint8Array(n);
   const f = new Int32Array(m0);
   const t = new Int32Array(m0);
+  const bf = new Int32Array(m0);
+  const bt = new Int32Array(m0);
   let m = 0;
+  let mb = 0;
   for (let e = 0; e < m0; e++) {
-    if (from[e] === to[e]) selfLoop[from[e]!] = 1;
-    else {
-      f[m] = from[e]!;
-      t[m] = to[e]!;
-      m++;
+    if (from[e] === to[e]) {
+      selfLoop[from[e]!] = 1;
+      continue;
     }
+    bf[mb] = from[e]!;
+    bt[mb++] = to[e]!;
+    if (edges[e]!.strength === "startup") continue;
+    f[m] = from[e]!;
+    t[m] = to[e]!;
+    m++;
   }
   const out = toCsr(n, f, t, m);
+  const boot = mb === m ? out : toCsr(n, bf, bt, mb);
   const inn = reverseCsr(n, out);
   const um = out.targets.length;
   const uf = new Int32Array(2 * um);
@@ -178,6 +192,7 @@ export function buildGraph(input: AnalysisInput): CompactGraph {
     team,
     selfLoop,
     out,
+    boot,
     in: inn,
     undirected,
     edgeCount: um,
@@ -195,6 +210,8 @@ function buildNeeds(input: AnalysisInput, n: number, from: Int32Array, to: Int32
   const hard: number[] = [];
   const members: number[][] = [];
   input.edges.forEach((edge, e) => {
+    // Blast radius and drills ignore start-up-only needs (DESIGN §10).
+    if (edge.strength === "startup") return;
     const u = from[e]!;
     const v = to[e]!;
     const isHard = edge.strength === "hard";

@@ -92,7 +92,7 @@ export async function analyse(
   const cc = await phase("clustering", () => clustering(graph));
   const ap = await phase("articulation", () => articulation(graph));
   const comps = await phase("scc", () => scc(graph));
-  const boot = await phase("boot-order", () => bootOrder(graph, comps));
+  const boot = await phase("boot-order", () => bootOrder(graph, graph.boot === graph.out ? comps : scc(graph, graph.boot)));
   const dom = await phase("dominators", () =>
     dominators(graph, { maxTreeEntries: opts.maxDominatorTreeEntries }),
   );
@@ -138,7 +138,7 @@ export async function analyse(
       implicitKeys: [...graph.implicitKeys],
       bridges: ap.bridges.map(([a, b]) => [key(a), key(b)]),
       cycles,
-      bootOrder: { stages: boot.stages.map((s) => s.map(key)), cycles, waitingOnCycle },
+      bootOrder: { stages: boot.stages.map((s) => s.map(key)), cycles: boot.cycles.map((c) => c.map(key)), waitingOnCycle },
       exact: bc.exact,
       sampleSize: bc.sampleSize,
       betweennessThreads: bc.threadsUsed,

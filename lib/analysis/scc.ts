@@ -1,7 +1,7 @@
 // Strongly connected components (Tarjan, "Depth-first search and linear graph algorithms",
 // SIAM J. Comput. 1, 1972), iterative. A component of size > 1, or a component that needs itself,
 // is a dependency cycle.
-import type { CompactGraph } from "./graph";
+import type { CompactGraph, Csr } from "./graph";
 
 export interface SccResult {
   /** Component id of each node. Ids are in Tarjan's emission order, a reverse topological order
@@ -17,9 +17,10 @@ export interface SccResult {
   cycles: number[][];
 }
 
-export function scc(graph: CompactGraph): SccResult {
+/** Over the runtime needs by default; boot order passes `graph.boot` to include start-up-only ones. */
+export function scc(graph: CompactGraph, adjacency: Csr = graph.out): SccResult {
   const { n } = graph;
-  const { offsets, targets } = graph.out;
+  const { offsets, targets } = adjacency;
   const index = new Int32Array(n).fill(-1);
   const low = new Int32Array(n);
   const onStack = new Uint8Array(n);

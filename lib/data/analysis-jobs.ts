@@ -4,7 +4,9 @@
 import { hostname } from "node:os";
 import { QueryTypes, type Transaction } from "sequelize";
 import { db } from "@/models";
-import { analyse, type AnalysisInput, type AnalysisResult } from "@/lib/analysis";
+import { analyse, type AnalysisResult } from "@/lib/analysis";
+import { analysisInputFromContent } from "@/lib/analysis/input";
+import { readSettings } from "@/lib/inventory/settings";
 import type { PinchWeights } from "@/lib/analysis/types";
 import type { SnapshotContent } from "@/lib/inventory/snapshot";
 import { noticeTopTenChanges } from "@/lib/mail";
@@ -66,20 +68,6 @@ export async function claimNextJob(worker = workerId()): Promise<ClaimedJob | nu
   return rows[0] ?? null;
 }
 
-export function analysisInputFromContent(content: SnapshotContent): AnalysisInput {
-  return {
-    nodes: content.components.map((c) => ({
-      key: c.key,
-      tier: c.tier,
-      replicas: c.replicas,
-      zones: c.zones,
-      team: c.team,
-      undeclared: c.kind === "undeclared",
-    })),
-    edges: content.dependencies.map((d) => ({ from: d.from, to: d.to, strength: d.strength, group: d.group })),
-  };
-}
-
 /** Run one claimed job to the end, storing results or the error. */
 export async function runJob(job: ClaimedJob, worker = workerId()): Promise<"done" | "failed" | "lost"> {
   const { models, sequelize } = db();
@@ -112,7 +100,7 @@ export async function runJob(job: ClaimedJob, worker = workerId()): Promise<"don
     void models.AnalysisRun.update({ heartbeatAt: new Date() }, { where: { id: job.id, lockedBy: worker } });
   }, 10_000);
   try {
-    const result = await analyse(analysisInputFromContent(snapshot.content), { weights: env.pinchWeights ?? undefined }, onProgress);
+    const result = await analyse(analysisInputFromContent(snapshot.content, readSettings(env.settings)), { weights: env.pinchWeights ?? undefined }, onProgress);
     await pending;
     const outcome = await storeResult({ jobId: job.id, worker, snapshotId: snapshot.id, content: snapshot.content, result });
     // Tell owners and architects about components new to the top ten (compared with the previous analysed snapshot).

@@ -57,7 +57,14 @@ export async function getMapGraph({ environmentId, slug }: { environmentId: stri
     }),
     edges: content.dependencies.map((d) => {
       const a = cycleOf.get(d.from);
-      return { from: d.from, to: d.to, strength: d.strength, group: d.group, inCycle: a !== undefined && a === cycleOf.get(d.to) };
+      return {
+        from: d.from,
+        to: d.to,
+        strength: d.strength,
+        group: d.group,
+        inCycle: a !== undefined && a === cycleOf.get(d.to),
+        ...(d.provenance ? { provenance: d.provenance } : {}),
+      };
     }),
   };
 }

@@ -5,7 +5,7 @@ import { QueryTypes, type Transaction } from "sequelize";
 import { db } from "@/models";
 import type { Actor } from "@/lib/auth/actor";
 import { recordAudit, type SystemActor } from "./audit";
-import { loadCurrentContent, writeSourceRows } from "./graph-content";
+import { loadCurrentContent, needOriginKey, refreshNeedOrigins, writeSourceRows, type NeedOrigins } from "./graph-content";
 import { queueAnalysis } from "./analysis-jobs";
 import { AppError, notFound } from "@/lib/errors";
 import { importInventory } from "@/importers";
@@ -97,6 +97,18 @@ function parse(input: PushInput): NormalisedInventory {
   return inventory;
 }
 
+/** Positions the importer found for needs (inferred ones carry theirs), keyed like the dependency rows. */
+function needOrigins(inventory: NormalisedInventory): NeedOrigins {
+  const out = new Map<string, NonNullable<NormalisedInventory["components"][number]["at"]>>();
+  for (const c of inventory.components) {
+    for (const need of c.needs) {
+      if (!need.at) continue;
+      for (const k of need.type === "single" ? [need.key] : need.keys) out.set(needOriginKey(c.key, k), need.at);
+    }
+  }
+  return out;
+}
+
 class DryRunRollback extends Error {
   constructor(readonly result: PushResult) {
     super("dry run");
@@ -159,6 +171,7 @@ async function applyInventory({
   const previous = await loadCurrentContent({ environmentId: environment.id }, transaction);
   let next: SnapshotContent = previous;
   let warnings = [...inventory.warnings];
+  let aliasesChanged = false;
 
   if (input.format === "otlp") {
     // Traces declare nothing: they replace the source's observed edges and leave the declared graph alone.
@@ -170,19 +183,20 @@ async function applyInventory({
     );
   } else {
     const merged = mergeSources({ existing: previous, source: inventory.source, incoming: inventory });
-    if (merged.conflicts.length) {
-      const first = merged.conflicts[0];
+    const first = merged.conflicts[0];
+    if (first) {
       throw new AppError(
         "conflict",
-        first
-          ? `"${first.key}" is already declared by source "${first.sources.find((s) => s !== inventory.source) ?? first.sources[0]}"; a key belongs to one source (this push is "${inventory.source}")`
-          : "Conflicting sources",
-        merged.conflicts.map((c) => ({ path: `components[key=${c.key}]`, message: `declared by both ${c.sources.map((s) => `"${s}"`).join(" and ")}` })),
+        `${first.message} (this push is "${inventory.source}")`,
+        merged.conflicts.map((c) => ({ path: `components[key=${c.key}]`, message: c.message })),
       );
     }
     next = merged.content;
-    warnings = [...warnings, ...merged.warnings];
+    // The merge's warnings start with the importer's own: take them once.
+    warnings = merged.warnings;
+    aliasesChanged = merged.aliasesChanged;
   }
+  const origins = needOrigins(inventory);
 
   const [latest] = await sequelize.query<{ number: number; hash: string }>(
     "SELECT number, hash FROM snapshots WHERE environment_id = :id ORDER BY number DESC LIMIT 1",
@@ -192,7 +206,12 @@ async function applyInventory({
   const changed = latest ? latest.hash !== hash : next.components.length > 0;
   // The tables always hold the latest snapshot's graph, so identical content needs no rewrite.
   if (changed && input.format !== "otlp") {
-    await writeSourceRows({ environmentId: environment.id, sourceId: sourceRow.id, sourceName: inventory.source, content: next }, transaction);
+    await writeSourceRows(
+      { environmentId: environment.id, sourceId: sourceRow.id, sourceName: inventory.source, content: next, origins, allDependencies: aliasesChanged },
+      transaction,
+    );
+  } else if (origins.size > 0 && !input.dryRun) {
+    await refreshNeedOrigins({ sourceId: sourceRow.id, origins }, transaction);
   }
   const diff = summarise(diffSnapshots(previous, next));
 

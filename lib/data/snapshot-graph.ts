@@ -5,7 +5,8 @@ import { db } from "@/models";
 import { buildGraph, drill, type CompactGraph, type DrillRequest } from "@/lib/analysis";
 import type { SnapshotContent } from "@/lib/inventory/snapshot";
 import { AppError } from "@/lib/errors";
-import { analysisInputFromContent } from "./analysis-jobs";
+import { analysisInputFromContent, analysisSettingsKey } from "@/lib/analysis/input";
+import { readSettings } from "@/lib/inventory/settings";
 
 interface Entry {
   content: SnapshotContent;
@@ -16,21 +17,29 @@ const CACHE_SIZE = 8;
 const holder = globalThis as unknown as { __pinchpointGraphs?: Map<string, Promise<Entry>> };
 const cache = (holder.__pinchpointGraphs ??= new Map());
 
+/** The snapshot's graph under its environment's current settings (the analysis builds the same one). */
 export async function getSnapshotGraph({ snapshotId }: { snapshotId: string }): Promise<Entry> {
-  const hit = cache.get(snapshotId);
+  const [row] = await db().sequelize.query<{ settings: unknown }>(
+    "SELECT e.settings FROM snapshots s JOIN environments e ON e.id = s.environment_id WHERE s.id = :snapshotId",
+    { type: QueryTypes.SELECT, replacements: { snapshotId } },
+  );
+  if (!row) throw new AppError("not_found", "Snapshot not found");
+  const settings = readSettings(row.settings);
+  const cacheKey = `${snapshotId}/${analysisSettingsKey(settings)}`;
+  const hit = cache.get(cacheKey);
   if (hit) {
     // refresh its place in the LRU order
-    cache.delete(snapshotId);
-    cache.set(snapshotId, hit);
+    cache.delete(cacheKey);
+    cache.set(cacheKey, hit);
     return hit;
   }
   const load = (async () => {
-    const row = await db().models.Snapshot.findByPk(snapshotId, { attributes: ["content"] });
-    if (!row) throw new AppError("not_found", "Snapshot not found");
-    return { content: row.content, graph: buildGraph(analysisInputFromContent(row.content)) };
+    const snap = await db().models.Snapshot.findByPk(snapshotId, { attributes: ["content"] });
+    if (!snap) throw new AppError("not_found", "Snapshot not found");
+    return { content: snap.content, graph: buildGraph(analysisInputFromContent(snap.content, settings)) };
   })();
-  cache.set(snapshotId, load);
-  load.catch(() => cache.delete(snapshotId));
+  cache.set(cacheKey, load);
+  load.catch(() => cache.delete(cacheKey));
   while (cache.size > CACHE_SIZE) {
     const oldest = cache.keys().next().value;
     if (oldest === undefined) break;

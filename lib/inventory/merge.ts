@@ -2,18 +2,26 @@
 // replaces exactly what that source declared before — its components and their
 // dependencies — and leaves every other source's alone. Pure; the data layer runs it
 // inside its transaction and stores `content` when the hash changed.
+//
+// Aliases (DESIGN §10): a component may be known by other names (its service name in traces, a
+// Compose or Kubernetes name). Keys and aliases form one namespace; a need naming an alias is a
+// need on the component. Needs keep the name their source wrote (`written`), so that when an
+// alias comes or goes every source's needs are resolved again, not only the pushing source's.
 import {
   canonicaliseSnapshot,
   inventoryToSnapshotParts,
   type SnapshotComponent,
   type SnapshotContent,
+  type SnapshotDependency,
 } from "./snapshot";
 import type { InventoryIssue, NormalisedInventory } from "./types";
 
 export interface MergeConflict {
+  /** The key or alias two components claim. */
   key: string;
-  /** [the source that declares it now, the pushing source] */
+  /** [the source that holds it now, the pushing source]; the same source twice for a clash within one push */
   sources: [string, string];
+  message: string;
 }
 
 export interface MergeResult {
@@ -25,8 +33,10 @@ export interface MergeResult {
   conflicts: MergeConflict[];
   placeholdersCreated: string[];
   placeholdersRemoved: string[];
-  /** The importer's warnings first, then one per need that ended on a placeholder. */
+  /** The importer's warnings first, then one per need that ended on a placeholder or on its own component. */
   warnings: InventoryIssue[];
+  /** Whether some alias came or went: every source's needs were resolved again (the data layer rewrites them all). */
+  aliasesChanged: boolean;
 }
 
 /**
@@ -38,6 +48,68 @@ export function placeholderComponent(key: string): SnapshotComponent {
   return { key, name: key, kind: "undeclared", team: null, tier: 3, replicas: 1, zones: [], tags: [], links: {}, source: null };
 }
 
+/** alias → key over declared components; the order of entries does not matter. */
+export function aliasMap(components: readonly SnapshotComponent[]): Map<string, string> {
+  const map = new Map<string, string>();
+  for (const c of components) for (const a of c.aliases ?? []) map.set(a, c.key);
+  return map;
+}
+
+function sameMap(a: ReadonlyMap<string, string>, b: ReadonlyMap<string, string>): boolean {
+  if (a.size !== b.size) return false;
+  for (const [k, v] of a) if (b.get(k) !== v) return false;
+  return true;
+}
+
+/** Every key and alias claimed twice, each clash once. */
+function namespaceConflicts(components: readonly SnapshotComponent[], pushing: string): MergeConflict[] {
+  const claimed = new Map<string, { component: string; source: string; alias: boolean }>();
+  const conflicts: MergeConflict[] = [];
+  const claim = (name: string, c: SnapshotComponent, alias: boolean): void => {
+    const prior = claimed.get(name);
+    if (!prior) {
+      claimed.set(name, { component: c.key, source: c.source ?? pushing, alias });
+      return;
+    }
+    if (prior.component === c.key && (prior.alias || alias)) return; // an alias repeating its own key: harmless
+    const what = (x: { component: string; alias: boolean }) => (x.alias ? `an alias of "${x.component}"` : "a component key");
+    const source = c.source ?? pushing;
+    conflicts.push({
+      key: name,
+      sources: [prior.source, source],
+      message:
+        !prior.alias && !alias
+          ? `"${name}" is already declared by source "${prior.source}"; a key belongs to one source`
+          : `"${name}" is ${what(prior)} (source "${prior.source}") and ${what({ component: c.key, alias })} (source "${source}"); keys and aliases must be unique in an environment`,
+    });
+  };
+  for (const c of components) claim(c.key, c, false);
+  for (const c of components) for (const a of c.aliases ?? []) claim(a, c, true);
+  return conflicts;
+}
+
+/**
+ * Resolve every need through the alias map. A need that resolves onto its own component is
+ * dropped (a component cannot need itself). Needs that now point at one component stay apart
+ * (their identity includes the name written); the analysis counts a pair once, hard winning.
+ */
+function resolveNeeds(
+  dependencies: readonly SnapshotDependency[],
+  aliases: ReadonlyMap<string, string>,
+): { dependencies: SnapshotDependency[]; selfNeeds: SnapshotDependency[] } {
+  const out: SnapshotDependency[] = [];
+  const selfNeeds: SnapshotDependency[] = [];
+  for (const d of dependencies) {
+    const written = d.written ?? d.to;
+    const to = aliases.get(written) ?? written;
+    const { written: _was, ...rest } = d;
+    const resolved: SnapshotDependency = to === written ? { ...rest, to } : { ...rest, to, written };
+    if (to === d.from) selfNeeds.push(resolved);
+    else out.push(resolved);
+  }
+  return { dependencies: out, selfNeeds };
+}
+
 export function mergeSources({
   existing,
   source,
@@ -47,25 +119,29 @@ export function mergeSources({
   source: string;
   incoming: NormalisedInventory;
 }): MergeResult {
-  const declaredBefore = new Map<string, SnapshotComponent>();
   const placeholdersBefore = new Set<string>();
-  for (const c of existing.components) {
-    if (c.source === null) placeholdersBefore.add(c.key);
-    else declaredBefore.set(c.key, c);
-  }
-
-  const conflicts: MergeConflict[] = [];
-  for (const c of incoming.components) {
-    const owner = declaredBefore.get(c.key)?.source;
-    if (owner !== undefined && owner !== null && owner !== source) conflicts.push({ key: c.key, sources: [owner, source] });
-  }
-  if (conflicts.length > 0) {
-    return { content: canonicaliseSnapshot(existing), conflicts, placeholdersCreated: [], placeholdersRemoved: [], warnings: [...incoming.warnings] };
-  }
+  for (const c of existing.components) if (c.source === null) placeholdersBefore.add(c.key);
 
   const parts = inventoryToSnapshotParts({ components: incoming.components, source });
   const components = [...existing.components.filter((c) => c.source !== null && c.source !== source), ...parts.components];
-  const dependencies = [...existing.dependencies.filter((d) => d.source !== source), ...parts.dependencies];
+  const conflicts = namespaceConflicts(components, source);
+  if (conflicts.length > 0) {
+    return {
+      content: canonicaliseSnapshot(existing),
+      conflicts,
+      placeholdersCreated: [],
+      placeholdersRemoved: [],
+      warnings: [...incoming.warnings],
+      aliasesChanged: false,
+    };
+  }
+
+  const aliases = aliasMap(components);
+  const aliasesChanged = !sameMap(aliases, aliasMap(existing.components));
+  const { dependencies, selfNeeds } = resolveNeeds(
+    [...existing.dependencies.filter((d) => d.source !== source), ...parts.dependencies],
+    aliases,
+  );
 
   // Placeholders are derived, not kept: exactly the needed keys nobody declares.
   const declared = new Set(components.map((c) => c.key));
@@ -75,7 +151,7 @@ export function mergeSources({
   const warnings: InventoryIssue[] = [...incoming.warnings];
   incoming.components.forEach((c, i) => {
     const named = new Set<string>();
-    for (const need of c.needs) for (const k of need.type === "single" ? [need.key] : need.keys) named.add(k);
+    for (const need of c.needs) for (const k of need.type === "single" ? [need.key] : need.keys) named.add(aliases.get(k) ?? k);
     for (const k of named) {
       if (!placeholders.has(k)) continue;
       warnings.push({
@@ -84,6 +160,13 @@ export function mergeSources({
       });
     }
   });
+  for (const d of selfNeeds) {
+    if (d.source !== source) continue;
+    warnings.push({
+      path: `components[key=${d.from}].needs`,
+      message: `${JSON.stringify(d.from)} needs ${JSON.stringify(d.written ?? d.to)}, which is one of its own aliases; the need is left out`,
+    });
+  }
 
   const sorted = (s: Iterable<string>): string[] => [...s].sort((a, b) => (a < b ? -1 : a > b ? 1 : 0));
   return {
@@ -92,5 +175,6 @@ export function mergeSources({
     placeholdersCreated: sorted([...placeholders].filter((k) => !placeholdersBefore.has(k))),
     placeholdersRemoved: sorted([...placeholdersBefore].filter((k) => !placeholders.has(k))),
     warnings,
+    aliasesChanged,
   };
 }

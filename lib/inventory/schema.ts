@@ -32,9 +32,11 @@ export const SourceSchema = z.string({ error: "source must be a string" }).regex
     `invalid source ${show(iss.input)}: 1-128 characters of a-z, 0-9, ".", "_" or "-", starting with a letter or digit`,
 });
 
-export const StrengthSchema = z.enum(STRENGTHS, {
-  error: (iss) => `invalid strength ${show(iss.input)}: expected "hard" or "soft"`,
-});
+export const StrengthSchema = z
+  .enum(STRENGTHS, {
+    error: (iss) => `invalid strength ${show(iss.input)}: expected "hard", "soft" or "startup"`,
+  })
+  .describe("hard: down when unmet; soft: degraded when unmet; startup: needed only to start (boot order only)");
 
 const LabelSchema = (what: string) =>
   z
@@ -121,6 +123,10 @@ export const ComponentSchema = z
       .optional()
       .describe("Display name; defaults to the key"),
     kind: KindSchema,
+    aliases: z
+      .array(ComponentKeySchema, { error: "aliases must be a list of names" })
+      .optional()
+      .describe("Other names it is known by (e.g. its service name in traces); unique across keys and aliases"),
     ...sharedFields,
     needs: z.array(NeedEntrySchema, { error: "needs must be a list" }).optional(),
   })

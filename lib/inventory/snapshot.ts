@@ -2,7 +2,7 @@
 // that equal graphs serialise to equal bytes (hash → "nothing changed, no snapshot") and two
 // snapshots can be diffed field by field.
 import { createHash } from "node:crypto";
-import type { ComponentKind, InventoryComponent, Strength, Tier } from "./types";
+import type { ComponentKind, InventoryComponent, Provenance, Strength, Tier } from "./types";
 
 export interface SnapshotComponent {
   key: string;
@@ -16,6 +16,11 @@ export interface SnapshotComponent {
   links: Record<string, string>;
   /** Who declared it; null for an `undeclared` placeholder. */
   source: string | null;
+  /**
+   * Other names it is known by. Omitted when there are none, so that content written before
+   * aliases existed keeps its hash (and an unchanged push still makes no snapshot).
+   */
+  aliases?: string[];
 }
 
 export interface SnapshotDependency {
@@ -26,6 +31,13 @@ export interface SnapshotDependency {
   group: string | null;
   via: string | null;
   source: string | null;
+  /** How it is known; omitted when only declared (the hash of older content stays the same). */
+  provenance?: Provenance[];
+  /**
+   * The name the source wrote when it was an alias of `to` (omitted otherwise), so that the need
+   * can be resolved again when aliases change.
+   */
+  written?: string;
 }
 
 export interface SnapshotContent {
@@ -34,7 +46,7 @@ export interface SnapshotContent {
 }
 
 export type ComponentField = Exclude<keyof SnapshotComponent, "key">;
-export type DependencyField = "strength" | "via" | "source";
+export type DependencyField = "strength" | "via" | "source" | "provenance";
 
 export interface FieldChange<T> {
   before: T;
@@ -76,8 +88,12 @@ export function anyOfGroupId(from: string, members: readonly string[]): string {
   return `${from}#any:${[...members].sort(cmp).join(",")}`;
 }
 
-export function dependencyId(d: Pick<SnapshotDependency, "from" | "to" | "group">): string {
-  return `${d.from}\u0000${d.to}\u0000${d.group ?? ""}`;
+/**
+ * Identity of a dependency: a need written as an alias stays apart from one written as the key
+ * (both resolve to the same component, and each must survive the alias going away).
+ */
+export function dependencyId(d: Pick<SnapshotDependency, "from" | "to" | "group" | "written">): string {
+  return `${d.from}\u0000${d.to}\u0000${d.group ?? ""}${d.written === undefined ? "" : `\u0000${d.written}`}`;
 }
 
 function sortedRecord(r: Record<string, string>): Record<string, string> {
@@ -86,7 +102,10 @@ function sortedRecord(r: Record<string, string>): Record<string, string> {
   return out;
 }
 
+const sortedSet = (values: readonly string[]): string[] => [...new Set(values)].sort(cmp);
+
 export function canonicaliseComponent(c: SnapshotComponent): SnapshotComponent {
+  const aliases = sortedSet(c.aliases ?? []);
   return {
     key: c.key,
     name: c.name,
@@ -94,15 +113,36 @@ export function canonicaliseComponent(c: SnapshotComponent): SnapshotComponent {
     team: c.team,
     tier: c.tier,
     replicas: c.replicas,
-    zones: [...new Set(c.zones)].sort(cmp),
-    tags: [...new Set(c.tags)].sort(cmp),
+    zones: sortedSet(c.zones),
+    tags: sortedSet(c.tags),
     links: sortedRecord(c.links),
     source: c.source,
+    ...(aliases.length > 0 ? { aliases } : {}),
   };
 }
 
+/** `["declared"]` is the default and is left out; anything else is kept sorted. */
+export function canonicalProvenance(p: readonly Provenance[] | undefined): Provenance[] | undefined {
+  if (p === undefined || p.length === 0) return undefined;
+  const sorted = sortedSet(p) as Provenance[];
+  return sorted.length === 1 && sorted[0] === "declared" ? undefined : sorted;
+}
+
+/** The provenance of a dependency with the default filled in. */
+export const provenanceOf = (d: Pick<SnapshotDependency, "provenance">): Provenance[] => d.provenance ?? ["declared"];
+
 function canonicaliseDependency(d: SnapshotDependency): SnapshotDependency {
-  return { from: d.from, to: d.to, strength: d.strength, group: d.group, via: d.via, source: d.source };
+  const provenance = canonicalProvenance(d.provenance);
+  return {
+    from: d.from,
+    to: d.to,
+    strength: d.strength,
+    group: d.group,
+    via: d.via,
+    source: d.source,
+    ...(provenance ? { provenance } : {}),
+    ...(d.written !== undefined && d.written !== d.to ? { written: d.written } : {}),
+  };
 }
 
 /** Components by key; dependencies by from, to, group; arrays sorted; fields in a fixed order. */
@@ -116,6 +156,7 @@ export function canonicaliseSnapshot(content: SnapshotContent): SnapshotContent 
           cmp(a.from, b.from) ||
           cmp(a.to, b.to) ||
           cmpNullable(a.group, b.group) ||
+          cmpNullable(a.written ?? null, b.written ?? null) ||
           cmp(a.strength, b.strength) ||
           cmpNullable(a.via, b.via) ||
           cmpNullable(a.source, b.source),
@@ -128,8 +169,8 @@ export function snapshotHash(content: SnapshotContent): string {
   return createHash("sha256").update(JSON.stringify(canonicaliseSnapshot(content))).digest("hex");
 }
 
-const COMPONENT_FIELDS: readonly ComponentField[] = ["name", "kind", "team", "tier", "replicas", "zones", "tags", "links", "source"];
-const DEPENDENCY_FIELDS: readonly DependencyField[] = ["strength", "via", "source"];
+const COMPONENT_FIELDS: readonly ComponentField[] = ["name", "kind", "team", "tier", "replicas", "zones", "tags", "links", "source", "aliases"];
+const DEPENDENCY_FIELDS: readonly DependencyField[] = ["strength", "via", "source", "provenance"];
 
 // Values are canonical (sorted arrays, sorted link names), so JSON text equality is value equality.
 const same = (a: unknown, b: unknown): boolean => JSON.stringify(a) === JSON.stringify(b);
@@ -146,7 +187,7 @@ export function diffSnapshots(a: SnapshotContent, b: SnapshotContent): SnapshotD
     const old = oldComponents.get(c.key);
     if (!old) continue;
     const changes: Record<string, FieldChange<unknown>> = {};
-    for (const f of COMPONENT_FIELDS) if (!same(old[f], c[f])) changes[f] = { before: old[f], after: c[f] };
+    for (const f of COMPONENT_FIELDS) if (!same(old[f] ?? null, c[f] ?? null)) changes[f] = { before: old[f], after: c[f] };
     if (Object.keys(changes).length > 0) componentsChanged.push({ key: c.key, changes: changes as ComponentChange["changes"] });
   }
 
@@ -157,7 +198,7 @@ export function diffSnapshots(a: SnapshotContent, b: SnapshotContent): SnapshotD
     const old = oldDeps.get(dependencyId(d));
     if (!old) continue;
     const changes: Record<string, FieldChange<unknown>> = {};
-    for (const f of DEPENDENCY_FIELDS) if (old[f] !== d[f]) changes[f] = { before: old[f], after: d[f] };
+    for (const f of DEPENDENCY_FIELDS) if (!same(old[f] ?? null, d[f] ?? null)) changes[f] = { before: old[f], after: d[f] };
     if (Object.keys(changes).length > 0) {
       dependenciesChanged.push({ from: d.from, to: d.to, group: d.group, changes: changes as DependencyChange["changes"] });
     }
@@ -211,6 +252,7 @@ export function inventoryToSnapshotParts({
         tags: c.tags,
         links: c.links,
         source,
+        aliases: c.aliases,
       }),
     );
     const push = (d: SnapshotDependency): void => {
@@ -221,12 +263,14 @@ export function inventoryToSnapshotParts({
       dependencies.push(d);
     };
     for (const need of c.needs) {
+      const provenance = canonicalProvenance(need.provenance);
+      const extra = provenance ? { provenance } : {};
       if (need.type === "single") {
-        push({ from: c.key, to: need.key, strength: need.strength, group: null, via: need.via, source });
+        push({ from: c.key, to: need.key, strength: need.strength, group: null, via: need.via, source, ...extra });
       } else {
         const group = anyOfGroupId(c.key, need.keys);
         for (const member of new Set(need.keys)) {
-          push({ from: c.key, to: member, strength: need.strength, group, via: need.via, source });
+          push({ from: c.key, to: member, strength: need.strength, group, via: need.via, source, ...extra });
         }
       }
     }

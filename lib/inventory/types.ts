@@ -11,13 +11,42 @@ export const COMPONENT_KINDS = [
   "platform",
   "external",
   "job",
+  // Trace, metric and log collectors and their agents. Losing one blinds the estate's
+  // observability but takes no request down, so importers make needs *on* it soft by default.
+  "telemetry",
 ] as const;
 export type DeclaredKind = (typeof COMPONENT_KINDS)[number];
 /** `undeclared` is never written in a file: it marks a placeholder for a key some source needs. */
 export type ComponentKind = DeclaredKind | "undeclared";
 
-export const STRENGTHS = ["hard", "soft"] as const;
+/**
+ * `hard`: the dependent is down while the need is unmet; `soft`: degraded, not down;
+ * `startup`: needed only to start (a one-shot migration, a job that must finish first) — boot
+ * order honours it, blast radius, drills and the failure measures do not.
+ */
+export const STRENGTHS = ["hard", "soft", "startup"] as const;
 export type Strength = (typeof STRENGTHS)[number];
+/** Needs that hold while the dependent runs: what failure propagates along. */
+export const RUNTIME_STRENGTHS: readonly Strength[] = ["hard", "soft"];
+
+const STRENGTH_RANK: Record<Strength, number> = { hard: 2, soft: 1, startup: 0 };
+/** The stronger of two claims about one need: a repeat or merge keeps what an outage would honour. */
+export const strongerStrength = (a: Strength, b: Strength): Strength => (STRENGTH_RANK[a] >= STRENGTH_RANK[b] ? a : b);
+
+/**
+ * How Pinchpoint knows of a need: a file says so (`declared`), a host name in configuration named
+ * it (`inferred`, with the variable or key in `via`), or traces saw calls (`observed`).
+ */
+export const PROVENANCES = ["declared", "inferred", "observed"] as const;
+export type Provenance = (typeof PROVENANCES)[number];
+
+/** Where something was written in an input file, for located previews, SARIF results and the component page. */
+export interface FilePosition {
+  /** The file's name within the push, when the push carried several. */
+  file?: string;
+  line?: number;
+  column?: number;
+}
 
 export const TIERS = [1, 2, 3, 4] as const;
 export type Tier = (typeof TIERS)[number];
@@ -34,9 +63,15 @@ export interface InventoryIssue {
 }
 
 /** A need on one component, or an any-of group met while any one member is up. */
-export type Need =
-  | { type: "single"; key: string; strength: Strength; via: string | null }
-  | { type: "any_of"; keys: string[]; strength: Strength; via: string | null };
+interface NeedCommon {
+  strength: Strength;
+  via: string | null;
+  /** Absent means `["declared"]`. Sorted, without repeats. */
+  provenance?: Provenance[];
+  at?: FilePosition;
+}
+
+export type Need = ({ type: "single"; key: string } | { type: "any_of"; keys: string[] }) & NeedCommon;
 
 export interface InventoryComponent {
   key: string;
@@ -48,7 +83,10 @@ export interface InventoryComponent {
   zones: string[];
   tags: string[];
   links: Record<string, string>;
+  /** Other names the component is known by (trace service names, Compose or Kubernetes names). */
+  aliases: string[];
   needs: Need[];
+  at?: FilePosition;
 }
 
 /** An edge seen in telemetry rather than declared; kept apart so drift can be shown. */
@@ -63,6 +101,7 @@ export interface ObservedEdge {
 
 export interface NormalisedInventory {
   source: string;
+
   /** Named in the file; must agree with the URL's environment when both are given. */
   environment: string | null;
   components: InventoryComponent[];
@@ -70,7 +109,8 @@ export interface NormalisedInventory {
   warnings: InventoryIssue[];
 }
 
-export type ImportFormat = "pinchpoint" | "compose" | "csv" | "otlp";
+export const IMPORT_FORMATS = ["pinchpoint", "compose", "csv", "otlp"] as const;
+export type ImportFormat = (typeof IMPORT_FORMATS)[number];
 
 export type ImportResult =
   | { ok: true; inventory: NormalisedInventory }
@@ -89,4 +129,10 @@ export interface ImportRequest {
   contentType?: string;
   source?: string;
   environment?: string;
+  /**
+   * Fill `at` on every component and need. Off by default: positions cost a full YAML parse that
+   * a clean push does not otherwise need; previews and impact findings (SARIF) ask for them.
+   * Importers that find positions anyway (inferred needs) may fill `at` regardless.
+   */
+  positions?: boolean;
 }

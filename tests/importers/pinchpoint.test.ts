@@ -27,6 +27,7 @@ describe("format 1: good files", () => {
       replicas: 3,
       zones: ["zone-a", "zone-b"],
       tags: ["customer-facing"],
+      aliases: [],
       links: {
         repo: "https://git.harbor-pantry.example/storefront",
         runbook: "https://wiki.harbor-pantry.example/runbooks/web-frontend",

@@ -19,7 +19,7 @@ describe("format 1 JSON Schema", () => {
     const component = schema.properties.components?.items;
     expect(component?.required?.sort()).toEqual(["key", "kind"]);
     expect(component?.additionalProperties).toBe(false);
-    expect(Object.keys(component?.properties ?? {}).sort()).toEqual(["key", "kind", "links", "name", "needs", "replicas", "tags", "team", "tier", "zones"]);
+    expect(Object.keys(component?.properties ?? {}).sort()).toEqual(["aliases", "key", "kind", "links", "name", "needs", "replicas", "tags", "team", "tier", "zones"]);
     expect(JSON.stringify(schema)).toContain("^[a-z0-9][a-z0-9._-]{0,127}$");
   });
 

@@ -35,6 +35,7 @@ const web: InventoryComponent = {
   zones: ["zone-b", "zone-a"],
   tags: [],
   links: { runbook: "https://wiki.harbor-pantry.example/r", repo: "https://git.harbor-pantry.example/s" },
+  aliases: [],
   needs: [
     { type: "single", key: "api-gateway", strength: "hard", via: null },
     { type: "any_of", keys: ["search-primary", "search-fallback"], strength: "soft", via: "http" },

@@ -1,11 +1,11 @@
 import { z } from "zod";
-import { SOURCE_PATTERN } from "@/lib/inventory/types";
+import { IMPORT_FORMATS, SOURCE_PATTERN } from "@/lib/inventory/types";
 import { booleanParam, kindSchema, slugSchema } from "./common";
 
 export const pushQuerySchema = z
   .object({
     dry_run: booleanParam.optional(),
-    format: z.enum(["pinchpoint", "compose", "csv", "otlp"]).optional(),
+    format: z.enum(IMPORT_FORMATS).optional(),
     source: z.string().regex(SOURCE_PATTERN, "must be a source name").optional(),
   })
   .strict();

@@ -62,8 +62,8 @@ describe("SVG export", () => {
         { id: "b", box: { x: 0, y: 120, width: 184, height: 60 }, kind: "undeclared", title: "? legacy", subtitle: "undeclared", paint: { fill: "transparent", text: "#999999", dashed: true }, articulation: false },
       ],
       edges: [
-        { points: [{ x: 92, y: 60 }, { x: 92, y: 120 }], strength: "soft", inCycle: false },
-        { points: [{ x: 50, y: 60 }, { x: 50, y: 120 }], strength: "hard", inCycle: true },
+        { points: [{ x: 92, y: 60 }, { x: 92, y: 120 }], strength: "soft", inferred: false, inCycle: false },
+        { points: [{ x: 50, y: 60 }, { x: 50, y: 120 }], strength: "hard", inferred: false, inCycle: true },
       ],
     });
     expect(escapeXml(`<a href="x">&'`)).toBe("&lt;a href=&quot;x&quot;&gt;&amp;&apos;");

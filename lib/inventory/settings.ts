@@ -1,0 +1,38 @@
+// Per-environment settings (environments.settings, JSONB). Every field has a default, so an
+// environment that never set anything reads `{}` and behaves as documented here.
+import { z } from "zod";
+
+export const ANALYSIS_VIEWS = ["declared", "observed", "both"] as const;
+export type AnalysisView = (typeof ANALYSIS_VIEWS)[number];
+
+export const EnvironmentSettingsSchema = z
+  .object({
+    /**
+     * How needs inferred from host names in configuration count in the analysis. Hard by default:
+     * a service configured to reach a database usually fails without it; teams whose
+     * configuration names many optional peers can make them soft.
+     */
+    inferredNeeds: z.enum(["hard", "soft"]).default("hard"),
+    /** How needs seen only in traces count until a file declares them. */
+    observedNeeds: z.enum(["hard", "soft"]).default("soft"),
+    /** Which graph the analysis runs on; null means `both` when both exist, else whichever does. */
+    analysisView: z.enum(ANALYSIS_VIEWS).nullable().default(null),
+    /** Rolling window of trace aggregates, in days. */
+    traceWindowDays: z.int().min(1).max(90).default(7),
+  })
+  .strict();
+
+export type EnvironmentSettings = z.infer<typeof EnvironmentSettingsSchema>;
+
+/** Stored settings with every default filled in; unknown or invalid stored values fall back to defaults field by field. */
+export function readSettings(stored: unknown): EnvironmentSettings {
+  const base = EnvironmentSettingsSchema.parse({});
+  if (typeof stored !== "object" || stored === null) return base;
+  const out: Record<string, unknown> = { ...base };
+  for (const [k, v] of Object.entries(stored)) {
+    if (!(k in base)) continue;
+    const one = EnvironmentSettingsSchema.safeParse({ [k]: v });
+    if (one.success) out[k] = (one.data as Record<string, unknown>)[k];
+  }
+  return out as EnvironmentSettings;
+}

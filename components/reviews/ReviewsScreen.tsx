@@ -11,6 +11,7 @@ import { UnownedQueue, type QueueViewer } from "@/components/teams/UnownedQueue"
 import { ReviewBadge, formatDay } from "./ReviewBadge";
 import { ReviewForm, type ReviewDraft } from "./ReviewForm";
 import { useReviews } from "./useReviews";
+import { SettingsForm } from "./SettingsForm";
 import { WeightsForm } from "./WeightsForm";
 
 export function ReviewsScreen({ env, canWrite, canReadAudit, queueViewer }: { env: string; canWrite: boolean; canReadAudit: boolean; queueViewer: QueueViewer }) {
@@ -138,6 +139,7 @@ export function ReviewsScreen({ env, canWrite, canReadAudit, queueViewer }: { en
 
       <div className="grid gap-6 xl:grid-cols-2">
         <WeightsForm env={env} canWrite={canWrite} />
+        <SettingsForm env={env} canWrite={canWrite} />
         <UnownedQueue environment={env} viewer={queueViewer} />
       </div>
     </div>

@@ -10,7 +10,7 @@ import { componentsQuerySchema, pushQuerySchema } from "./schemas/inventory";
 import { positionsSchema } from "./schemas/map";
 import { reviewBodySchema, reviewsQuerySchema, auditQuerySchema } from "./schemas/reviews";
 import { addMemberSchema, createTeamSchema, unownedQuerySchema, updateTeamSchema } from "./schemas/teams";
-import { createEnvironmentSchema, deleteEnvironmentQuerySchema, renameEnvironmentSchema } from "./schemas/environments";
+import { createEnvironmentSchema, deleteEnvironmentQuerySchema, renameEnvironmentSchema, settingsPatchSchema } from "./schemas/environments";
 import { createTokenSchema } from "./schemas/tokens";
 import { acceptInviteSchema, inviteUserSchema, updateUserSchema } from "./schemas/users";
 import { pinchWeightsSchema } from "@/lib/analysis/types";
@@ -63,6 +63,10 @@ export const OPERATIONS: Record<string, Partial<Record<Method, Operation>>> = {
   "/environments/{env}/reviews/{key}": {
     put: { summary: "Accept, mitigate or resolve a pinch point, with rationale and review date", rule: "reviews:write", body: reviewBodySchema },
     delete: { summary: "Clear a risk review", rule: "reviews:write" },
+  },
+  "/environments/{env}/settings": {
+    get: { summary: "Environment settings with defaults filled in", rule: "read" },
+    patch: { summary: "Change environment settings (re-queues analysis when it reads them)", rule: "reviews:write", body: settingsPatchSchema },
   },
   "/environments/{env}/weights": {
     get: { summary: "Pinch-score weights", rule: "read" },

@@ -33,6 +33,32 @@ export async function queueAnalysis({ environmentId, snapshotId }: { environment
   }, { transaction });
 }
 
+/**
+ * Analyse the newest snapshot again (its inputs changed: weights, settings). analysis_runs.snapshot_id
+ * is unique, so the snapshot's one run goes back to the queue; a worker still holding it loses it, because
+ * its result is refused once the row is no longer 'running' for it.
+ */
+export async function requeueLatestAnalysis({ environmentId }: { environmentId: string }, transaction: Transaction): Promise<{ snapshot: number } | null> {
+  const { sequelize } = db();
+  const [latest] = await sequelize.query<{ id: string; number: number; run_id: string | null }>(
+    `SELECT s.id, s.number, a.id AS run_id FROM snapshots s LEFT JOIN analysis_runs a ON a.snapshot_id = s.id
+      WHERE s.environment_id = :environmentId ORDER BY s.number DESC LIMIT 1`,
+    { type: QueryTypes.SELECT, replacements: { environmentId }, transaction },
+  );
+  if (!latest) return null;
+  if (latest.run_id) {
+    await sequelize.query(
+      `UPDATE analysis_runs SET status = 'queued', progress = 0, phase = NULL, attempts = 0, locked_by = NULL,
+              heartbeat_at = NULL, started_at = NULL, finished_at = NULL, error = NULL, updated_at = now()
+        WHERE id = :id`,
+      { replacements: { id: latest.run_id }, transaction },
+    );
+  } else {
+    await queueAnalysis({ environmentId, snapshotId: latest.id }, transaction);
+  }
+  return { snapshot: latest.number };
+}
+
 interface ClaimedJob {
   id: string;
   snapshot_id: string;

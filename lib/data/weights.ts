@@ -2,13 +2,12 @@
 // Saving re-queues the analysis of the newest snapshot in the same transaction, so the stored
 // scores never stay computed with weights nobody has any longer.
 import "server-only";
-import { QueryTypes } from "sequelize";
 import { db } from "@/models";
 import type { Actor } from "@/lib/auth/actor";
 import { roleHas } from "@/lib/auth/roles";
 import { DEFAULT_PINCH_WEIGHTS, type PinchWeights } from "@/lib/analysis/types";
 import { forbidden, notFound } from "@/lib/errors";
-import { queueAnalysis } from "./analysis-jobs";
+import { requeueLatestAnalysis } from "./analysis-jobs";
 import { recordAudit } from "./audit";
 
 export interface WeightsView {
@@ -42,27 +41,7 @@ export async function setWeights({
     const after: PinchWeights = { betweenness: weights.betweenness, reach: weights.reach, single: weights.single };
     await env.update({ pinchWeights: after }, { transaction });
 
-    const [latest] = await sequelize.query<{ id: string; number: number; run_id: string | null }>(
-      `SELECT s.id, s.number, a.id AS run_id FROM snapshots s LEFT JOIN analysis_runs a ON a.snapshot_id = s.id
-        WHERE s.environment_id = :environmentId ORDER BY s.number DESC LIMIT 1`,
-      { type: QueryTypes.SELECT, replacements: { environmentId }, transaction },
-    );
-    let requeued: { snapshot: number } | null = null;
-    if (latest) {
-      if (latest.run_id) {
-        // analysis_runs.snapshot_id is unique, so the snapshot's one run goes back to the queue. A worker
-        // still holding it loses it: its result is refused because the row is no longer 'running' for it.
-        await sequelize.query(
-          `UPDATE analysis_runs SET status = 'queued', progress = 0, phase = NULL, attempts = 0, locked_by = NULL,
-                  heartbeat_at = NULL, started_at = NULL, finished_at = NULL, error = NULL, updated_at = now()
-            WHERE id = :id`,
-          { replacements: { id: latest.run_id }, transaction },
-        );
-      } else {
-        await queueAnalysis({ environmentId, snapshotId: latest.id }, transaction);
-      }
-      requeued = { snapshot: latest.number };
-    }
+    const requeued = await requeueLatestAnalysis({ environmentId }, transaction);
     await recordAudit({ actor, action: "weights.update", targetType: "environment", targetId: env.slug, environmentId, before, after: { ...after, requeued } }, transaction);
     return { weights: after, custom: true, defaults: DEFAULT_PINCH_WEIGHTS, requeued };
   });

@@ -2,10 +2,13 @@
 import { QueryTypes } from "sequelize";
 import { beforeAll, describe, expect, it } from "vitest";
 import { POST as push } from "@/app/api/v1/environments/[env]/inventory/route";
+import { GET as getSettings, PATCH as patchSettings } from "@/app/api/v1/environments/[env]/settings/route";
 import { db } from "@/models";
 import { call, createUser, type TestUser } from "../support/api";
 
 let admin: TestUser;
+let architect: TestUser;
+let engineer: TestUser;
 const pushYaml = (body: string, query = "") =>
   call(push, { url: `/api/v1/environments/kinds/inventory${query}`, method: "POST", params: { env: "kinds" }, as: admin, body, headers: { "content-type": "application/yaml" } });
 
@@ -38,6 +41,8 @@ const rows = () =>
 
 beforeAll(async () => {
   admin = await createUser("admin");
+  architect = await createUser("architect");
+  engineer = await createUser("engineer");
 });
 
 describe("need kinds and aliases through a push", () => {
@@ -74,5 +79,31 @@ describe("need kinds and aliases through a push", () => {
     expect(res.status).toBe(409);
     expect((res.json as { message: string }).message).toMatch(/"cart" is a component key \(source "cart-repo"\) and an alias of "basket" \(source "rival-repo"\)/);
     expect(await rows()).toEqual(before);
+  });
+});
+
+describe("environment settings", () => {
+  const patch = (as: TestUser, body: unknown) =>
+    call(patchSettings, { url: "/api/v1/environments/kinds/settings", method: "PATCH", params: { env: "kinds" }, as, body: body as object });
+
+  it("reads every default, and an architect's change re-queues the newest snapshot's analysis, audited", async () => {
+    const read = await call(getSettings, { url: "/api/v1/environments/kinds/settings", params: { env: "kinds" }, as: engineer });
+    expect(read.json).toMatchObject({ settings: { inferredNeeds: "hard", observedNeeds: "soft", analysisView: null, traceWindowDays: 7 } });
+    const res = await patch(architect, { inferredNeeds: "soft" });
+    expect(res.status).toBe(200);
+    expect(res.json).toMatchObject({ settings: { inferredNeeds: "soft" }, requeued: { snapshot: expect.any(Number) } });
+    const [audit] = await db().sequelize.query<{ action: string }>("SELECT action FROM audit_events WHERE action = 'settings.update'", { type: QueryTypes.SELECT });
+    expect(audit?.action).toBe("settings.update");
+    // A change the analysis does not read re-queues nothing.
+    expect((await patch(architect, { traceWindowDays: 14 })).json).toMatchObject({ requeued: null });
+  });
+
+  it("refuses engineers, unknown fields and empty changes, and changes nothing", async () => {
+    expect((await patch(engineer, { inferredNeeds: "hard" })).status).toBe(403);
+    const bad = await patch(architect, { inferredNeeds: "maybe", colour: "red" });
+    expect(bad.status).toBe(422);
+    expect((await patch(architect, {})).status).toBe(422);
+    const read = await call(getSettings, { url: "/api/v1/environments/kinds/settings", params: { env: "kinds" }, as: engineer });
+    expect(read.json).toMatchObject({ settings: { inferredNeeds: "soft", traceWindowDays: 14 } });
   });
 });

@@ -35,6 +35,7 @@ export { dominators, dominatorTree, entryRoots } from "./dominators";
 export { blastRadius, failedByZones, singleFailureBlast, TIER_WEIGHTS } from "./blast-radius";
 export { pinchScores, isSinglePoint } from "./pinch-score";
 export { drill, type DrillRequest, type DrillResult } from "./drill";
+export { probableOrigin, type OriginResult, type OriginCandidate } from "./origin";
 
 // Rough share of the total run time of each phase on dependency-shaped graphs, so that the
 // progress fraction moves evenly rather than jumping.

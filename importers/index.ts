@@ -2,6 +2,7 @@
 import type { ImportRequest, ImportResult } from "@/lib/inventory/types";
 import { parseCompose } from "./compose";
 import { parseCsv } from "./csv";
+import { parseKubernetes } from "./kubernetes";
 import { parseOtlp } from "./otlp";
 import { parsePinchpoint } from "./pinchpoint/parse";
 import { checkedText } from "./shared/body";
@@ -20,15 +21,18 @@ export function importInventory(req: ImportRequest): ImportResult {
       return parseCsv(opts);
     case "otlp":
       return parseOtlp(opts);
+    case "kubernetes":
+      return parseKubernetes({ ...opts, settings: req.kubernetes });
     default: {
       // Unreachable for typed callers; a route passing an unchecked query string lands here.
       const format: never = req.format;
-      return { ok: false, status: 422, issues: [{ path: "format", message: `unsupported format ${JSON.stringify(format)}: expected pinchpoint, compose, csv or otlp` }] };
+      return { ok: false, status: 422, issues: [{ path: "format", message: `unsupported format ${JSON.stringify(format)}: expected pinchpoint, compose, csv, otlp or kubernetes` }] };
     }
   }
 }
 
 export { importCompose } from "./compose";
 export { importCsv } from "./csv";
+export { importKubernetes } from "./kubernetes";
 export { importOtlp } from "./otlp";
 export { importPinchpoint } from "./pinchpoint";

@@ -12,6 +12,7 @@ import type { ImportFormat } from "@/lib/inventory/types";
 import { FORMATS, detectFormat, suggestSource, type Detection } from "./detect";
 import { DiffPreview } from "./DiffPreview";
 import { ImportHistory } from "./ImportHistory";
+import { InferredNeeds } from "./InferredNeeds";
 import { IssueList } from "./IssueList";
 import { pushFile, type PushOutcome } from "./push";
 
@@ -199,7 +200,7 @@ export function ImportsScreen({ env, canUpload, role }: { env: string; canUpload
                   choose one
                 </button>
               </p>
-              <p className="text-xs text-muted">Pinchpoint inventory (YAML/JSON), Compose file, CSV edge list or OTLP/JSON traces · up to {size(MAX_BODY_BYTES)}</p>
+              <p className="text-xs text-muted">Pinchpoint inventory (YAML/JSON), Compose file, CSV edge list, OTLP/JSON traces or Kubernetes manifests · up to {size(MAX_BODY_BYTES)}</p>
               <input
                 ref={picker}
                 type="file"
@@ -307,6 +308,7 @@ export function ImportsScreen({ env, canUpload, role }: { env: string; canUpload
               </p>
             )}
             <DiffPreview diff={preview.diff} />
+            {preview.inferred && <InferredNeeds inferred={preview.inferred} />}
             {preview.warnings.length > 0 && (
               <section className="space-y-2" aria-label="Warnings">
                 <h3 className="text-sm font-semibold text-degraded">

@@ -11,7 +11,8 @@ import { AppError, notFound } from "@/lib/errors";
 import { importInventory } from "@/importers";
 import { mergeSources } from "@/lib/inventory/merge";
 import { diffSnapshots, snapshotHash, type SnapshotContent, type SnapshotDiff } from "@/lib/inventory/snapshot";
-import type { ImportFormat, InventoryIssue, NormalisedInventory } from "@/lib/inventory/types";
+import { inferredNeedsOf, type InferredNeed } from "@/lib/inventory/inferred";
+import type { ImportFormat, InventoryIssue, KubernetesImportOptions, NormalisedInventory } from "@/lib/inventory/types";
 
 export type PushActor = Actor | (SystemActor & { canCreateEnvironments: true });
 
@@ -24,6 +25,8 @@ export interface PushInput {
   source?: string | null;
   dryRun: boolean;
   actor: PushActor;
+  /** Settings of the `kubernetes` format (its query parameters). */
+  kubernetes?: KubernetesImportOptions;
 }
 
 export interface PushResult {
@@ -33,6 +36,8 @@ export interface PushResult {
   diff: DiffSummary;
   warnings: InventoryIssue[];
   observed?: { edges: number };
+  /** Needs the importer inferred from configuration, each with its reason and position (dry runs only). */
+  inferred?: { total: number; needs: InferredNeed[] };
 }
 
 export interface DiffSummary extends SnapshotDiff {
@@ -79,6 +84,7 @@ function parse(input: PushInput): NormalisedInventory {
     contentType: input.contentType ?? undefined,
     source: input.source ?? undefined,
     environment: input.environment,
+    kubernetes: input.kubernetes,
   });
   if (!result.ok) {
     throw new AppError(result.status === 413 ? "payload_too_large" : "invalid_inventory", result.status === 413 ? "The inventory is over a limit" : "The inventory has errors; nothing was changed", result.issues);
@@ -276,5 +282,6 @@ async function applyInventory({
     diff,
     warnings,
     ...(input.format === "otlp" ? { observed: { edges: inventory.observedEdges.length } } : {}),
+    ...(input.dryRun ? inferredNeedsOf(inventory) : {}),
   };
 }

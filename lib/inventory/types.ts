@@ -69,6 +69,11 @@ interface NeedCommon {
   /** Absent means `["declared"]`. Sorted, without repeats. */
   provenance?: Provenance[];
   at?: FilePosition;
+  /**
+   * Why an importer inferred the need, in words for the dry-run preview (names of variables,
+   * keys and objects only, never a configuration value). Not stored.
+   */
+  reason?: string;
 }
 
 export type Need = ({ type: "single"; key: string } | { type: "any_of"; keys: string[] }) & NeedCommon;
@@ -109,7 +114,7 @@ export interface NormalisedInventory {
   warnings: InventoryIssue[];
 }
 
-export const IMPORT_FORMATS = ["pinchpoint", "compose", "csv", "otlp"] as const;
+export const IMPORT_FORMATS = ["pinchpoint", "compose", "csv", "otlp", "kubernetes"] as const;
 export type ImportFormat = (typeof IMPORT_FORMATS)[number];
 
 export type ImportResult =
@@ -135,4 +140,20 @@ export interface ImportRequest {
    * Importers that find positions anyway (inferred needs) may fill `at` regardless.
    */
   positions?: boolean;
+  /** Per-push settings of the `kubernetes` format (query parameters of the push). */
+  kubernetes?: KubernetesImportOptions;
+}
+
+/** How a Kubernetes push maps names and owners; every field has a documented default (importers/README.md). */
+export interface KubernetesImportOptions {
+  /** The cluster's DNS domain, for `svc.ns.svc.<domain>` names. Default `cluster.local`. */
+  clusterDomain?: string;
+  /** Label or annotation key whose value is the owning team. Default `team`. */
+  teamKey?: string;
+  /** Namespace → team for this push; wins over what the Namespace objects say. */
+  teams?: Record<string, string>;
+  /** When nothing else names a team, the namespace's name is the team. Default false. */
+  namespaceTeams?: boolean;
+  /** Offer Service names and `app` labels as component aliases. Default true. */
+  aliases?: boolean;
 }

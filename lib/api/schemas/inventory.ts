@@ -1,14 +1,45 @@
 import { z } from "zod";
-import { IMPORT_FORMATS, SOURCE_PATTERN } from "@/lib/inventory/types";
+import { IMPORT_FORMATS, SOURCE_PATTERN, type KubernetesImportOptions } from "@/lib/inventory/types";
 import { booleanParam, kindSchema, slugSchema } from "./common";
+
+/** Query parameters that only the `kubernetes` format reads (importers/README.md, Kubernetes). */
+export const KUBERNETES_PUSH_PARAMS = ["cluster_domain", "team_key", "teams", "namespace_teams", "aliases"] as const;
 
 export const pushQuerySchema = z
   .object({
     dry_run: booleanParam.optional(),
     format: z.enum(IMPORT_FORMATS).optional(),
     source: z.string().regex(SOURCE_PATTERN, "must be a source name").optional(),
+    cluster_domain: z.string().max(253).optional().describe("kubernetes: the cluster's DNS domain (default cluster.local)"),
+    team_key: z.string().max(317).optional().describe("kubernetes: label or annotation key naming the owning team (default team)"),
+    teams: z
+      .string()
+      .max(8_192)
+      .regex(/^[^,:]+:[^,:]+(,[^,:]+:[^,:]+)*$/, "must be namespace:team pairs separated by commas, e.g. shop:storefront,pay:payments")
+      .optional()
+      .describe("kubernetes: namespace:team pairs for this push, e.g. shop:storefront,pay:payments"),
+    namespace_teams: booleanParam.optional().describe("kubernetes: a namespace's name is its team when nothing else names one"),
+    aliases: booleanParam.optional().describe("kubernetes: offer Service names and app labels as component aliases (default true)"),
   })
-  .strict();
+  .strict()
+  .superRefine((q, ctx) => {
+    if ((q.format ?? "pinchpoint") === "kubernetes") return;
+    for (const p of KUBERNETES_PUSH_PARAMS) {
+      if (q[p] !== undefined) ctx.addIssue({ code: "custom", path: [p], message: `${p} is read only with format=kubernetes` });
+    }
+  });
+
+/** The Kubernetes importer's settings from a parsed push query. */
+export function kubernetesOptionsOf(q: z.infer<typeof pushQuerySchema>): KubernetesImportOptions | undefined {
+  if (q.format !== "kubernetes") return undefined;
+  return {
+    ...(q.cluster_domain !== undefined ? { clusterDomain: q.cluster_domain } : {}),
+    ...(q.team_key !== undefined ? { teamKey: q.team_key } : {}),
+    ...(q.teams !== undefined ? { teams: Object.fromEntries(q.teams.split(",").map((pair) => pair.split(":").map((s) => s.trim()) as [string, string])) } : {}),
+    ...(q.namespace_teams !== undefined ? { namespaceTeams: q.namespace_teams } : {}),
+    ...(q.aliases !== undefined ? { aliases: q.aliases } : {}),
+  };
+}
 
 export const componentsQuerySchema = z
   .object({

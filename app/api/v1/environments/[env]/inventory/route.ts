@@ -1,8 +1,8 @@
-// POST /api/v1/environments/{env}/inventory[?dry_run=true][&format=…&source=…] — push an inventory.
+// POST /api/v1/environments/{env}/inventory[?dry_run=true][&format=…&source=…][&kubernetes settings] — push an inventory.
 import { NextResponse } from "next/server";
 import { parseParams, parseQuery } from "@/lib/api/query";
 import { envParamsSchema } from "@/lib/api/schemas/common";
-import { pushQuerySchema } from "@/lib/api/schemas/inventory";
+import { kubernetesOptionsOf, pushQuerySchema } from "@/lib/api/schemas/inventory";
 import { withPermission } from "@/lib/auth/with-permission";
 import { pushInventory } from "@/lib/data/push";
 import { readBodyWithLimit } from "@/lib/api/body";
@@ -18,6 +18,7 @@ export const POST = withPermission<{ env: string }>("inventory:write", async ({ 
     contentType: req.headers.get("content-type"),
     source: query.source ?? null,
     dryRun: query.dry_run ?? false,
+    kubernetes: kubernetesOptionsOf(query),
     actor,
   });
   return NextResponse.json(result);

@@ -51,6 +51,16 @@ describe("format detection", () => {
     expect(detectFormat("inventory.json", '{"pinchpoint": 1, "services": []}').format).toBe("pinchpoint");
   });
 
+  it("proposes kubernetes for a dropped manifest: multi-document YAML, a List dump, JSON", () => {
+    const manifest = "# rendered by a chart\n---\napiVersion: apps/v1\nkind: Deployment\nmetadata:\n  name: web\n---\napiVersion: v1\nkind: Service\nmetadata:\n  name: web\n";
+    expect(detectFormat("web.yaml", manifest)).toEqual({ format: "kubernetes", why: expect.stringMatching(/Kubernetes/) });
+    expect(detectFormat("dump.yaml", "apiVersion: v1\nitems:\n- apiVersion: v1\n  kind: Service\nkind: List\n").format).toBe("kubernetes");
+    expect(detectFormat("dump.json", '{\n  "apiVersion": "v1",\n  "items": [],\n  "kind": "List"\n}').format).toBe("kubernetes");
+    expect(contentTypeFor("kubernetes", '{"apiVersion": "v1"}')).toBe("application/json");
+    // A Compose file's services: and a format 1 file are still read as before.
+    expect(detectFormat("compose.yaml", "services:\n  web:\n    image: x\n").format).toBe("compose");
+  });
+
   it("picks the content type the importers read and a source name shaped to the pattern", () => {
     expect(contentTypeFor("pinchpoint", "pinchpoint: 1")).toBe("application/yaml");
     expect(contentTypeFor("pinchpoint", ' {"pinchpoint":1}')).toBe("application/json");

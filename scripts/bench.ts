@@ -1,6 +1,6 @@
 // Benchmark of the analysis engine (npm run bench). Speed is measured here, never in tests.
 //   npx tsx scripts/bench.ts                     all sections
-//   npx tsx scripts/bench.ts --only measures     one section (push | measures | igraph)
+//   npx tsx scripts/bench.ts --only measures     one section (push | kubernetes | measures | igraph)
 //   npx tsx scripts/bench.ts --compare-igraph    also time python3-igraph on the 20k graph
 //   npx tsx scripts/bench.ts --edge-list FILE    one JSON line for a `from to` edge list
 //   --runs N                                     calls per side in the igraph comparison (default 3)
@@ -87,6 +87,43 @@ async function benchPush(n: number): Promise<void> {
   });
 }
 
+/** A generated cluster dump (tests/fixtures/generate.ts) through the push path: the kubernetes format's promise is under 5 s. */
+async function benchKubernetes(workloads: number, services: number): Promise<void> {
+  const { withBenchDatabase } = await import("./bench/push");
+  const { generateKubernetesDump } = await import("../tests/fixtures/generate");
+  const body = generateKubernetesDump(workloads, services);
+  await withBenchDatabase(async (url) => {
+    process.env.DATABASE_URL = url;
+    const { db, closeDb } = await import("../models");
+    const { migrateToLatest } = await import("../models/migrate");
+    const { pushInventory } = await import("../lib/data/push");
+    const { importInventory } = await import("../importers");
+    await migrateToLatest(db().sequelize);
+    const actor = { type: "system" as const, label: "bench", canCreateEnvironments: true as const };
+    const push = (dryRun: boolean) => pushInventory({ environment: "bench-k8s", format: "kubernetes", source: "cluster-dump", body, contentType: "application/yaml", dryRun, actor });
+    const t0 = performance.now();
+    const parsed = importInventory({ format: "kubernetes", body, source: "cluster-dump" });
+    const parseMs = ms(t0);
+    if (!parsed.ok) throw new Error(`bench dump refused: ${JSON.stringify(parsed.issues.slice(0, 3))}`);
+    const needs = parsed.inventory.components.reduce((n, c) => n + c.needs.length, 0);
+    const t1 = performance.now();
+    const first = await push(false);
+    const pushMs = ms(t1);
+    const t2 = performance.now();
+    const preview = await push(true);
+    const dryMs = ms(t2);
+    const t3 = performance.now();
+    const again = await push(false);
+    const againMs = ms(t3);
+    console.log(
+      `kubernetes dump ${workloads} workloads + ${services} Services (${(body.length / 1048576).toFixed(1)} MiB, one List), ${needs} inferred needs: ` +
+        `parse+infer ${parseMs} ms; push to stored snapshot #${first.snapshot?.number} ${pushMs} ms (${pushMs < 5000 ? "under" : "OVER"} 5 s); ` +
+        `dry run with ${preview.inferred?.total ?? 0} inferred reasons ${dryMs} ms; identical re-push ${againMs} ms (changed: ${again.changed}, snapshot: ${again.snapshot?.number ?? "none"})`,
+    );
+    await closeDb();
+  });
+}
+
 const sections: Section[] = [
   {
     name: "push",
@@ -94,6 +131,14 @@ const sections: Section[] = [
     run: async () => {
       console.log("# push of a seeded inventory through the API's code path into a throwaway PostgreSQL database");
       await benchPush(20_000);
+    },
+  },
+  {
+    name: "kubernetes",
+    byDefault: true,
+    run: async () => {
+      console.log("# kubernetes format: a generated cluster dump through the API's push path into a throwaway PostgreSQL database");
+      await benchKubernetes(2_000, 3_000);
     },
   },
   {

@@ -14,7 +14,8 @@ ensure_apt \
   "/usr/bin/python3 -c 'import networkx'" python3-networkx \
   "/usr/bin/python3 -c 'import scipy'" python3-scipy \
   "/usr/bin/python3 -c 'import igraph'" python3-igraph \
-  "command -v curl" curl
+  "command -v curl" curl \
+  "command -v jq" jq
 
 # Our own cluster: another port and folder than the demo's, fsync off (throwaway data). Ports not
 # set by the caller are the first free ones from the defaults up, so two checkouts can test at once.

@@ -2,7 +2,11 @@
 # Push one inventory file to Pinchpoint: a dry run on pull requests, a real push on the
 # main branch. Needs curl; uses jq for readable output when it is installed.
 #
-#   push-inventory.sh [--dry-run | --push] [--env ENV] [--format F --source S] FILE
+#   push-inventory.sh [--dry-run | --push] [--env ENV] [--format F --source S]
+#                     [--param NAME=VALUE ...] FILE
+#
+# --param adds a query parameter of the push, e.g. the kubernetes format's
+# `--param teams=shop:storefront` or `--param cluster_domain=corp.internal`.
 #
 # Environment:
 #   PINCHPOINT_URL          base URL, e.g. https://pinchpoint.example.org (required)
@@ -37,6 +41,7 @@ mode_flag=""
 env_slug="${PINCHPOINT_ENV:-production}"
 format=""
 source_name=""
+params=""
 file=""
 
 while [ "$#" -gt 0 ]; do
@@ -46,6 +51,13 @@ while [ "$#" -gt 0 ]; do
     --env) [ "$#" -ge 2 ] || usage; env_slug="$2"; shift ;;
     --format) [ "$#" -ge 2 ] || usage; format="$2"; shift ;;
     --source) [ "$#" -ge 2 ] || usage; source_name="$2"; shift ;;
+    --param)
+      [ "$#" -ge 2 ] || usage
+      case "$2" in
+        [a-z_]*=*) ;;
+        *) die "--param takes NAME=VALUE (got '$2')" ;;
+      esac
+      params="$params $2"; shift ;;
     -h | --help) usage ;;
     -*) die "unknown option $1" ;;
     *) [ -z "$file" ] || die "one file at a time (push-all.sh pushes several)"; file="$1" ;;
@@ -102,6 +114,7 @@ add_query() {
 [ "$mode" = "dry-run" ] && add_query "dry_run=true"
 [ -n "$format" ] && add_query "format=$format"
 [ -n "$source_name" ] && add_query "source=$source_name"
+for p in $params; do add_query "$p"; done
 
 url="${PINCHPOINT_URL%/}/api/v1/environments/$env_slug/inventory$query"
 body="$(mktemp)"
@@ -160,6 +173,12 @@ case "$status" in
          else "snapshot: none" end),
         ((.diff // {}) | to_entries[]
           | "  \(.key): \(.value | if type == "array" then length else . end)")
+      ' "$body"
+      # Needs inferred from configuration (kubernetes, compose): each with its reason, to check in review.
+      jq -r --arg file "$file" '
+        (.inferred // null) | select(. != null)
+        | "inferred needs: \(.total)",
+          (.needs[] | "  \($file):\(.at.line // 1): \(.from) -> \(.to | join(" | ")) (\(.strength), via \(.via // "-")): \(.reason // "")")
       ' "$body"
       count="$(jq -r '(.warnings // []) | length' "$body")"
       printf 'warnings: %s\n' "$count"

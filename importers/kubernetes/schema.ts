@@ -202,3 +202,30 @@ export type Hpa = z.infer<typeof HpaSchema>;
 export type Pdb = z.infer<typeof PdbSchema>;
 export type ConfigMap = z.infer<typeof ConfigMapSchema>;
 export type ObjectMeta = z.infer<typeof ObjectMetaSchema>;
+
+/**
+ * JSON Schema of a `format=kubernetes` body, for the OpenAPI document: one object, a `*List` of
+ * objects or an array of them (multi-document YAML is the same objects separated by `---`).
+ * Only the envelope is described; each kind read is checked against its schema above.
+ */
+export function kubernetesJsonSchema(): Record<string, unknown> {
+  const object = {
+    type: "object",
+    required: ["apiVersion", "kind", "metadata"],
+    properties: {
+      apiVersion: { type: "string" },
+      kind: { type: "string", description: `Read: ${Object.keys(KINDS).join(", ")}; other kinds are skipped and counted in one warning` },
+      metadata: z.toJSONSchema(ObjectMetaSchema, { io: "input", unrepresentable: "any" }),
+    },
+    additionalProperties: true,
+  };
+  return {
+    title: "Kubernetes manifests (format=kubernetes)",
+    description: "Multi-document YAML, JSON, or a List as `kubectl get -o yaml|json` writes it. Secrets' values are dropped while parsing and never stored.",
+    anyOf: [
+      object,
+      { type: "object", required: ["kind", "items"], properties: { kind: { type: "string", pattern: "List$" }, items: { type: "array", items: object } } },
+      { type: "array", items: object },
+    ],
+  };
+}

@@ -3,6 +3,7 @@
 // each operation comes from the same rules the authorization-matrix test holds the handlers to.
 import { z } from "zod";
 import type { RouteRule } from "@/lib/auth/with-permission";
+import { kubernetesJsonSchema } from "@/importers/kubernetes/schema";
 import { inventoryJsonSchema } from "@/lib/inventory/schema";
 import { annotateBodySchema, drillBodySchema, rankHistoryQuerySchema, rankingsExportQuerySchema, rankingsQuerySchema } from "./schemas/analysis";
 import { pageQuerySchema } from "./schemas/history";
@@ -36,7 +37,7 @@ export const OPERATIONS: Record<string, Partial<Record<Method, Operation>>> = {
     delete: { summary: "Delete an environment and everything of it, bound tokens included; ?confirm=<slug> required; audited", rule: "admin", query: deleteEnvironmentQuerySchema },
   },
   "/environments/{env}/inventory": {
-    post: { summary: "Push an inventory (YAML, JSON, Compose, CSV or OTLP/JSON); dry_run=true writes nothing", rule: "inventory:write", query: pushQuerySchema, body: "inventory" },
+    post: { summary: "Push an inventory (YAML, JSON, Compose, CSV, OTLP/JSON or Kubernetes manifests); dry_run=true writes nothing", rule: "inventory:write", query: pushQuerySchema, body: "inventory" },
   },
   "/environments/{env}/components": { get: { summary: "Components, filtered", rule: "read", query: componentsQuerySchema } },
   "/environments/{env}/components/{key}": {
@@ -125,8 +126,8 @@ export function openApiDocument(serverUrl: string) {
           ? {
               required: true,
               content: {
-                "application/yaml": { schema: inventoryJsonSchema() },
-                "application/json": { schema: inventoryJsonSchema() },
+                "application/yaml": { schema: { oneOf: [inventoryJsonSchema(), kubernetesJsonSchema()] } },
+                "application/json": { schema: { oneOf: [inventoryJsonSchema(), kubernetesJsonSchema()] } },
                 "text/csv": { schema: { type: "string" } },
               },
             }

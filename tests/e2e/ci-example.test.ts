@@ -15,17 +15,20 @@ const browser = browserForFile();
 const root = path.resolve(__dirname, "../..");
 let page: Page;
 let token: string;
+let k8sToken: string;
 
 beforeAll(async () => {
   page = await signedInPage(browser(), "admin");
   const res = await page.request.post(`${baseUrl()}/api/v1/tokens`, { data: { name: "e2e-ci-example", scopes: ["inventory:write"], environment: "production", source: "checkout-repo" } });
   expect(res.status()).toBe(201);
   token = ((await res.json()) as { token: string }).token;
+  const k8s = await page.request.post(`${baseUrl()}/api/v1/tokens`, { data: { name: "e2e-ci-k8s", scopes: ["inventory:write"], environment: "production", source: "recipes-k8s" } });
+  k8sToken = ((await k8s.json()) as { token: string }).token;
 });
 
-const run = (args: string[]) =>
+const run = (args: string[], withToken = () => token) =>
   spawnSync("sh", [path.join(root, "examples/ci/push-inventory.sh"), ...args], {
-    env: { ...process.env, PINCHPOINT_URL: baseUrl(), PINCHPOINT_TOKEN: token, PINCHPOINT_ENV: "production", PINCHPOINT_MODE: "dry-run" },
+    env: { ...process.env, PINCHPOINT_URL: baseUrl(), PINCHPOINT_TOKEN: withToken(), PINCHPOINT_ENV: "production", PINCHPOINT_MODE: "dry-run" },
     encoding: "utf8",
     timeout: 30_000,
   });
@@ -44,5 +47,14 @@ describe("examples/ci/push-inventory.sh", () => {
     const out = run(["--dry-run", file]);
     expect(out.status).toBe(1);
     expect(out.stdout + out.stderr).toContain(`${file}:5:11`);
+  });
+
+  it("dry-runs the Kubernetes example with the kubernetes format and lists the inferred needs with their reasons", () => {
+    const file = path.join(root, "examples/kubernetes/recipes.yaml");
+    const out = run(["--dry-run", "--format", "kubernetes", "--source", "recipes-k8s", "--param", "teams=recipes:catalog", file], () => k8sToken);
+    expect({ status: out.status, stderr: out.stderr }).toMatchObject({ status: 0 });
+    expect(out.stdout).toContain("inferred needs: 3");
+    expect(out.stdout).toContain(`${file}:20: recipes-api -> recipes-db (hard, via RECIPES_DB_URL): envFrom ConfigMap recipes/recipes-api-config key RECIPES_DB_URL names Service recipes/recipes-db`);
+    expect(out.stdout).not.toContain("not-a-real-password");
   });
 });

@@ -1,6 +1,8 @@
 // The imports screen as a new engineer meets it: a broken file first (errors at the right lines,
 // with the offending lines shown), then a good one → dry-run preview → push → history.
 // Writes only source `e2e-imports-repo` with keys `e2e-imp-*` in `production`, which no other test reads.
+import { readFileSync } from "node:fs";
+import path from "node:path";
 import type { Page } from "playwright-core";
 import { describe, expect, it } from "vitest";
 import { baseUrl, screenshot, browserForFile } from "./browser";
@@ -92,6 +94,30 @@ describe("imports screen", () => {
     expect(await firstRow.textContent()).toContain(`snapshot #${snapshot}`);
     expect(await firstRow.textContent()).toContain("engineer@harbor-pantry.example");
     await screenshot(page, "imports-pushed");
+    await page.context().close();
+  });
+
+  it("recognises a dropped Kubernetes manifest, proposes the kubernetes format and lists the inferred needs with their reasons", async () => {
+    const page = await signedIn("engineer");
+    await page.goto(`${baseUrl()}/environments/production/imports`);
+    await page.getByTestId("dropzone").waitFor();
+    const text = readFileSync(path.resolve(__dirname, "../../examples/kubernetes/recipes.yaml"), "utf8");
+    // A real drop: a DataTransfer holding the file, dispatched on the drop zone.
+    const transfer = await page.evaluateHandle((t) => {
+      const dt = new DataTransfer();
+      dt.items.add(new File([t], "recipes.yaml", { type: "application/yaml" }));
+      return dt;
+    }, text);
+    await page.dispatchEvent('[data-testid="dropzone"]', "drop", { dataTransfer: transfer });
+    await page.getByTestId("preview-title").waitFor({ timeout: 15_000 });
+    expect(await page.getByLabel("Format").inputValue()).toBe("kubernetes");
+    expect(await page.getByTestId("picked-file").locator("xpath=..").textContent()).toContain("Kubernetes manifests");
+    const rows = await page.getByTestId("inferred-need").allTextContents();
+    expect(rows).toHaveLength(3);
+    expect(rows.join("\n")).toContain("recipes-api → recipes-db");
+    expect(rows.join("\n")).toContain("envFrom ConfigMap recipes/recipes-api-config key RECIPES_DB_URL names Service recipes/recipes-db");
+    expect(await page.content()).not.toContain("not-a-real-password");
+    await screenshot(page, "imports-kubernetes-preview");
     await page.context().close();
   });
 

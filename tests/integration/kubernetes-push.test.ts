@@ -4,6 +4,7 @@
 import { QueryTypes } from "sequelize";
 import { afterEach, beforeAll, describe, expect, it, vi } from "vitest";
 import { POST as push } from "@/app/api/v1/environments/[env]/inventory/route";
+import { openApiDocument } from "@/lib/api/openapi";
 import { db } from "@/models";
 import { generateKubernetesDump } from "../fixtures/generate";
 import { call, createUser, type TestUser } from "../support/api";
@@ -152,6 +153,15 @@ describe("kubernetes pushes", () => {
     );
     // Two inferred needs per workload (an env URL and an argument), each on another workload.
     expect([row?.c, row?.d]).toEqual(["200", "400"]);
+  });
+
+  it("the OpenAPI document lists the format's query parameters and describes a manifest body", () => {
+    const doc = openApiDocument("http://127.0.0.1:3000") as unknown as {
+      paths: Record<string, { post: { parameters: { name: string }[]; requestBody: { content: Record<string, { schema: { oneOf: { title?: string }[] } }> } } }>;
+    };
+    const op = doc.paths["/environments/{env}/inventory"]?.post;
+    expect(op?.parameters.map((p) => p.name)).toEqual(expect.arrayContaining(["format", "cluster_domain", "team_key", "teams", "namespace_teams", "aliases"]));
+    expect(op?.requestBody.content["application/yaml"]?.schema.oneOf.map((s) => s.title)).toContain("Kubernetes manifests (format=kubernetes)");
   });
 
   it("kubernetes settings are refused with another format, and a bad one is a located 422 that changes nothing", async () => {

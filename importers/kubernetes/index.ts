@@ -298,7 +298,7 @@ export function parseKubernetes(opts: Omit<KubernetesOptions, "body"> & { text: 
   }
 
   // External and unmatched Services: the external ones are components; unmatched ones only have a key.
-  for (const [id, info] of serviceInfo) {
+  for (const info of serviceInfo.values()) {
     if (info.role !== "external") continue;
     const s = info.obj;
     const key = keyOf("Service", s.namespace, s.name);
@@ -308,7 +308,6 @@ export function parseKubernetes(opts: Omit<KubernetesOptions, "body"> & { text: 
     const names = [s.name];
     if (spec.externalName) names.push(spec.externalName.toLowerCase().replace(/\.$/, ""));
     aliasCandidates.set(key, names);
-    void id;
   }
 
   // Entries: Ingresses, Gateways and the routes that attach to no Gateway of the push.
@@ -571,7 +570,7 @@ function workloadOf(o: Obj<never>, kind: WorkloadKind): Workload {
     }
     case "DaemonSet": {
       const d = o.value as DaemonSet;
-      return { obj: o, kind, podLabels: d.spec.template.metadata?.labels ?? {}, spec: d.spec.template.spec, replicas: scaled(d.status?.desiredNumberScheduled), tags: [] };
+      return { obj: o, kind, podLabels: d.spec.template.metadata?.labels ?? {}, spec: d.spec.template.spec, replicas: scaled(d.status?.desiredNumberScheduled), tags };
     }
     case "Job": {
       const j = o.value as Job;

@@ -24,13 +24,13 @@ export function detectFormat(fileName: string, text: string): Detection {
   if (name.endsWith(".csv") || /^from\s*,\s*to\b/i.test(trimmed)) return { format: "csv", why: "a CSV file with a from,to header" };
   if (trimmed.startsWith("{") || trimmed.startsWith("[")) {
     if (/"resourceSpans"\s*:/.test(start)) return { format: "otlp", why: "JSON with resourceSpans (an OTLP trace export)" };
-    if (/"apiVersion"\s*:/.test(start) && /"kind"\s*:/.test(start)) return { format: "kubernetes", why: "JSON objects with apiVersion and kind (Kubernetes)" };
+    if (/"apiVersion"\s*:/.test(start) && /"kind"\s*:/.test(start)) return { format: "kubernetes", why: "JSON objects with apiVersion and kind" };
     if (/"services"\s*:/.test(start) && !/"pinchpoint"\s*:/.test(start)) return { format: "compose", why: "JSON with services and no pinchpoint version" };
     return { format: "pinchpoint", why: "JSON" };
   }
   if (/^pinchpoint\s*:/m.test(start)) return { format: "pinchpoint", why: "a pinchpoint: version line" };
   // Top-level apiVersion and kind: a Kubernetes manifest (Compose and format 1 files have neither).
-  if (/^apiVersion\s*:/m.test(start) && /^kind\s*:/m.test(start)) return { format: "kubernetes", why: "apiVersion and kind at the top (Kubernetes manifests)" };
+  if (/^apiVersion\s*:/m.test(start) && /^kind\s*:/m.test(start)) return { format: "kubernetes", why: "apiVersion and kind at the top level of a document" };
   if (/(^|\/)(docker-)?compose[^/]*\.ya?ml$/.test(name) || /^services\s*:/m.test(start)) return { format: "compose", why: "a Compose services: section" };
   return { format: "pinchpoint", why: "no other format matched" };
 }

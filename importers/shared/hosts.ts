@@ -59,10 +59,11 @@ export function hostsIn(value: string): string[] {
     if (part === "") continue;
     const eq = part.indexOf("=");
     if (eq !== -1) {
-      const key = part.slice(0, eq).trim().toLowerCase().replace(/^-+/, "");
+      const raw = part.slice(0, eq).trim().toLowerCase();
+      const key = raw.replace(/^-+/, "");
       const val = part.slice(eq + 1);
-      // A known host key, or a flag/variable whose value looks like a host: `--db-host=orders-db`.
-      if (HOST_KEYS.has(key) || /host|server|addr|url|endpoint|broker|uri/.test(key) || key.startsWith("-")) {
+      // A known host key, a variable named like one, or any command-line flag (`--upstream=orders:80`).
+      if (HOST_KEYS.has(key) || /host|server|addr|url|endpoint|broker|uri/.test(key) || raw.startsWith("-")) {
         for (const piece of val.replace(/^tcp:/i, "").split(",")) add(hostOf(piece));
       }
       continue;

@@ -27,6 +27,8 @@ export interface Position {
 export interface StructuredSource {
   value: unknown;
   warnings: InventoryIssue[];
+  /** Nodes carrying one of the tags asked for with `markTags` (e.g. Compose's `!reset`), by path. */
+  tagged?: { path: PathSegment[]; tag: string }[];
   /** Where the value at `path` starts; with `key`, where its member name starts. */
   locate(path: readonly PathSegment[], opts?: { key?: boolean }): Position;
 }
@@ -50,7 +52,14 @@ export function looksLikeJson(text: string, contentType?: string): boolean {
   return /^\s*[{[]/.test(text);
 }
 
-export function loadStructured(text: string, opts: { json: boolean; limit?: CountLimit }): Loaded {
+export interface LoadOptions {
+  json: boolean;
+  limit?: CountLimit;
+  /** Local tags the caller gives a meaning to: reported in `tagged` instead of as unresolved-tag warnings. */
+  markTags?: readonly string[];
+}
+
+export function loadStructured(text: string, opts: LoadOptions): Loaded {
   if (text.trim() === "") {
     return { ok: false, status: 422, issues: [{ path: "", line: 1, column: 1, message: "the file is empty" }] };
   }
@@ -60,7 +69,7 @@ export function loadStructured(text: string, opts: { json: boolean; limit?: Coun
     const message = `nested more than ${MAX_NESTING_DEPTH} levels deep; an inventory needs far fewer`;
     return { ok: false, status: 422, issues: [{ path: "", ...at, message }] };
   }
-  return opts.json ? loadJson(text, opts.limit) : loadYaml(text, opts.limit);
+  return opts.json ? loadJson(text, opts.limit) : loadYaml(text, opts.limit, opts.markTags ?? []);
 }
 
 // JSON.parse does the work; the YAML parser (JSON is YAML 1.2) is only run when an issue
@@ -139,7 +148,8 @@ function loadYamlFast(text: string, limit: CountLimit | undefined): Loaded | nul
   return { ok: true, source: { value, warnings: [], locate } };
 }
 
-function loadYaml(text: string, limit: CountLimit | undefined): Loaded {
+function loadYaml(text: string, limit: CountLimit | undefined, markTags: readonly string[]): Loaded {
+  // loadYamlFast refuses any text with a `!`, so tagged files always take the full path below.
   const fast = loadYamlFast(text, limit);
   if (fast) return fast;
   const lineCounter = new LineCounter();
@@ -160,11 +170,14 @@ function loadYaml(text: string, limit: CountLimit | undefined): Loaded {
       })),
     };
   }
-  const warnings = doc.warnings.map((w) => ({
-    path: formatPath(pathAtOffset(doc, w.pos[0])),
-    ...posOf(w.pos[0]),
-    message: w.message,
-  }));
+  const tagged = markTags.length > 0 ? findTagged(doc.contents, markTags) : [];
+  const warnings = doc.warnings
+    .filter((w) => !(w.code === "TAG_RESOLVE_FAILED" && markTags.some((t) => w.message.includes(`tag: ${t} `) || w.message.endsWith(`tag: ${t}`))))
+    .map((w) => ({
+      path: formatPath(pathAtOffset(doc, w.pos[0])),
+      ...posOf(w.pos[0]),
+      message: w.message.split("\n")[0] ?? w.message,
+    }));
 
   const anchors = new Map<Node, Node>();
   const locator = new Locator(doc, lineCounter, anchors);
@@ -189,7 +202,23 @@ function loadYaml(text: string, limit: CountLimit | undefined): Loaded {
     const message = err instanceof Error ? err.message : String(err);
     return { ok: false, status: 413, issues: [{ path: "", line: 1, column: 1, message: `YAML could not be expanded: ${message}` }] };
   }
-  return { ok: true, source: { value, warnings, locate: (p, o) => locator.locate(p, o) } };
+  return { ok: true, source: { value, warnings, tagged, locate: (p, o) => locator.locate(p, o) } };
+}
+
+function findTagged(root: unknown, tags: readonly string[]): { path: PathSegment[]; tag: string }[] {
+  const out: { path: PathSegment[]; tag: string }[] = [];
+  const walk = (node: unknown, path: PathSegment[], depth: number): void => {
+    if (depth > MAX_NESTING_DEPTH + 2 || node === null || typeof node !== "object") return;
+    const tag = (node as Node).tag;
+    if (tag !== undefined && tags.includes(tag)) out.push({ path, tag });
+    if (isMap(node)) {
+      for (const pair of node.items) walk(pair.value, [...path, keyName(pair.key)], depth + 1);
+    } else if (isSeq(node)) {
+      node.items.forEach((item, i) => walk(item, [...path, i], depth + 1));
+    }
+  };
+  walk(root, [], 0);
+  return out;
 }
 
 function tooMany(limit: CountLimit, size: number, at: Position): InventoryIssue {

@@ -32,7 +32,7 @@ export function mapZodIssues(
     }
     const input = valueAt(source.value, path);
     if (issue.code === "invalid_union") {
-      const branch = opts.unionBranch?.(input) ?? null;
+      const branch = opts.unionBranch?.(input) ?? typeMatchedBranch(issue.errors);
       const chosen = branch === null ? undefined : issue.errors[branch];
       if (chosen !== undefined && chosen.length > 0) {
         out.push(...mapZodIssues(chosen, source, opts, path));
@@ -52,6 +52,12 @@ export function mapZodIssues(
     });
   }
   return out;
+}
+
+/** The one branch whose type fit the input (no type error at its root), when there is exactly one. */
+function typeMatchedBranch(errors: readonly (readonly ZodIssue[])[]): number | null {
+  const fitting = errors.flatMap((errs, i) => (errs.some((e) => e.code === "invalid_type" && e.path.length === 0) ? [] : [i]));
+  return fitting.length === 1 ? (fitting[0] ?? null) : null;
 }
 
 export function valueAt(value: unknown, path: readonly PathSegment[]): unknown {

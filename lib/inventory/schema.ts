@@ -38,7 +38,7 @@ export const StrengthSchema = z
   })
   .describe("hard: down when unmet; soft: degraded when unmet; startup: needed only to start (boot order only)");
 
-const LabelSchema = (what: string) =>
+export const LabelSchema = (what: string) =>
   z
     .string({ error: `${what} must be a string` })
     .min(1, { error: `${what} must not be empty` })

@@ -57,6 +57,8 @@ export const SLUG_PATTERN = /^[a-z0-9][a-z0-9-]{0,62}$/;
 /** One located problem in an input file. `path` is like `components[3].needs[1].key`. */
 export interface InventoryIssue {
   path: string;
+  /** The file it is in, when the push carried several (a layered Compose project). */
+  file?: string;
   line?: number;
   column?: number;
   message: string;
@@ -112,6 +114,32 @@ export interface NormalisedInventory {
   components: InventoryComponent[];
   observedEdges: ObservedEdge[];
   warnings: InventoryIssue[];
+  /**
+   * What the importer read into the files beyond what they say outright (a need inferred from a
+   * host name, a kind taken from an image name, a service left out by its profile), each with its
+   * reason, so a dry-run preview can show them and the author can override them.
+   */
+  notes?: ImportNote[];
+}
+
+export const IMPORT_NOTE_KINDS = ["inferred-need", "startup-need", "soft-on-telemetry", "left-out", "kind-from-image", "kind-from-completion"] as const;
+export type ImportNoteKind = (typeof IMPORT_NOTE_KINDS)[number];
+
+/** One thing an importer inferred, with its reason and where in the files it comes from. */
+export interface ImportNote {
+  kind: ImportNoteKind;
+  /** The component it concerns (for `left-out`: the service left out). */
+  component: string;
+  /** The need's target, for notes about a need. */
+  target?: string;
+  reason: string;
+  at?: FilePosition;
+}
+
+/** One file of a push that carries several (a layered Compose project and its `.env`). */
+export interface ImportFile {
+  name: string;
+  body: string | Uint8Array;
 }
 
 export const IMPORT_FORMATS = ["pinchpoint", "compose", "csv", "otlp", "kubernetes"] as const;
@@ -140,6 +168,13 @@ export interface ImportRequest {
    * Importers that find positions anyway (inferred needs) may fill `at` regardless.
    */
   positions?: boolean;
+  /**
+   * Several files of one push, in order (base file first, then overrides, `.env` anywhere), from a
+   * multipart body. When given, `body` is ignored. Only the Compose importer reads more than one.
+   */
+  files?: ImportFile[];
+  /** Compose profiles to include besides the services that name none (`?profiles=a,b`). */
+  profiles?: string[];
   /** Per-push settings of the `kubernetes` format (query parameters of the push). */
   kubernetes?: KubernetesImportOptions;
 }

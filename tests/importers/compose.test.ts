@@ -17,8 +17,9 @@ describe("compose importer", () => {
     expect(inv.components.map((c) => [c.key, c.name, c.kind])).toEqual([
       ["storefront", "storefront", "service"],
       ["basket", "basket", "service"],
-      ["session-store", "Session-Store", "service"],
-      ["orders-db", "orders-db", "service"],
+      // Kinds from the image table in importers/compose/kinds.ts: valkey is a cache, postgres a datastore.
+      ["session-store", "Session-Store", "cache"],
+      ["orders-db", "orders-db", "datastore"],
       ["search", "search", "service"],
     ]);
     expect(inv.components[0]?.needs).toEqual([hard("basket"), hard("session-store"), hard("search")]);
@@ -26,12 +27,23 @@ describe("compose importer", () => {
     expect(inv.components[1]).toMatchObject({ replicas: 3, tier: 3, team: null, needs: [hard("orders-db")] });
   });
 
-  it("map form: required: false is soft, any condition otherwise hard; links merge with depends_on", () => {
+  // services.depends_on, long syntax: service_completed_successfully "is expected to run to successful
+  // completion before starting a dependent service" → needed to start only; required: false → Compose
+  // "only warns you when the dependency service isn't started" → soft.
+  it("map form: required: false is soft, service_completed_successfully start-up only, other conditions hard; links merge with depends_on", () => {
     const inv = expectOk(compose(fixture("compose/map-form.yaml")));
     const checkout = inv.components.find((c) => c.key === "checkout");
-    expect(checkout?.needs).toEqual([hard("payments"), hard("migrations"), soft("recommendations"), hard("fraud-check"), hard("loyalty-api")]);
+    expect(checkout?.needs).toEqual([
+      hard("payments"),
+      { type: "single", key: "migrations", strength: "startup", via: null },
+      soft("recommendations"),
+      hard("fraud-check"),
+      hard("loyalty-api"),
+    ]);
+    // What others wait to complete is a one-shot job.
+    expect(inv.components.find((c) => c.key === "migrations")?.kind).toBe("job");
     // loyalty-api is linked but not defined here: kept as a need, with a located warning.
-    expect(inv.warnings).toEqual([located("services.checkout.links[1]", 18, 9, /"loyalty-api" is not a service in this file/)]);
+    expect(inv.warnings).toEqual([located("services.checkout.links[1]", 18, 9, /"loyalty-api" is not a service in this project/)]);
   });
 
   it("a need named twice with different strengths ends hard", () => {
@@ -55,7 +67,8 @@ describe("compose importer", () => {
   it("needs a source from the push, and a mapping of services", () => {
     expect(expectIssues(compose("services: {}\n", ""), 422)).toEqual([expect.objectContaining({ path: "source", message: expect.stringMatching(/names no source/) })]);
     expect(expectIssues(compose("services: {}\n", "Bad Source"), 422)[0]?.message).toMatch(/invalid source/);
-    expect(expectIssues(compose("name: x\nvolumes: {}\n"), 422)).toEqual([located("services", 1, 1, /missing required field "services"/)]);
+    expect(expectIssues(compose("name: x\nvolumes: {}\n"), 422)).toEqual([located("services", 1, 1, /^the file holds no services$/)]);
+    expect(expectIssues(compose("# nothing here yet\n# services will come\n"), 422)).toEqual([located("services", 1, 1, /^the file holds no services$/)]);
   });
 
   it("shares the YAML guards: alias bombs and duplicate keys", () => {

@@ -2,7 +2,7 @@
 // files in order (a multipart body, or a multi-document YAML body), `.env` files among them.
 // `project.ts` builds the merged Compose model the way Compose would, `graph.ts` reads the
 // components and needs out of it; see both for the rules and importers/README.md for the list.
-import type { ImportFile, ImportResult, InventoryIssue } from "@/lib/inventory/types";
+import { SOURCE_PATTERN, type ImportFile, type ImportResult, type InventoryIssue } from "@/lib/inventory/types";
 import { checkedText } from "../shared/body";
 import { checkOrigin } from "../shared/origin";
 import { finishIssues } from "../shared/text";
@@ -47,7 +47,7 @@ export function parseCompose(opts: Omit<ComposeOptions, "body"> & { text: string
   const fileSource = graph.projectExtension?.source;
   const origin = checkOrigin({ source: opts.source || fileSource, environment: opts.environment });
   const issues: InventoryIssue[] = [...origin.issues, ...project.issues, ...graph.issues];
-  if (fileSource && opts.source && fileSource !== opts.source) {
+  if (fileSource && opts.source && fileSource !== opts.source && SOURCE_PATTERN.test(fileSource)) {
     issues.push({ path: "x-pinchpoint.source", message: `the file says source ${JSON.stringify(fileSource)} but the push says ?source=${opts.source}` });
   }
   const firstFile = project.files[0];
@@ -72,10 +72,27 @@ export function parseCompose(opts: Omit<ComposeOptions, "body"> & { text: string
       environment: origin.environment,
       components: graph.components,
       observedEdges: [],
-      warnings: onceEach(warnings),
+      warnings: inFileOrder(onceEach(warnings), project.files.map((f) => f.name)),
       notes: graph.notes,
     },
   };
+}
+
+/** By file (in push order), then line and column; unlocated ones last, in the order found. */
+function inFileOrder(warnings: InventoryIssue[], files: (string | null)[]): InventoryIssue[] {
+  const fileRank = (w: InventoryIssue): number => {
+    if (w.file === undefined) return -1;
+    const i = files.indexOf(w.file);
+    return i === -1 ? files.length : i;
+  };
+  return warnings
+    .map((w, i) => ({ w, i }))
+    .sort((a, b) => {
+      const la = a.w.line === undefined ? 1 : 0;
+      const lb = b.w.line === undefined ? 1 : 0;
+      return la - lb || fileRank(a.w) - fileRank(b.w) || (a.w.line ?? 0) - (b.w.line ?? 0) || (a.w.column ?? 0) - (b.w.column ?? 0) || a.i - b.i;
+    })
+    .map(({ w }) => w);
 }
 
 /** Each warning once, whatever path led to it twice. */

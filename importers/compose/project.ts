@@ -209,8 +209,8 @@ export function loadProject(opts: { text: string; files?: PushedFile[]; contentT
       ...(p.line !== undefined ? { line: p.line + f.lineOffset, column: p.column } : {}),
     };
   };
-  const at = (where: Where | undefined, message: string, path: PathSegment[]): InventoryIssue => {
-    const pos = where ? position(where) : undefined;
+  const at = (where: Where | undefined, message: string, path: PathSegment[], key = false): InventoryIssue => {
+    const pos = where ? position(where, { key }) : undefined;
     return { path: formatPath(path), ...(pos ?? {}), message };
   };
   const findFile = (name: string): YamlFile | undefined => lookupByName(files, (f) => f.name, name);
@@ -278,7 +278,7 @@ export function loadProject(opts: { text: string; files?: PushedFile[]; contentT
       for (const [name, svc] of Object.entries(subServices)) {
         const w = origins.get(subServices, name);
         if (name in mine) {
-          warnings.push(at(w, `service ${JSON.stringify(name)} of included file ${JSON.stringify(parts[0]?.name ?? "")} is also declared by the including project; the including project's is kept (Compose does not merge them)`, ["services", name]));
+          warnings.push(at(w, `service ${JSON.stringify(name)} of included file ${JSON.stringify(parts[0]?.name ?? "")} is also declared by the including project; the including project's is kept (Compose does not merge them)`, ["services", name], true));
           continue;
         }
         mine[name] = svc;
@@ -308,7 +308,7 @@ export function loadProject(opts: { text: string; files?: PushedFile[]; contentT
       const extWhere = origins.get(svc, "extends");
       const path = ["services", name, "extends"];
       if (stack.includes(`${poolFile?.index ?? "main"}:${ext.service}`)) {
-        issues.push(at(extWhere, `extends of ${JSON.stringify(name)} goes round in a circle (${[...stack.map((s) => s.split(":")[1]), ext.service].join(" → ")})`, path));
+        issues.push(at(extWhere, `extends of ${JSON.stringify(name)} goes round in a circle (${[...stack.map((s) => s.slice(s.indexOf(":") + 1)), name, ext.service].join(" → ")})`, path));
         return null;
       }
       let base: Record<string, unknown> | null = null;

@@ -37,7 +37,7 @@ export const OPERATIONS: Record<string, Partial<Record<Method, Operation>>> = {
     delete: { summary: "Delete an environment and everything of it, bound tokens included; ?confirm=<slug> required; audited", rule: "admin", query: deleteEnvironmentQuerySchema },
   },
   "/environments/{env}/inventory": {
-    post: { summary: "Push an inventory (YAML, JSON, Compose, CSV, OTLP/JSON or Kubernetes manifests); dry_run=true writes nothing", rule: "inventory:write", query: pushQuerySchema, body: "inventory" },
+    post: { summary: "Push an inventory (YAML, JSON, Compose, CSV, OTLP/JSON or Kubernetes manifests; a layered Compose project as a multipart body of its files); dry_run=true writes nothing", rule: "inventory:write", query: pushQuerySchema, body: "inventory" },
   },
   "/environments/{env}/components": { get: { summary: "Components, filtered", rule: "read", query: componentsQuerySchema } },
   "/environments/{env}/components/{key}": {
@@ -129,6 +129,10 @@ export function openApiDocument(serverUrl: string) {
                 "application/yaml": { schema: { oneOf: [inventoryJsonSchema(), kubernetesJsonSchema()] } },
                 "application/json": { schema: { oneOf: [inventoryJsonSchema(), kubernetesJsonSchema()] } },
                 "text/csv": { schema: { type: "string" } },
+                // A layered Compose project: its files in order (base first, then overrides), `.env` files among them.
+                "multipart/form-data": {
+                  schema: { type: "object", properties: { file: { type: "array", items: { type: "string", format: "binary" } } } },
+                },
               },
             }
           : op.body

@@ -12,7 +12,7 @@ import { importInventory } from "@/importers";
 import { mergeSources } from "@/lib/inventory/merge";
 import { diffSnapshots, snapshotHash, type SnapshotContent, type SnapshotDiff } from "@/lib/inventory/snapshot";
 import { inferredNeedsOf, type InferredNeed } from "@/lib/inventory/inferred";
-import type { ImportFormat, InventoryIssue, KubernetesImportOptions, NormalisedInventory } from "@/lib/inventory/types";
+import type { ImportFile, ImportFormat, ImportNote, InventoryIssue, KubernetesImportOptions, NormalisedInventory } from "@/lib/inventory/types";
 
 export type PushActor = Actor | (SystemActor & { canCreateEnvironments: true });
 
@@ -20,6 +20,10 @@ export interface PushInput {
   environment: string;
   format: ImportFormat;
   body: string | Buffer;
+  /** Several files of one push (a layered Compose project); `body` is then ignored. */
+  files?: ImportFile[];
+  /** Compose profiles to include. */
+  profiles?: string[];
   contentType?: string | null;
   /** required for every format but `pinchpoint`, whose files name their source */
   source?: string | null;
@@ -35,6 +39,8 @@ export interface PushResult {
   snapshot: { id: string; number: number; createdAt: string } | null;
   diff: DiffSummary;
   warnings: InventoryIssue[];
+  /** What the importer inferred beyond what the files say, each with its reason (see ImportNote). */
+  notes?: ImportNote[];
   observed?: { edges: number };
   /** Needs the importer inferred from configuration, each with its reason and position (dry runs only). */
   inferred?: { total: number; needs: InferredNeed[] };
@@ -75,12 +81,18 @@ function checkBinding(actor: PushActor, environmentId: string | null, source: st
 }
 
 function parse(input: PushInput): NormalisedInventory {
-  if (input.format !== "pinchpoint" && !input.source) {
+  // A Compose file may name its source (x-pinchpoint.source); the importer says so when neither does.
+  if (input.format !== "pinchpoint" && input.format !== "compose" && !input.source) {
     throw new AppError("invalid_request", `The ${input.format} format needs ?source=<name>: the file does not say who declared it`);
+  }
+  if (input.files && input.files.length > 1 && input.format !== "compose") {
+    throw new AppError("invalid_request", `Only the compose format reads several files in one push; send one ${input.format} file`);
   }
   const result = importInventory({
     format: input.format,
-    body: input.body,
+    body: input.files?.length === 1 && input.format !== "compose" ? (input.files[0]?.body ?? input.body) : input.body,
+    ...(input.format === "compose" && input.files ? { files: input.files } : {}),
+    ...(input.profiles ? { profiles: input.profiles } : {}),
     contentType: input.contentType ?? undefined,
     source: input.source ?? undefined,
     environment: input.environment,
@@ -281,6 +293,7 @@ async function applyInventory({
     snapshot,
     diff,
     warnings,
+    ...(inventory.notes && inventory.notes.length > 0 ? { notes: inventory.notes } : {}),
     ...(input.format === "otlp" ? { observed: { edges: inventory.observedEdges.length } } : {}),
     ...(input.dryRun ? inferredNeedsOf(inventory) : {}),
   };

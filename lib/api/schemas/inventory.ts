@@ -9,7 +9,16 @@ export const pushQuerySchema = z
   .object({
     dry_run: booleanParam.optional(),
     format: z.enum(IMPORT_FORMATS).optional(),
-    source: z.string().regex(SOURCE_PATTERN, "must be a source name").optional(),
+    source: z
+      .string()
+      .regex(SOURCE_PATTERN, 'must be a source name: 1-128 characters of a-z, 0-9, ".", "_" or "-", starting with a letter or digit')
+      .optional(),
+    // Compose profiles to include (Compose Specification, "Profiles": names are [a-zA-Z0-9][a-zA-Z0-9_.-]+).
+    profiles: z
+      .string()
+      .regex(/^[a-zA-Z0-9][a-zA-Z0-9_.-]*(,[a-zA-Z0-9][a-zA-Z0-9_.-]*)*$/, "must be profile names separated by commas, e.g. debug,test")
+      .transform((v) => v.split(","))
+      .optional(),
     cluster_domain: z.string().max(253).optional().describe("kubernetes: the cluster's DNS domain (default cluster.local)"),
     team_key: z.string().max(317).optional().describe("kubernetes: label or annotation key naming the owning team (default team)"),
     teams: z

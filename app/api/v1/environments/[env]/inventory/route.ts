@@ -1,4 +1,5 @@
-// POST /api/v1/environments/{env}/inventory[?dry_run=true][&format=…&source=…][&kubernetes settings] — push an inventory.
+// POST /api/v1/environments/{env}/inventory[?dry_run=true][&format=…&source=…&profiles=…][&kubernetes settings] — push an
+// inventory, as one body or, for a layered Compose project, as several files in a multipart body.
 import { NextResponse } from "next/server";
 import { parseParams, parseQuery } from "@/lib/api/query";
 import { envParamsSchema } from "@/lib/api/schemas/common";
@@ -6,16 +7,21 @@ import { kubernetesOptionsOf, pushQuerySchema } from "@/lib/api/schemas/inventor
 import { withPermission } from "@/lib/auth/with-permission";
 import { pushInventory } from "@/lib/data/push";
 import { readBodyWithLimit } from "@/lib/api/body";
+import { isMultipart, readPushedFiles } from "@/lib/api/multipart";
 
 export const POST = withPermission<{ env: string }>("inventory:write", async ({ req, params, actor }) => {
   const { env } = parseParams(params, envParamsSchema);
   const query = parseQuery(req.url, pushQuerySchema);
-  const body = await readBodyWithLimit(req);
+  const contentType = req.headers.get("content-type");
+  const files = isMultipart(contentType) ? await readPushedFiles(req) : undefined;
+  const body = files ? Buffer.alloc(0) : await readBodyWithLimit(req);
   const result = await pushInventory({
     environment: env,
     format: query.format ?? "pinchpoint",
     body,
-    contentType: req.headers.get("content-type"),
+    files,
+    profiles: query.profiles,
+    contentType: files ? null : contentType,
     source: query.source ?? null,
     dryRun: query.dry_run ?? false,
     kubernetes: kubernetesOptionsOf(query),

@@ -1,6 +1,8 @@
 // RFC 4180 records with the position of every field. No CSV package is in the dependency
 // tree and the grammar is small; we also need each field's line and column for issues,
-// which general-purpose parsers do not report per field. Accepts LF as well as CRLF.
+// which general-purpose parsers do not report per field. Accepts LF as well as CRLF, and the
+// delimiters spreadsheets export with (`,`, `;` in locales whose decimal mark is a comma, tab).
+// Lines starting with `#` are comments when asked for.
 
 export interface CsvField {
   value: string;
@@ -14,7 +16,27 @@ export type CsvRecord = CsvField[];
 
 export type CsvParse = { ok: true; records: CsvRecord[] } | { ok: false; line: number; column: number; message: string };
 
-export function parseCsvRecords(text: string): CsvParse {
+export interface CsvParseOptions {
+  delimiter?: "," | ";" | "\t";
+  /** Skip lines whose first character is `#`. */
+  comments?: boolean;
+}
+
+/** The delimiter of the first line that is not blank or a comment: whichever of `,` `;` tab occurs most outside quotes. */
+export function sniffDelimiter(text: string): "," | ";" | "\t" {
+  const line = text.split("\n").find((l) => l.trim() !== "" && !l.startsWith("#")) ?? "";
+  const counts = { ",": 0, ";": 0, "\t": 0 };
+  let quoted = false;
+  for (const c of line) {
+    if (c === '"') quoted = !quoted;
+    else if (!quoted && (c === "," || c === ";" || c === "\t")) counts[c] += 1;
+  }
+  const best = (Object.entries(counts) as ["," | ";" | "\t", number][]).sort((a, b) => b[1] - a[1])[0];
+  return best && best[1] > 0 ? best[0] : ",";
+}
+
+export function parseCsvRecords(text: string, opts: CsvParseOptions = {}): CsvParse {
+  const sep = opts.delimiter ?? ",";
   const records: CsvRecord[] = [];
   let record: CsvRecord = [];
   let i = 0;
@@ -23,6 +45,16 @@ export function parseCsvRecords(text: string): CsvParse {
   const n = text.length;
 
   for (;;) {
+    // A comment line: only at the start of a record, so a `#` inside a record is data.
+    if (opts.comments && record.length === 0 && i === lineStart && text[i] === "#") {
+      const nl = text.indexOf("\n", i);
+      if (nl === -1) break;
+      i = nl + 1;
+      line += 1;
+      lineStart = i;
+      if (i >= n) break;
+      continue;
+    }
     const field: CsvField = { value: "", line, column: i - lineStart + 1, quoted: false };
     if (text[i] === '"') {
       field.quoted = true;
@@ -49,12 +81,12 @@ export function parseCsvRecords(text: string): CsvParse {
       }
       field.value = value;
       const next = text[i];
-      if (i < n && next !== "," && next !== "\n" && !(next === "\r" && text[i + 1] === "\n")) {
+      if (i < n && next !== sep && next !== "\n" && !(next === "\r" && text[i + 1] === "\n")) {
         return { ok: false, line, column: i - lineStart + 1, message: "unexpected text after a closing quote" };
       }
     } else {
       let j = i;
-      while (j < n && text[j] !== "," && text[j] !== "\n") j += 1;
+      while (j < n && text[j] !== sep && text[j] !== "\n") j += 1;
       let value = text.slice(i, j);
       if (value.endsWith("\r") && text[j] === "\n") value = value.slice(0, -1);
       const quote = value.indexOf('"');
@@ -69,7 +101,7 @@ export function parseCsvRecords(text: string): CsvParse {
       records.push(record);
       break;
     }
-    if (text[i] === ",") {
+    if (text[i] === sep) {
       i += 1;
       continue;
     }

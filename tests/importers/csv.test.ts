@@ -3,6 +3,7 @@ import { importInventory } from "@/importers";
 import { parseCsvRecords } from "@/importers/csv/parse-csv";
 import { expectIssues, expectOk, fixture, located } from "./helpers";
 
+// Quoting from RFC 4180 §2; the rest (aliases, sniffing, comments) is this importer's own contract, importers/csv/index.ts.
 const csv = (body: string | Buffer, source: string | undefined = "edge-sheet") => importInventory({ format: "csv", body, source });
 
 describe("CSV records (RFC 4180)", () => {
@@ -53,15 +54,52 @@ describe("CSV importer", () => {
     ]);
   });
 
-  it("missing or unknown header columns, empty file, missing source", () => {
-    expect(expectIssues(csv("source,target\na,b\n"), 422)).toEqual([
-      located("header.source", 1, 1, /unknown column "source"/),
-      located("header", 1, 1, /missing header column from/),
-      located("header", 1, 1, /missing header column to/),
-      located("header.target", 1, 8, /unknown column "target"/),
-    ]);
+  it("missing header columns, empty file, missing source", () => {
+    expect(expectIssues(csv("caller,weight\na,b\n"), 422)).toEqual([located("header", 1, 1, /missing header column to: the first row must name the columns.*target, callee, provider or dependency/)]);
     expect(expectIssues(csv("\n\n"), 422)).toEqual([located("", 1, 1, /the file is empty/)]);
+    expect(expectIssues(csv("# only a comment\n"), 422)).toEqual([located("", 1, 1, /the file is empty/)]);
     expect(expectIssues(csv("from,to\na,b\n", ""), 422)[0]).toMatchObject({ path: "source" });
+  });
+
+  it("header aliases; extra known columns; unknown columns ignored with one warning", () => {
+    const inv = expectOk(csv("Caller,Provider,Kind,Tier,Team,Via,Notes,Owner\ncheckout,payments,service,1,checkout,grpc,x,y\npayments,,datastore,2,payments,,,\n"));
+    expect(inv.components).toEqual([
+      expect.objectContaining({ key: "checkout", kind: "service", tier: 1, team: "checkout", needs: [{ type: "single", key: "payments", strength: "hard", via: "grpc" }] }),
+      expect.objectContaining({ key: "payments", kind: "datastore", tier: 2, team: "payments", needs: [] }),
+    ]);
+    expect(inv.warnings).toEqual([located("header", 1, 1, /columns "Notes", "Owner" are not read and were ignored; the columns read are from, to, strength, kind, tier, team, via, any_of/)]);
+  });
+
+  it("an empty to declares a leaf; required/optional/startup strengths; any_of groups by label", () => {
+    const inv = expectOk(csv("source,target,strength,any_of\nweb,api,required,\nweb,recs,optional,\nweb,schema-job,startup,\nweb,search-a,,s\nweb,search-b,soft,s\nsearch-a,,,\n"));
+    expect(inv.components.map((c) => [c.key, c.needs])).toEqual([
+      ["web", [
+        { type: "single", key: "api", strength: "hard", via: null },
+        { type: "single", key: "recs", strength: "soft", via: null },
+        { type: "single", key: "schema-job", strength: "startup", via: null },
+        { type: "any_of", keys: ["search-a", "search-b"], strength: "hard", via: null },
+      ]],
+      ["search-a", []],
+    ]);
+    expect(expectIssues(csv("from,to,any_of\nweb,a,g\n"), 422)).toEqual([located("lines[2].any_of", 2, 7, /any_of group "g" of web has one member/)]);
+  });
+
+  it("delimiter sniffed among comma, semicolon and tab; # lines are comments", () => {
+    for (const sep of [";", "\t"]) {
+      const inv = expectOk(csv(`# exported from the estate sheet\nfrom${sep}to${sep}strength\n# a comment between rows\n"web"${sep}"api"${sep}soft\nweb${sep}db${sep}\n`));
+      expect(inv.components[0]?.needs.map((n) => n.type === "single" && [n.key, n.strength])).toEqual([["api", "soft"], ["db", "hard"]]);
+    }
+  });
+
+  it("keys are lower-cased; two spellings of one key are merged with one warning each", () => {
+    const inv = expectOk(csv("from,to\nCheckout,Payments\ncheckout,payments\nCHECKOUT,orders\n"));
+    expect(inv.components.map((c) => [c.key, c.name, c.needs.length])).toEqual([["checkout", "Checkout", 2]]);
+    expect(inv.warnings.map((w) => w.message)).toEqual([
+      expect.stringMatching(/"checkout" and "Checkout" \(line 2\) are one key, "checkout"/),
+      expect.stringMatching(/"payments" and "Payments" \(line 2\) are one key/),
+      expect.stringMatching(/checkout → payments repeats line 2/),
+      expect.stringMatching(/"CHECKOUT" and "Checkout" \(line 2\) are one key/),
+    ]);
   });
 
   it("binary garbage is refused as not text", () => {

@@ -1,6 +1,6 @@
 // Benchmark of the analysis engine (npm run bench). Speed is measured here, never in tests.
 //   npx tsx scripts/bench.ts                     all sections
-//   npx tsx scripts/bench.ts --only measures     one section (push | kubernetes | measures | igraph)
+//   npx tsx scripts/bench.ts --only measures     one section (push | kubernetes | compose | measures | igraph)
 //   npx tsx scripts/bench.ts --compare-igraph    also time python3-igraph on the 20k graph
 //   npx tsx scripts/bench.ts --edge-list FILE    one JSON line for a `from to` edge list
 //   --runs N                                     calls per side in the igraph comparison (default 3)
@@ -124,6 +124,42 @@ async function benchKubernetes(workloads: number, services: number): Promise<voi
   });
 }
 
+async function benchCompose(n: number): Promise<void> {
+  const { withBenchDatabase } = await import("./bench/push");
+  const { composeProject } = await import("./bench/compose");
+  const project = composeProject({ n });
+  await withBenchDatabase(async (url) => {
+    process.env.DATABASE_URL = url;
+    const { db, closeDb } = await import("../models");
+    const { migrateToLatest } = await import("../models/migrate");
+    const { pushInventory } = await import("../lib/data/push");
+    const { importInventory } = await import("../importers");
+    await migrateToLatest(db().sequelize);
+    const actor = { type: "system" as const, label: "bench", canCreateEnvironments: true as const };
+    // A server that has taken a push before: one dry run into another environment warms the code paths.
+    await pushInventory({ environment: "bench-warm-up", format: "compose", source: "bench-compose", body: project.text, contentType: "application/yaml", dryRun: true, actor });
+    const t0 = performance.now();
+    const parsed = importInventory({ format: "compose", body: project.text, source: "bench-compose", contentType: "application/yaml" });
+    const parseMs = ms(t0);
+    if (!parsed.ok) throw new Error(`bench Compose project refused: ${JSON.stringify(parsed.issues.slice(0, 3))}`);
+    const needs = parsed.inventory.components.reduce((sum, c) => sum + c.needs.length, 0);
+    const inferred = parsed.inventory.components.reduce((sum, c) => sum + c.needs.filter((x) => x.provenance?.includes("inferred")).length, 0);
+    const push = () => pushInventory({ environment: "bench-compose", format: "compose", source: "bench-compose", body: project.text, contentType: "application/yaml", dryRun: false, actor });
+    const t1 = performance.now();
+    const first = await push();
+    const pushMs = ms(t1);
+    const t2 = performance.now();
+    const again = await push();
+    const againMs = ms(t2);
+    console.log(
+      `compose ${n} services, ${needs} needs (${inferred} inferred from URLs in environment), ${(project.text.length / 1048576).toFixed(2)} MiB: ` +
+        `parse+merge+infer ${parseMs} ms; parse and push to stored snapshot #${first.snapshot?.number} ${pushMs} ms (target < 3000 ms); ` +
+        `identical re-push ${againMs} ms (changed: ${again.changed})`,
+    );
+    await closeDb();
+  });
+}
+
 const sections: Section[] = [
   {
     name: "push",
@@ -139,6 +175,14 @@ const sections: Section[] = [
     run: async () => {
       console.log("# kubernetes format: a generated cluster dump through the API's push path into a throwaway PostgreSQL database");
       await benchKubernetes(2_000, 3_000);
+    },
+  },
+  {
+    name: "compose",
+    byDefault: true,
+    run: async () => {
+      console.log("# a generated Compose project (scripts/bench/compose.ts) parsed and pushed through the API's code path");
+      await benchCompose(3000);
     },
   },
   {

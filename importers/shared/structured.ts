@@ -15,6 +15,7 @@ import {
 import { CORE_SCHEMA as FAST_YAML_SCHEMA, load as fastYamlLoad } from "js-yaml";
 import { MAX_NESTING_DEPTH, MAX_YAML_ALIAS_COUNT, MAX_YAML_ALIAS_EXPANSION } from "@/lib/inventory/limits";
 import type { InventoryIssue } from "@/lib/inventory/types";
+import { fastLocator } from "./fast-locate";
 import { scanJson } from "./json-syntax";
 import { findExcessiveNesting } from "./nesting";
 import { formatPath, lineIndex, type PathSegment } from "./text";
@@ -144,7 +145,10 @@ function loadYamlFast(text: string, limit: CountLimit | undefined): Loaded | nul
     const size = Array.isArray(coll) ? coll.length : isRecord(coll) ? Object.keys(coll).length : 0;
     if (size > limit.max) return null;
   }
-  const locate = lazyLocate(text);
+  // Block-style positions from the indentation index; anything it cannot answer goes to the full parser.
+  const fast = fastLocator(text);
+  const full = lazyLocate(text);
+  const locate: StructuredSource["locate"] = (path, o) => fast(path, o) ?? full(path, o);
   return { ok: true, source: { value, warnings: [], locate } };
 }
 

@@ -100,8 +100,15 @@ function DependencyTable({ rows, mark }: { rows: SnapshotDependency[]; mark: "+"
               <span className={mark === "+" ? "text-ok" : "text-down"}>{mark} </span>
               {dependencyLabel(d)}
             </td>
-            <td className={td}>{d.strength}</td>
-            <td className={`${td} text-muted`}>{d.via ?? "—"}</td>
+            <td className={td}>{d.strength === "startup" ? <span title="needed to start, not to keep running">start-up only</span> : d.strength}</td>
+            <td className={`${td} text-muted`}>
+              {d.via ?? "—"}
+              {d.provenance?.includes("inferred") && (
+                <span className="ml-2 rounded border border-line px-1 text-xs text-degraded" title="a host name in configuration named it; no file declares it outright">
+                  inferred
+                </span>
+              )}
+            </td>
             <td className={`${td} font-mono text-xs text-muted`}>{d.source ?? "—"}</td>
           </tr>
         ))}

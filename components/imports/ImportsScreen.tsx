@@ -13,13 +13,17 @@ import { FORMATS, detectFormat, suggestSource, type Detection } from "./detect";
 import { DiffPreview } from "./DiffPreview";
 import { ImportHistory } from "./ImportHistory";
 import { InferredNeeds } from "./InferredNeeds";
+import { ImporterNotes } from "./ImporterNotes";
 import { IssueList } from "./IssueList";
 import { pushFile, type PushOutcome } from "./push";
 
 interface Picked {
   name: string;
   size: number;
+  /** The first file's text (the one issue excerpts without a file name point into). */
   text: string;
+  /** Every file picked, in order: several make a layered Compose project. */
+  files: { name: string; text: string }[];
   detected: Detection;
 }
 
@@ -38,7 +42,10 @@ function size(bytes: number) {
   return bytes < 1024 ? `${bytes} B` : bytes < 1024 * 1024 ? `${(bytes / 1024).toFixed(1)} KiB` : `${(bytes / 1024 / 1024).toFixed(1)} MiB`;
 }
 
-function Problem({ outcome, text, env }: { outcome: Exclude<PushOutcome, { kind: "ok" }>; text: string | null; env: string }) {
+const textsOf = (file: Picked | null): Record<string, string> | undefined =>
+  file && file.files.length > 1 ? Object.fromEntries(file.files.map((f) => [f.name, f.text])) : undefined;
+
+function Problem({ outcome, text, texts, env }: { outcome: Exclude<PushOutcome, { kind: "ok" }>; text: string | null; texts?: Record<string, string>; env: string }) {
   if (outcome.kind === "invalid") {
     const located = outcome.issues.filter((i) => i.line !== undefined).length;
     return (
@@ -53,7 +60,7 @@ function Problem({ outcome, text, env }: { outcome: Exclude<PushOutcome, { kind:
             {located > 0 ? "Each is shown below at its line in the file, with the lines around it. Fix them all, then check again." : "Fix them, then check again."}
           </p>
         </div>
-        {outcome.issues.length > 0 ? <IssueList issues={outcome.issues} text={text} /> : null}
+        {outcome.issues.length > 0 ? <IssueList issues={outcome.issues} text={text} texts={texts} /> : null}
       </section>
     );
   }
@@ -108,6 +115,7 @@ export function ImportsScreen({ env, canUpload, role }: { env: string; canUpload
   const [file, setFile] = useState<Picked | null>(null);
   const [format, setFormat] = useState<ImportFormat>("pinchpoint");
   const [source, setSource] = useState("");
+  const [profiles, setProfiles] = useState("");
   const [stage, setStage] = useState<Stage>({ step: "idle" });
   const [dragging, setDragging] = useState(false);
   const [readError, setReadError] = useState<string | null>(null);
@@ -115,39 +123,53 @@ export function ImportsScreen({ env, canUpload, role }: { env: string; canUpload
   const needsSource = format !== "pinchpoint";
   const sourceOk = !needsSource || SOURCE_RE.test(source);
 
-  async function check(next: { file: Picked; format: ImportFormat; source: string }) {
+  async function check(next: { file: Picked; format: ImportFormat; source: string; profiles: string }) {
     if (next.format !== "pinchpoint" && !SOURCE_RE.test(next.source)) {
       setStage({ step: "idle" });
       return;
     }
     setStage({ step: "checking" });
-    const outcome = await pushFile({ env, format: next.format, source: next.format === "pinchpoint" ? "" : next.source, text: next.file.text, dryRun: true });
+    const outcome = await pushFile({
+      env,
+      format: next.format,
+      source: next.format === "pinchpoint" ? "" : next.source,
+      text: next.file.text,
+      files: next.file.files,
+      profiles: next.profiles,
+      dryRun: true,
+    });
     setStage({ step: "checked", outcome });
   }
 
-  async function choose(picked: File | undefined) {
-    if (!picked) return;
+  async function choose(list: FileList | File[] | null | undefined) {
+    const picked = [...(list ?? [])];
+    if (picked.length === 0) return;
     setReadError(null);
-    if (picked.size > MAX_BODY_BYTES) {
+    const total = picked.reduce((n, f) => n + f.size, 0);
+    if (total > MAX_BODY_BYTES) {
       setFile(null);
       setStage({ step: "idle" });
-      setReadError(`${picked.name} is ${size(picked.size)}; at most ${size(MAX_BODY_BYTES)} is accepted per push. Split it into several sources.`);
+      setReadError(`${picked.map((f) => f.name).join(", ")}: ${size(total)}; at most ${size(MAX_BODY_BYTES)} is accepted per push. Split it into several sources.`);
       return;
     }
-    const text = await picked.text();
-    const detected = detectFormat(picked.name, text);
-    const next: Picked = { name: picked.name, size: picked.size, text, detected };
-    const nextSource = detected.format === "pinchpoint" ? "" : source || suggestSource(picked.name);
+    const files = await Promise.all(picked.map(async (f) => ({ name: f.name, text: await f.text() })));
+    // The first file that is not an .env file is the one the format is guessed from.
+    const main = files.find((f) => !/(^|\.)env$|^\.env/.test(f.name)) ?? files[0];
+    const text = main?.text ?? "";
+    const name = files.length === 1 ? (main?.name ?? "") : `${main?.name ?? ""} and ${files.length - 1} more`;
+    const detected: Detection = files.length > 1 ? { format: "compose", why: "several files: a layered Compose project, merged in the order chosen" } : detectFormat(main?.name ?? "", text);
+    const next: Picked = { name, size: total, text, files, detected };
+    const nextSource = detected.format === "pinchpoint" ? "" : source || suggestSource(main?.name ?? "upload");
     setFile(next);
     setFormat(detected.format);
     setSource(nextSource);
-    await check({ file: next, format: detected.format, source: nextSource });
+    await check({ file: next, format: detected.format, source: nextSource, profiles });
   }
 
   async function push(preview: PushResult) {
     if (!file) return;
     setStage({ step: "pushing", preview });
-    const outcome = await pushFile({ env, format, source: needsSource ? source : "", text: file.text, dryRun: false });
+    const outcome = await pushFile({ env, format, source: needsSource ? source : "", text: file.text, files: file.files, profiles, dryRun: false });
     if (outcome.kind === "ok") {
       setStage({ step: "pushed", result: outcome.result });
       // The history's first page now has a new row.
@@ -158,7 +180,7 @@ export function ImportsScreen({ env, canUpload, role }: { env: string; canUpload
   function onDrop(event: DragEvent<HTMLDivElement>) {
     event.preventDefault();
     setDragging(false);
-    void choose(event.dataTransfer.files[0]);
+    void choose(event.dataTransfer.files);
   }
 
   const outcome = stage.step === "checked" ? stage.outcome : stage.step === "push-failed" ? stage.outcome : null;
@@ -200,15 +222,19 @@ export function ImportsScreen({ env, canUpload, role }: { env: string; canUpload
                   choose one
                 </button>
               </p>
-              <p className="text-xs text-muted">Pinchpoint inventory (YAML/JSON), Compose file, CSV edge list, OTLP/JSON traces or Kubernetes manifests · up to {size(MAX_BODY_BYTES)}</p>
+              <p className="text-xs text-muted">
+                Pinchpoint inventory (YAML/JSON), Compose project, CSV edge list, OTLP/JSON traces or Kubernetes manifests · up to {size(MAX_BODY_BYTES)}. For a
+                layered Compose project choose all its files at once (compose.yaml, overrides, .env).
+              </p>
               <input
                 ref={picker}
                 type="file"
                 className="sr-only"
                 aria-label="Inventory file"
-                accept=".yaml,.yml,.json,.csv,.txt,application/json,application/yaml,text/csv"
+                multiple
+                accept=".yaml,.yml,.json,.csv,.tsv,.txt,.env,application/json,application/yaml,text/csv"
                 onChange={(e) => {
-                  void choose(e.currentTarget.files?.[0]);
+                  void choose(e.currentTarget.files ? [...e.currentTarget.files] : []);
                   e.currentTarget.value = "";
                 }}
               />
@@ -271,7 +297,22 @@ export function ImportsScreen({ env, canUpload, role }: { env: string; canUpload
                       : "A Pinchpoint file names its own source."}
                   </span>
                 </label>
-                <Button type="button" disabled={!sourceOk || stage.step === "checking" || stage.step === "pushing"} onClick={() => void check({ file, format, source })}>
+                {format === "compose" && (
+                  <label className="block md:col-span-2">
+                    <span className="text-sm font-medium">Profiles</span>
+                    <input
+                      className={`${field} font-mono`}
+                      value={profiles}
+                      placeholder="none: services with no profile only"
+                      onChange={(e) => {
+                        setProfiles(e.target.value.replace(/\s+/g, ""));
+                        setStage({ step: "idle" });
+                      }}
+                    />
+                    <span className="mt-1 block text-xs text-muted">Compose profiles to include, separated by commas (e.g. debug,test).</span>
+                  </label>
+                )}
+                <Button type="button" disabled={!sourceOk || stage.step === "checking" || stage.step === "pushing"} onClick={() => void check({ file, format, source, profiles })}>
                   {stage.step === "checking" ? "Checking…" : "Check again"}
                 </Button>
               </div>
@@ -287,7 +328,7 @@ export function ImportsScreen({ env, canUpload, role }: { env: string; canUpload
 
       {outcome && outcome.kind !== "ok" && (
         <Card title={stage.step === "push-failed" ? "The push was refused" : "This file cannot be pushed yet"}>
-          <Problem outcome={outcome} text={file?.text ?? null} env={env} />
+          <Problem outcome={outcome} text={file?.text ?? null} texts={textsOf(file)} env={env} />
         </Card>
       )}
 
@@ -309,12 +350,13 @@ export function ImportsScreen({ env, canUpload, role }: { env: string; canUpload
             )}
             <DiffPreview diff={preview.diff} />
             {preview.inferred && <InferredNeeds inferred={preview.inferred} />}
+            <ImporterNotes notes={preview.notes ?? []} />
             {preview.warnings.length > 0 && (
               <section className="space-y-2" aria-label="Warnings">
                 <h3 className="text-sm font-semibold text-degraded">
                   {preview.warnings.length} warning{preview.warnings.length === 1 ? "" : "s"} — the push is allowed
                 </h3>
-                <IssueList issues={preview.warnings} text={file?.text ?? null} tone="warning" />
+                <IssueList issues={preview.warnings} text={file?.text ?? null} texts={textsOf(file)} tone="warning" />
               </section>
             )}
             <div className="flex flex-wrap items-center gap-3 border-t border-line pt-4">

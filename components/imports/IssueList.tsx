@@ -52,10 +52,15 @@ function Excerpt({ lines, line, column }: { lines: string[]; line: number; colum
   );
 }
 
-export function IssueList({ issues, text, tone = "error" }: { issues: InventoryIssue[]; text: string | null; tone?: "error" | "warning" }) {
+const splitLines = (text: string): string[] => text.replace(/^\uFEFF/, "").split(/\r\n|\r|\n/);
+
+/** `texts`: the files of a push that carried several, by name, for issues that name their file. */
+export function IssueList({ issues, text, texts, tone = "error" }: { issues: InventoryIssue[]; text: string | null; texts?: Record<string, string>; tone?: "error" | "warning" }) {
   const [showAll, setShowAll] = useState(false);
-  const lines = text === null ? [] : text.replace(/^\uFEFF/, "").split(/\r\n|\r|\n/);
-  const sorted = [...issues].sort((a, b) => (a.line ?? Number.MAX_SAFE_INTEGER) - (b.line ?? Number.MAX_SAFE_INTEGER) || (a.column ?? 0) - (b.column ?? 0));
+  const lines = text === null ? [] : splitLines(text);
+  const linesOf = (issue: InventoryIssue): string[] => (issue.file !== undefined ? (texts?.[issue.file] !== undefined ? splitLines(texts[issue.file] ?? "") : []) : lines);
+  // Issues that name their files come ordered by file from the server; sorting by line alone would interleave the files.
+  const sorted = issues.some((i) => i.file !== undefined) ? issues : [...issues].sort((a, b) => (a.line ?? Number.MAX_SAFE_INTEGER) - (b.line ?? Number.MAX_SAFE_INTEGER) || (a.column ?? 0) - (b.column ?? 0));
   const shown = showAll ? sorted : sorted.slice(0, SHOWN_WITH_EXCERPT);
   const accent = tone === "error" ? "border-down" : "border-degraded";
   return (
@@ -66,14 +71,14 @@ export function IssueList({ issues, text, tone = "error" }: { issues: InventoryI
             <div className="flex flex-wrap items-baseline gap-x-3 gap-y-1 text-sm">
               {issue.line !== undefined && (
                 <span className="font-mono font-semibold text-ink" data-testid="issue-location">
-                  line {issue.line}
+                  {issue.file !== undefined && `${issue.file} `}line {issue.line}
                   {issue.column !== undefined && `:${issue.column}`}
                 </span>
               )}
               <span className="font-mono text-xs text-muted">{issue.path}</span>
             </div>
             <p className="mt-0.5 text-sm text-ink">{issue.message}</p>
-            {issue.line !== undefined && lines.length > 0 && issue.line <= lines.length && <Excerpt lines={lines} line={issue.line} column={issue.column} />}
+            {issue.line !== undefined && linesOf(issue).length > 0 && issue.line <= linesOf(issue).length && <Excerpt lines={linesOf(issue)} line={issue.line} column={issue.column} />}
           </li>
         ))}
       </ol>

@@ -4,8 +4,8 @@ import type { ImportFormat } from "@/lib/inventory/types";
 
 export const FORMATS: { value: ImportFormat; label: string; hint: string }[] = [
   { value: "pinchpoint", label: "Pinchpoint inventory", hint: "YAML or JSON, format 1 — names its own source" },
-  { value: "compose", label: "Compose file", hint: "services and their depends_on / links" },
-  { value: "csv", label: "CSV edge list", hint: "header from,to[,strength], one dependency a row" },
+  { value: "compose", label: "Compose project", hint: "one file, or several at once (base, overrides, .env): merged as Compose does" },
+  { value: "csv", label: "CSV edge list", hint: "header from,to[,strength,kind,tier,team,via,any_of]; comma, semicolon or tab" },
   { value: "otlp", label: "OpenTelemetry traces", hint: "OTLP/JSON export; gives observed edges only" },
   { value: "kubernetes", label: "Kubernetes manifests", hint: "YAML documents, JSON or a List: workloads, Services, Ingresses and routes" },
 ];
@@ -21,7 +21,9 @@ export function detectFormat(fileName: string, text: string): Detection {
   const name = fileName.toLowerCase();
   const start = head(text);
   const trimmed = start.trimStart();
-  if (name.endsWith(".csv") || /^from\s*,\s*to\b/i.test(trimmed)) return { format: "csv", why: "a CSV file with a from,to header" };
+  if (name.endsWith(".csv") || name.endsWith(".tsv") || /^(from|source|caller|consumer)\s*[,;\t]\s*(to|target|callee|provider|dependency)\b/i.test(trimmed)) {
+    return { format: "csv", why: "a CSV file with a from,to header" };
+  }
   if (trimmed.startsWith("{") || trimmed.startsWith("[")) {
     if (/"resourceSpans"\s*:/.test(start)) return { format: "otlp", why: "JSON with resourceSpans (an OTLP trace export)" };
     if (/"apiVersion"\s*:/.test(start) && /"kind"\s*:/.test(start)) return { format: "kubernetes", why: "JSON objects with apiVersion and kind" };

@@ -11,18 +11,43 @@ export type PushOutcome =
   | { kind: "too-large"; message: string; issues: InventoryIssue[] }
   | { kind: "refused"; status: number; message: string };
 
-export async function pushFile({ env, format, source, text, dryRun }: { env: string; format: ImportFormat; source: string; text: string; dryRun: boolean }): Promise<PushOutcome> {
+/**
+ * One file as the body, or — for a layered Compose project — several files as a multipart body, in
+ * the order given (base first, then overrides; `.env` files anywhere).
+ */
+export async function pushFile({
+  env,
+  format,
+  source,
+  text,
+  files,
+  profiles,
+  dryRun,
+}: {
+  env: string;
+  format: ImportFormat;
+  source: string;
+  text: string;
+  files?: { name: string; text: string }[];
+  profiles?: string;
+  dryRun: boolean;
+}): Promise<PushOutcome> {
   const query = new URLSearchParams();
   if (dryRun) query.set("dry_run", "true");
   query.set("format", format);
   if (source) query.set("source", source);
+  if (format === "compose" && profiles) query.set("profiles", profiles);
+  let payload: BodyInit = text;
+  const headers: Record<string, string> = { accept: "application/json" };
+  if (files && files.length > 1) {
+    const form = new FormData();
+    for (const f of files) form.append("file", new Blob([f.text]), f.name);
+    // fetch sets the multipart content type with its boundary itself.
+    payload = form;
+  } else headers["content-type"] = contentTypeFor(format, text);
   let res: Response;
   try {
-    res = await fetch(`/api/v1/environments/${encodeURIComponent(env)}/inventory?${query}`, {
-      method: "POST",
-      headers: { "content-type": contentTypeFor(format, text), accept: "application/json" },
-      body: text,
-    });
+    res = await fetch(`/api/v1/environments/${encodeURIComponent(env)}/inventory?${query}`, { method: "POST", headers, body: payload });
   } catch {
     return { kind: "refused", status: 0, message: "Could not reach Pinchpoint. Check the connection and try again." };
   }

@@ -168,7 +168,9 @@ export function buildGraph(project: Project, opts: { profiles: string[]; positio
         needs.set(to, { strength, provenance: new Set([provenance]), via, ...(at ? { at } : {}), fixed: false });
         return;
       }
-      prior.strength = strongerStrength(prior.strength, strength);
+      // A host name in configuration confirms a declared need; it does not overrule its strength
+      // (`required: false` stays soft, a start-up need stays start-up).
+      if (provenance === "declared") prior.strength = strongerStrength(prior.strength, strength);
       prior.provenance.add(provenance);
       if (prior.via === null && via !== null) prior.via = via;
       if (!prior.at && at) prior.at = at;
@@ -368,7 +370,12 @@ export function buildGraph(project: Project, opts: { profiles: string[]; positio
     const first = [...leftOut.keys()][0] as string;
     const dropped = droppedForProfiles.length > 0 ? `; needs on them were dropped: ${droppedForProfiles.join(", ")}` : "";
     warnings.push(
-      located(where(services, first), ["services", first], `${leftOut.size} service${leftOut.size === 1 ? " is" : "s are"} only in profiles that are not active and ${leftOut.size === 1 ? "was" : "were"} left out: ${names}${dropped}. Push with ?profiles=${byProfile.join(",")} to include them`),
+      located(
+        where(services, first),
+        ["services", first],
+        `${leftOut.size} service${leftOut.size === 1 ? " is" : "s are"} only in profiles that are not active and ${leftOut.size === 1 ? "was" : "were"} left out: ${names}${dropped}. Push with ?profiles=${byProfile.join(",")} to include ${leftOut.size === 1 ? "it" : "them"}`,
+        true,
+      ),
     );
     for (const [n, p] of leftOut) {
       notes.push({ kind: "left-out", component: keyOf(n), reason: `only in profile${p.length === 1 ? "" : "s"} ${p.join(", ")}, which ${p.length === 1 ? "is" : "are"} not active; push with ?profiles=${p.join(",")} to include it`, at: pos(where(services, n)) });

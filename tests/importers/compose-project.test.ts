@@ -430,6 +430,6 @@ describe("the example project (examples/compose/harbor-dispatch)", () => {
     expect(edges(comp(inv, "courier-tracker"))).toEqual({ "route-planner": "hard inferred", "courier-events": "hard inferred", "dispatch-api": "hard inferred" });
     expect(comp(inv, "dispatch-api")).toMatchObject({ tier: 1, replicas: 3, zones: ["harbor-east", "harbor-west"], team: "delivery-routing", aliases: ["dispatchservice"] });
     expect(comp(inv, "route-planner")).toMatchObject({ tier: 2, replicas: 2 });
-    expect(inv.warnings).toEqual([expect.objectContaining({ file: "compose.yaml", line: 59, column: 3, message: expect.stringMatching(/dispatch-db-console \(tools\).*\?profiles=tools to include it/) })]);
+    expect(inv.warnings).toEqual([expect.objectContaining({ file: "compose.yaml", line: 58, column: 3, message: expect.stringMatching(/dispatch-db-console \(tools\).*\?profiles=tools to include it/) })]);
   });
 });

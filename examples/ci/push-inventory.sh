@@ -4,9 +4,12 @@
 #
 #   push-inventory.sh [--dry-run | --push] [--env ENV] [--format F --source S]
 #                     [--param NAME=VALUE ...] FILE
+#   push-inventory.sh [...] --format compose [--source S] [--profiles a,b] FILE...
 #
 # --param adds a query parameter of the push, e.g. the kubernetes format's
 # `--param teams=shop:storefront` or `--param cluster_domain=corp.internal`.
+# A Compose project split over several files (compose.yaml, then its overrides in order,
+# .env and env_file files anywhere) goes in one request: give every file, base first.
 #
 # Environment:
 #   PINCHPOINT_URL          base URL, e.g. https://pinchpoint.example.org (required)
@@ -43,6 +46,8 @@ format=""
 source_name=""
 params=""
 file=""
+files=""
+profiles=""
 
 while [ "$#" -gt 0 ]; do
   case "$1" in
@@ -58,15 +63,24 @@ while [ "$#" -gt 0 ]; do
         *) die "--param takes NAME=VALUE (got '$2')" ;;
       esac
       params="$params $2"; shift ;;
+    --profiles) [ "$#" -ge 2 ] || usage; profiles="$2"; shift ;;
     -h | --help) usage ;;
     -*) die "unknown option $1" ;;
-    *) [ -z "$file" ] || die "one file at a time (push-all.sh pushes several)"; file="$1" ;;
+    *)
+      [ -f "$1" ] || die "no such file: $1"
+      [ -z "$file" ] && file="$1"
+      files="$files
+$1" ;;
   esac
   shift
 done
 
 [ -n "$file" ] || usage
-[ -f "$file" ] || die "no such file: $file"
+count="$(printf '%s\n' "$files" | grep -c .)"
+if [ "$count" -gt 1 ] && [ "$format" != "compose" ]; then
+  die "several files make one Compose project: add --format compose (push-all.sh pushes inventories one by one)"
+fi
+case "$files" in *";"* | *","*) die "file names with ; or , cannot be sent as form parts" ;; esac
 [ -n "${PINCHPOINT_URL:-}" ] || die "PINCHPOINT_URL is not set"
 [ -n "${PINCHPOINT_TOKEN:-}" ] || die "PINCHPOINT_TOKEN is not set"
 command -v curl >/dev/null 2>&1 || die "curl is not installed"
@@ -115,22 +129,38 @@ add_query() {
 [ -n "$format" ] && add_query "format=$format"
 [ -n "$source_name" ] && add_query "source=$source_name"
 for p in $params; do add_query "$p"; done
+[ -n "$profiles" ] && add_query "profiles=$profiles"
 
 url="${PINCHPOINT_URL%/}/api/v1/environments/$env_slug/inventory$query"
 body="$(mktemp)"
 trap 'rm -f "$body"' EXIT
 trap 'exit 130' HUP INT TERM
 
-printf '%s %s to %s (%s)\n' "$mode" "$file" "$env_slug" "$reason"
+# One file is the body; several are form parts in the order given, each named by the path given
+# here, so issues point at the repository's own paths (Pinchpoint matches the paths compose files
+# write for include, extends and env_file against these names, or their base names).
+set --
+if [ "$count" -gt 1 ]; then
+  while IFS= read -r f; do
+    [ -n "$f" ] && set -- "$@" --form "file=@$f;filename=${f#./}"
+  done <<EOF_FILES
+$files
+EOF_FILES
+  shown="$count files ($(printf '%s\n' "$files" | grep . | xargs -n 1 basename | tr '\n' ' ' | sed 's/ $//'))"
+else
+  set -- --header "Content-Type: $content_type" --data-binary "@$file"
+  shown="$file"
+fi
+
+printf '%s %s to %s (%s)\n' "$mode" "$shown" "$env_slug" "$reason"
 
 # The token goes to curl on stdin, not on its command line, so it never shows in `ps`.
 if ! status="$(printf 'Authorization: Bearer %s\n' "$PINCHPOINT_TOKEN" |
   curl --silent --show-error --location --max-time 120 \
     --request POST \
     --header @- \
-    --header "Content-Type: $content_type" \
     --header "Accept: application/json" \
-    --data-binary "@$file" \
+    "$@" \
     --output "$body" \
     --write-out '%{http_code}' \
     "$url")"; then
@@ -148,7 +178,8 @@ fi
 print_issues() { # $1 = jq path to the list, $2 = error | warning
   jq -r --arg file "$file" --arg level "$2" '
     ('"$1"' // [])[]
-    | (if .line then "\($file):\(.line):\(.column // 1)" else $file end) as $where
+    | (.file // $file) as $f
+    | (if .line then "\($f):\(.line):\(.column // 1)" else $f end) as $where
     | "\($where): \($level): \(.message)" + (if .path and .path != "" then " (at \(.path))" else "" end)
   ' "$body"
 }
@@ -158,7 +189,7 @@ annotate() { # $1 = jq path to the list, $2 = error | warning
   if [ "${GITHUB_ACTIONS:-}" = "true" ]; then
     jq -r --arg file "$file" --arg level "$2" '
       ('"$1"' // [])[]
-      | "::\($level) file=\($file)" + (if .line then ",line=\(.line),col=\(.column // 1)" else "" end)
+      | "::\($level) file=\(.file // $file)" + (if .line then ",line=\(.line),col=\(.column // 1)" else "" end)
         + "::" + (.message | gsub("%"; "%25") | gsub("\r"; "%0D") | gsub("\n"; "%0A"))
     ' "$body"
   fi
@@ -178,8 +209,14 @@ case "$status" in
       jq -r --arg file "$file" '
         (.inferred // null) | select(. != null)
         | "inferred needs: \(.total)",
-          (.needs[] | "  \($file):\(.at.line // 1): \(.from) -> \(.to | join(" | ")) (\(.strength), via \(.via // "-")): \(.reason // "")")
+          (.needs[] | "  \(.at.file // $file):\(.at.line // 1): \(.from) -> \(.to | join(" | ")) (\(.strength), via \(.via // "-")): \(.reason // "")")
       ' "$body"
+      # What else Pinchpoint read into the files (start-up-only needs, kinds, left-out profiles), first 50.
+      jq -r '(.notes // []) as $n | if ($n | length) > 0 then
+          "notes: \($n | length)",
+          ($n[0:50][] | "  \(.kind): \(.component)\(if .target then " → \(.target)" else "" end): \(.reason)"),
+          (if ($n | length) > 50 then "  … \(($n | length) - 50) more in the JSON answer" else empty end)
+        else empty end' "$body"
       count="$(jq -r '(.warnings // []) | length' "$body")"
       printf 'warnings: %s\n' "$count"
       print_issues .warnings warning

@@ -40,6 +40,21 @@ describe("examples/ci/push-inventory.sh", () => {
     expect(out.stdout + out.stderr).toMatch(/changed\W+false/i);
   });
 
+  it("dry-runs the example Compose project, its files in one request, and prints what was inferred", async () => {
+    const res = await page.request.post(`${baseUrl()}/api/v1/tokens`, { data: { name: "e2e-ci-compose", scopes: ["inventory:write"], environment: "production" } });
+    const composeToken = ((await res.json()) as { token: string }).token;
+    const dir = path.join(root, "examples/compose/harbor-dispatch");
+    const out = spawnSync(
+      "sh",
+      [path.join(root, "examples/ci/push-inventory.sh"), "--dry-run", "--format", "compose", ...["compose.yaml", "compose.prod.yaml", ".env", "route-planner.env"].map((f) => path.join(dir, f))],
+      { env: { ...process.env, PINCHPOINT_URL: baseUrl(), PINCHPOINT_TOKEN: composeToken, PINCHPOINT_ENV: "production" }, encoding: "utf8", timeout: 30_000 },
+    );
+    expect({ status: out.status, stderr: out.stderr }).toMatchObject({ status: 0 });
+    expect(out.stdout).toMatch(/dry-run 4 files/);
+    expect(out.stdout).toMatch(/inferred-need: dispatch-api → route-planner: ROUTES_URL names "route-planner"/);
+    expect(out.stdout).toMatch(/compose\.yaml:58:3: warning: 1 service is only in profiles/);
+  });
+
   it("reports a broken file as file:line:column messages and fails", () => {
     const dir = mkdtempSync(path.join(tmpdir(), "pp-ci-"));
     const file = path.join(dir, "broken.yaml");

@@ -9,7 +9,7 @@ import { ROLE_LABELS, type Role } from "@/lib/auth/roles";
 import type { PushResult } from "@/lib/data/push";
 import { MAX_BODY_BYTES } from "@/lib/inventory/limits";
 import type { ImportFormat } from "@/lib/inventory/types";
-import { FORMATS, detectFormat, suggestSource, type Detection } from "./detect";
+import { FORMATS, detectFormat, sourceNamedIn, suggestSource, type Detection } from "./detect";
 import { DiffPreview } from "./DiffPreview";
 import { ImportHistory } from "./ImportHistory";
 import { InferredNeeds } from "./InferredNeeds";
@@ -159,7 +159,7 @@ export function ImportsScreen({ env, canUpload, role }: { env: string; canUpload
     const name = files.length === 1 ? (main?.name ?? "") : `${main?.name ?? ""} and ${files.length - 1} more`;
     const detected: Detection = files.length > 1 ? { format: "compose", why: "several files: a layered Compose project, merged in the order chosen" } : detectFormat(main?.name ?? "", text);
     const next: Picked = { name, size: total, text, files, detected };
-    const nextSource = detected.format === "pinchpoint" ? "" : source || suggestSource(main?.name ?? "upload");
+    const nextSource = detected.format === "pinchpoint" ? "" : (detected.format === "compose" ? sourceNamedIn(text) : null) ?? (source || suggestSource(main?.name ?? "upload"));
     setFile(next);
     setFormat(detected.format);
     setSource(nextSource);

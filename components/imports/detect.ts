@@ -49,3 +49,10 @@ export function suggestSource(fileName: string): string {
   const base = fileName.toLowerCase().replace(/\.[a-z0-9]+$/, "").replace(/[^a-z0-9._-]+/g, "-").replace(/^[^a-z0-9]+/, "").slice(0, 60);
   return base || "upload";
 }
+
+/** The source a Compose file names for itself (`x-pinchpoint: { source: … }` at the top level), if any. */
+export function sourceNamedIn(text: string): string | null {
+  const block = /^x-pinchpoint:[ \t]*(\{[^}\n]*\}|\n(?:[ \t]+.*\n?|[ \t]*\n)*)/m.exec(head(text));
+  const m = block ? /(?:^|[\s{,])source:[ \t]*["']?([a-z0-9][a-z0-9._-]{0,127})["']?/m.exec(block[1] ?? "") : null;
+  return m?.[1] ?? null;
+}

@@ -46,12 +46,12 @@ describe("examples/ci/push-inventory.sh", () => {
     const dir = path.join(root, "examples/compose/harbor-dispatch");
     const out = spawnSync(
       "sh",
-      [path.join(root, "examples/ci/push-inventory.sh"), "--dry-run", "--format", "compose", ...["compose.yaml", "compose.prod.yaml", ".env", "route-planner.env"].map((f) => path.join(dir, f))],
+      [path.join(root, "examples/ci/push-inventory.sh"), "--dry-run", "--format", "compose", ...["compose.yaml", "compose.prod.yaml", ".env", "dispatch-routes.env"].map((f) => path.join(dir, f))],
       { env: { ...process.env, PINCHPOINT_URL: baseUrl(), PINCHPOINT_TOKEN: composeToken, PINCHPOINT_ENV: "production" }, encoding: "utf8", timeout: 30_000 },
     );
-    expect({ status: out.status, stderr: out.stderr }).toMatchObject({ status: 0 });
+    if (out.status !== 0) throw new Error(`exit ${out.status}:\n${out.stdout}\n${out.stderr}`);
     expect(out.stdout).toMatch(/dry-run 4 files/);
-    expect(out.stdout).toMatch(/inferred-need: dispatch-api → route-planner: ROUTES_URL names "route-planner"/);
+    expect(out.stdout).toMatch(/inferred-need: dispatch-api → dispatch-routes: ROUTES_URL names "dispatch-routes"/);
     expect(out.stdout).toMatch(/compose\.yaml:58:3: warning: 1 service is only in profiles/);
   });
 

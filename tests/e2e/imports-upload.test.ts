@@ -121,6 +121,29 @@ describe("imports screen", () => {
     await page.context().close();
   });
 
+  it("a layered Compose project: its files chosen together, the dry run lists what was inferred with reasons", async () => {
+    const dir = new URL("../../examples/compose/harbor-dispatch/", import.meta.url);
+    const page = await signedIn("engineer");
+    await page.goto(`${baseUrl()}/environments/production/imports`);
+    await page.getByTestId("dropzone").waitFor();
+    await page.getByLabel("Inventory file").setInputFiles(
+      ["compose.yaml", "compose.prod.yaml", ".env", "dispatch-routes.env"].map((name) => ({ name, mimeType: "text/plain", buffer: readFileSync(new URL(name, dir)) })),
+    );
+    await page.getByTestId("preview-title").waitFor({ timeout: 15_000 });
+    expect(await page.getByTestId("picked-file").textContent()).toContain("compose.yaml and 3 more");
+    const notes = page.getByTestId("importer-notes");
+    await notes.waitFor();
+    // One group per kind of inference, each row with its reason.
+    expect(await page.getByTestId("notes-inferred-need").textContent()).toMatch(/dispatch-api → dispatch-routes.*ROUTES_URL names "dispatch-routes".*compose\.yaml:/);
+    expect(await page.getByTestId("notes-startup-need").textContent()).toMatch(/dispatch-api → dispatch-migrate.*service_completed_successfully/);
+    expect(await page.getByTestId("notes-soft-on-telemetry").textContent()).toMatch(/dispatch-api → otel-collector/);
+    expect(await page.getByTestId("notes-kind-from-image").textContent()).toMatch(/dispatch-db.*postgres:17 looks like a database/);
+    expect(await page.getByTestId("notes-left-out").textContent()).toMatch(/dispatch-db-console.*only in profile tools/);
+    await notes.scrollIntoViewIfNeeded();
+    await screenshot(page, "imports-compose-preview");
+    await page.context().close();
+  });
+
   it("a viewer sees the history and a plain note instead of the upload", async () => {
     const page = await signedIn("viewer");
     await page.goto(`${baseUrl()}/environments/production/imports`);

@@ -411,25 +411,25 @@ describe("the example project (examples/compose/harbor-dispatch)", () => {
   it("reads as its README says: inferred, start-up and telemetry needs, kinds from images, the tools profile left out", async () => {
     const { readFileSync } = await import("node:fs");
     const dir = new URL("../../examples/compose/harbor-dispatch/", import.meta.url);
-    const files = ["compose.yaml", "compose.prod.yaml", ".env", "route-planner.env"].map((name) => ({ name, body: readFileSync(new URL(name, dir), "utf8") }));
+    const files = ["compose.yaml", "compose.prod.yaml", ".env", "dispatch-routes.env"].map((name) => ({ name, body: readFileSync(new URL(name, dir), "utf8") }));
     const inv = expectOk(importInventory({ format: "compose", body: "", files }));
     expect(inv.source).toBe("dispatch-compose");
     expect(inv.components.map((c) => [c.key, c.kind])).toEqual([
-      ["dispatch-gateway", "gateway"], ["dispatch-api", "service"], ["route-planner", "service"], ["courier-tracker", "service"], ["dispatch-migrate", "job"],
+      ["dispatch-gateway", "gateway"], ["dispatch-api", "service"], ["dispatch-routes", "service"], ["courier-tracker", "service"], ["dispatch-migrate", "job"],
       ["dispatch-db", "datastore"], ["route-cache", "cache"], ["courier-events", "queue"], ["otel-collector", "telemetry"],
     ]);
     expect(edges(comp(inv, "dispatch-api"))).toEqual({
       "dispatch-db": "hard declared+inferred",
       "dispatch-migrate": "startup",
       "otel-collector": "soft declared+inferred",
-      "route-planner": "hard inferred",
+      "dispatch-routes": "hard inferred",
       "courier-events": "hard inferred",
     });
-    // required: false stays soft though route-planner.env names the cache too.
-    expect(edges(comp(inv, "route-planner"))).toEqual({ "route-cache": "soft declared+inferred" });
-    expect(edges(comp(inv, "courier-tracker"))).toEqual({ "route-planner": "hard inferred", "courier-events": "hard inferred", "dispatch-api": "hard inferred" });
+    // required: false stays soft though dispatch-routes.env names the cache too.
+    expect(edges(comp(inv, "dispatch-routes"))).toEqual({ "route-cache": "soft declared+inferred" });
+    expect(edges(comp(inv, "courier-tracker"))).toEqual({ "dispatch-routes": "hard inferred", "courier-events": "hard inferred", "dispatch-api": "hard inferred" });
     expect(comp(inv, "dispatch-api")).toMatchObject({ tier: 1, replicas: 3, zones: ["harbor-east", "harbor-west"], team: "delivery-routing", aliases: ["dispatchservice"] });
-    expect(comp(inv, "route-planner")).toMatchObject({ tier: 2, replicas: 2 });
+    expect(comp(inv, "dispatch-routes")).toMatchObject({ tier: 2, replicas: 2 });
     expect(inv.warnings).toEqual([expect.objectContaining({ file: "compose.yaml", line: 58, column: 3, message: expect.stringMatching(/dispatch-db-console \(tools\).*\?profiles=tools to include it/) })]);
   });
 });

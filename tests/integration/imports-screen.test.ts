@@ -5,7 +5,7 @@ import path from "node:path";
 import { beforeAll, describe, expect, it } from "vitest";
 import { POST as pushRoute } from "@/app/api/v1/environments/[env]/inventory/route";
 import { GET as importsRoute } from "@/app/api/v1/environments/[env]/imports/route";
-import { contentTypeFor, detectFormat, suggestSource } from "@/components/imports/detect";
+import { contentTypeFor, detectFormat, sourceNamedIn, suggestSource } from "@/components/imports/detect";
 import { ROLES, type Role } from "@/lib/auth/roles";
 import { pushInventory } from "@/lib/data/push";
 import { db } from "@/models";
@@ -66,6 +66,11 @@ describe("format detection", () => {
     expect(contentTypeFor("pinchpoint", ' {"pinchpoint":1}')).toBe("application/json");
     expect(contentTypeFor("csv", "from,to")).toBe("text/csv");
     expect(suggestSource("My Stack (prod).Compose.yaml")).toMatch(/^[a-z0-9][a-z0-9._-]{0,127}$/);
+    // A Compose file that names its own source keeps it.
+    expect(sourceNamedIn("name: x\nx-pinchpoint:\n  team: t\n  source: dispatch-compose\nservices: {}\n")).toBe("dispatch-compose");
+    expect(sourceNamedIn("x-pinchpoint: { source: 'a-repo', team: t }\nservices: {}\n")).toBe("a-repo");
+    expect(sourceNamedIn("services:\n  a:\n    x-pinchpoint: { source: not-top-level }\n")).toBeNull();
+    expect(detectFormat("edges.txt", "caller;provider;strength\na;b;hard\n").format).toBe("csv");
   });
 });
 

@@ -378,7 +378,12 @@ export function buildGraph(project: Project, opts: { profiles: string[]; positio
       ),
     );
     for (const [n, p] of leftOut) {
-      notes.push({ kind: "left-out", component: keyOf(n), reason: `only in profile${p.length === 1 ? "" : "s"} ${p.join(", ")}, which ${p.length === 1 ? "is" : "are"} not active; push with ?profiles=${p.join(",")} to include it`, at: pos(where(services, n)) });
+      notes.push({
+        kind: "left-out",
+        component: keyOf(n),
+        reason: `only in profile${p.length === 1 ? "" : "s"} ${p.join(", ")}, which ${p.length === 1 ? "is" : "are"} not active; push with ?profiles=${p.join(",")} to include it`,
+        at: project.position(where(services, n), { key: true }),
+      });
     }
   }
   return { components, issues, warnings, notes, needCount, projectExtension: projectExt };

@@ -5,7 +5,7 @@ import { readFileSync } from "node:fs";
 import path from "node:path";
 import type { Page } from "playwright-core";
 import { describe, expect, it } from "vitest";
-import { baseUrl, screenshot, browserForFile } from "./browser";
+import { baseUrl, screenshot, browserForFile, SCREENSHOT_DIR } from "./browser";
 import { signedInPage } from "./pages/signin";
 
 const browser = browserForFile();
@@ -141,6 +141,7 @@ describe("imports screen", () => {
     expect(await page.getByTestId("notes-left-out").textContent()).toMatch(/dispatch-db-console.*only in profile tools/);
     await notes.scrollIntoViewIfNeeded();
     await screenshot(page, "imports-compose-preview");
+    await notes.screenshot({ path: `${SCREENSHOT_DIR}/imports-compose-notes.png` });
     await page.context().close();
   });
 

@@ -53,6 +53,11 @@ function EdgeList({ env, edges, empty }: { env: string; edges: ComponentEdge[]; 
           </Badge>
           {e.group && <Badge tone="info" title="Met while any one member of the group is up">any of</Badge>}
           {e.kind === "undeclared" && <Badge tone="undeclared" title="needed by something, declared by no source">undeclared</Badge>}
+          {e.provenance?.includes("inferred") && (
+            <Badge tone="muted" title={`a host name in configuration named it${e.origin?.line ? ` (${e.origin.file ? `${e.origin.file}:` : "line "}${e.origin.line})` : ""}${e.provenance.includes("declared") ? "; a file declares it too" : ""}`}>
+              {e.provenance.includes("declared") ? "declared and inferred" : "inferred"}
+            </Badge>
+          )}
           {e.via && <span className="text-xs text-faint">via {e.via}</span>}
         </li>
       ))}

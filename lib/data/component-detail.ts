@@ -2,7 +2,7 @@
 // dependents, and its measures in the served analysis.
 import { QueryTypes } from "sequelize";
 import { db } from "@/models";
-import type { ComponentKind, Strength } from "@/lib/inventory/types";
+import type { ComponentKind, FilePosition, Provenance, Strength } from "@/lib/inventory/types";
 import { COMPONENT_SELECT, toComponentListItem, type ComponentListItem, type ComponentRow } from "./components";
 import { notFound } from "@/lib/errors";
 
@@ -13,6 +13,10 @@ export interface ComponentEdge {
   strength: Strength;
   group: string | null;
   via: string | null;
+  /** How the need is known (declared, inferred from configuration, observed). */
+  provenance: Provenance[];
+  /** Where an inferred need was named (file, line, column), when known. */
+  origin: FilePosition | null;
 }
 
 /** A list item (effective owner, declared team, source, notes) plus everything else known. */
@@ -33,7 +37,7 @@ export async function getComponentDetail({ environmentId, key }: { environmentId
   if (!row) throw notFound(`Component "${key}"`);
   const edges = (direction: "needs" | "dependents") =>
     sequelize.query<ComponentEdge>(
-      `SELECT c.key, c.name, c.kind, d.strength, d.group_id AS "group", d.via
+      `SELECT c.key, c.name, c.kind, d.strength, d.group_id AS "group", d.via, d.provenance, d.origin
          FROM dependencies d JOIN components c ON c.environment_id = d.environment_id AND c.key = ${direction === "needs" ? "d.to_key" : "d.from_key"}
         WHERE d.environment_id = :environmentId AND ${direction === "needs" ? "d.from_key" : "d.to_key"} = :key
         ORDER BY c.key`,

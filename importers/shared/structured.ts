@@ -84,7 +84,7 @@ function loadJson(text: string, limit: CountLimit | undefined): Loaded {
     const found = scanJson(text).error;
     const at = found ? toPos(found.offset) : {};
     // No grammar error found means JSON.parse gave up for another reason, in practice depth.
-    const message = found ? found.message : err instanceof RangeError ? "the document is nested too deeply" : String(err);
+    const message = found ? found.message : err instanceof RangeError ? "the document is nested too deeply" : "the text is not JSON";
     return { ok: false, status: 422, issues: [{ path: "", ...at, message: `invalid JSON: ${message}` }] };
   }
   const dupes = scanJson(text).duplicates;

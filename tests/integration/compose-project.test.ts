@@ -128,7 +128,8 @@ describe("a layered Compose project in one push", () => {
     );
     expect(preview.warnings.filter((w) => /profiles/.test(w.message))).toHaveLength(1);
 
-    const first = await call(push, { url: url(""), method: "POST", params: { env: "dispatch" }, as: admin, body, headers: { "content-type": contentType } });
+    // dry_run=0 is a real push, as dry_run=false is.
+    const first = await call(push, { url: url("&dry_run=0"), method: "POST", params: { env: "dispatch" }, as: admin, body, headers: { "content-type": contentType } });
     expect(first.status).toBe(200);
     expect(first.json).toMatchObject({ changed: true, snapshot: { number: 1 } });
 

@@ -8,13 +8,6 @@ const ROW_LIMIT = 100;
 // What each kind of note means and how to change it, in the order a reviewer should read them.
 const GROUPS: { kinds: ImportNoteKind[]; title: string; explain: string; showTarget: boolean }[] = [
   {
-    kinds: ["inferred-need"],
-    title: "Needs inferred from configuration",
-    explain:
-      "A host name of another service appears in an environment variable, env_file, command or entrypoint. These count as hard needs unless the environment's settings make inferred needs soft; declare them with depends_on or x-pinchpoint.needs to make them explicit.",
-    showTarget: true,
-  },
-  {
     kinds: ["startup-need"],
     title: "Start-up-only needs",
     explain: "Needed to start, not to keep running: boot order uses them, blast radius and drills do not.",
@@ -51,7 +44,7 @@ export function ImporterNotes({ notes }: { notes: ImportNote[] }) {
   return (
     <section className="space-y-4" aria-label="What the importer inferred" data-testid="importer-notes">
       <div>
-        <h3 className="text-sm font-semibold">What Pinchpoint read into the files</h3>
+        <h3 className="text-sm font-semibold">What else Pinchpoint read into the files</h3>
         <p className="text-xs text-muted">Not written out in the files, so check each one: the rankings are only as good as these guesses.</p>
       </div>
       {GROUPS.map((g) => {

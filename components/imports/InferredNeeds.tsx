@@ -15,7 +15,7 @@ export function InferredNeeds({ inferred }: { inferred: { total: number; needs: 
         Needs inferred from configuration <span className="font-mono text-muted">({inferred.total})</span>
       </h3>
       <p className="text-xs text-muted">
-        Host names in environment variables, ConfigMaps, commands and arguments that name another component. Nothing declared them: check each reason. How they count
+        Host names in environment variables, env files, ConfigMaps, commands and arguments that name another component. Nothing declared them: check each reason. How they count
         (hard or soft) is an environment setting.
       </p>
       <div className="overflow-x-auto rounded-md border border-line">
@@ -38,7 +38,7 @@ export function InferredNeeds({ inferred }: { inferred: { total: number; needs: 
                 <td className={td}>{n.strength === "startup" ? "start-up only" : n.strength}</td>
                 <td className={`${td} font-mono text-xs`}>{n.via ?? "—"}</td>
                 <td className={`${td} text-muted`}>{n.reason ?? "—"}</td>
-                <td className={`${td} font-mono text-xs text-muted`}>{n.at?.line !== undefined ? `${n.at.line}:${n.at.column ?? 1}` : "—"}</td>
+                <td className={`${td} font-mono text-xs text-muted`}>{n.at?.line !== undefined ? `${n.at.file ? `${n.at.file}:` : ""}${n.at.line}:${n.at.column ?? 1}` : "—"}</td>
               </tr>
             ))}
           </tbody>

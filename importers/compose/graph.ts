@@ -39,6 +39,8 @@ interface Draft {
   at?: FilePosition;
   /** Set by x-pinchpoint.needs: wins over every default. */
   fixed: boolean;
+  /** Why it was inferred (the variable or field and the name it holds), for the dry-run preview. */
+  reason?: string;
 }
 
 const keyOf = (name: string): string => name.toLowerCase();
@@ -145,7 +147,7 @@ export function buildGraph(project: Project, opts: { profiles: string[]; positio
     const path: PathSegment[] = ["services", name];
     const ext = extensionOf(svc);
     const needs = new Map<string, Draft>();
-    const add = (targetName: string, strength: Strength, provenance: Provenance, via: string | null, w: Where | undefined, p: PathSegment[], isHost = false): void => {
+    const add = (targetName: string, strength: Strength, provenance: Provenance, via: string | null, w: Where | undefined, p: PathSegment[], isHost = false, reason?: string): void => {
       const to = isHost ? targetName : keyOf(targetName);
       if (!isHost && !KEY_PATTERN.test(to)) {
         issues.push(located(w, p, `${JSON.stringify(targetName)} cannot be a component key: lower-cased it must be 1-128 characters of a-z, 0-9, ".", "_" or "-", starting with a letter or digit`));
@@ -165,9 +167,10 @@ export function buildGraph(project: Project, opts: { profiles: string[]; positio
       const prior = needs.get(to);
       const at = provenance === "inferred" || opts.positions ? pos(w) : undefined;
       if (!prior) {
-        needs.set(to, { strength, provenance: new Set([provenance]), via, ...(at ? { at } : {}), fixed: false });
+        needs.set(to, { strength, provenance: new Set([provenance]), via, ...(at ? { at } : {}), fixed: false, ...(reason ? { reason } : {}) });
         return;
       }
+      if (reason && !prior.reason) prior.reason = `${reason} (declared too)`;
       // A host name in configuration confirms a declared need; it does not overrule its strength
       // (`required: false` stays soft, a start-up need stays start-up).
       if (provenance === "declared") prior.strength = strongerStrength(prior.strength, strength);
@@ -230,16 +233,17 @@ export function buildGraph(project: Project, opts: { profiles: string[]; positio
         if (target === undefined || target === key) continue;
         const before = needs.get(target);
         const p = [...path, "environment", variable];
+        const reason = `${variable}${at?.file ? ` in ${at.file}` : ""} names ${host === target ? `service ${target}` : `${host}, a name of service ${target}`}`;
         if (at) {
           needCount++;
-          if (!before) needs.set(target, { strength: "hard", provenance: new Set(["inferred"]), via: variable, at, fixed: false });
+          if (!before) needs.set(target, { strength: "hard", provenance: new Set(["inferred"]), via: variable, at, fixed: false, reason });
           else {
             before.provenance.add("inferred");
             before.via ??= variable;
             before.at ??= at;
+            before.reason ??= `${reason} (declared too)`;
           }
-        } else add(target, "hard", "inferred", variable, w, p, true);
-        if (!before) notes.push({ kind: "inferred-need", component: key, target, reason: `${variable} names ${host === target ? `"${host}"` : `"${host}", a name of ${target}`}`, at: at ?? pos(w) });
+        } else add(target, "hard", "inferred", variable, w, p, true, reason);
       }
     }
     for (const field of ["command", "entrypoint"] as const) {
@@ -249,9 +253,7 @@ export function buildGraph(project: Project, opts: { profiles: string[]; positio
       for (const host of hostCandidates(text)) {
         const target = hostNames.get(host);
         if (target === undefined || target === key) continue;
-        const before = needs.get(target);
-        add(target, "hard", "inferred", field, where(svc, field), [...path, field], true);
-        if (!before) notes.push({ kind: "inferred-need", component: key, target, reason: `${field} names "${host}"`, at: pos(where(svc, field)) });
+        add(target, "hard", "inferred", field, where(svc, field), [...path, field], true, `${field} names ${host === target ? `service ${target}` : `${host}, a name of service ${target}`}`);
       }
     }
 
@@ -318,7 +320,7 @@ export function buildGraph(project: Project, opts: { profiles: string[]; positio
     }
     for (const [to, d] of needs) {
       if (inGroup.has(to)) continue;
-      list.push({ type: "single", key: to, strength: d.strength, via: d.via, ...provenanceField(d.provenance), ...(d.at ? { at: d.at } : {}) });
+      list.push({ type: "single", key: to, strength: d.strength, via: d.via, ...provenanceField(d.provenance), ...(d.at ? { at: d.at } : {}), ...(d.reason && d.provenance.has("inferred") ? { reason: d.reason } : {}) });
     }
 
     // Aliases: x-pinchpoint.aliases and the name traces will carry (OTEL_SERVICE_NAME).

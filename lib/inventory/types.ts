@@ -115,14 +115,16 @@ export interface NormalisedInventory {
   observedEdges: ObservedEdge[];
   warnings: InventoryIssue[];
   /**
-   * What the importer read into the files beyond what they say outright (a need inferred from a
-   * host name, a kind taken from an image name, a service left out by its profile), each with its
-   * reason, so a dry-run preview can show them and the author can override them.
+   * What the importer read into the files beyond what they say outright (a start-up-only need, a
+   * kind taken from an image name, a service left out by its profile), each with its reason, so a
+   * dry-run preview can show them and the author can override them. Inferred needs carry their
+   * own `reason` instead.
    */
   notes?: ImportNote[];
 }
 
-export const IMPORT_NOTE_KINDS = ["inferred-need", "startup-need", "soft-on-telemetry", "left-out", "kind-from-image", "kind-from-completion"] as const;
+// Needs inferred from configuration are not notes: they carry their own `reason` (see Need).
+export const IMPORT_NOTE_KINDS = ["startup-need", "soft-on-telemetry", "left-out", "kind-from-image", "kind-from-completion"] as const;
 export type ImportNoteKind = (typeof IMPORT_NOTE_KINDS)[number];
 
 /** One thing an importer inferred, with its reason and where in the files it comes from. */

@@ -51,7 +51,8 @@ describe("examples/ci/push-inventory.sh", () => {
     );
     if (out.status !== 0) throw new Error(`exit ${out.status}:\n${out.stdout}\n${out.stderr}`);
     expect(out.stdout).toMatch(/dry-run 4 files/);
-    expect(out.stdout).toMatch(/inferred-need: dispatch-api → dispatch-routes: ROUTES_URL names "dispatch-routes"/);
+    expect(out.stdout).toMatch(/compose\.yaml:24: dispatch-api -> dispatch-routes \(hard, via ROUTES_URL\): ROUTES_URL names service dispatch-routes/);
+    expect(out.stdout).toMatch(/startup-need: dispatch-api → dispatch-migrate/);
     expect(out.stdout).toMatch(/compose\.yaml:58:3: warning: 1 service is only in profiles/);
   });
 

@@ -134,7 +134,7 @@ describe("imports screen", () => {
     const notes = page.getByTestId("importer-notes");
     await notes.waitFor();
     // One group per kind of inference, each row with its reason.
-    expect(await page.getByTestId("notes-inferred-need").textContent()).toMatch(/dispatch-api → dispatch-routes.*ROUTES_URL names "dispatch-routes".*compose\.yaml:/);
+    expect((await page.getByTestId("inferred-need").allTextContents()).join("\n")).toMatch(/dispatch-api → dispatch-routes.*ROUTES_URL names service dispatch-routes.*compose\.yaml:24/);
     expect(await page.getByTestId("notes-startup-need").textContent()).toMatch(/dispatch-api → dispatch-migrate.*service_completed_successfully/);
     expect(await page.getByTestId("notes-soft-on-telemetry").textContent()).toMatch(/dispatch-api → otel-collector/);
     expect(await page.getByTestId("notes-kind-from-image").textContent()).toMatch(/dispatch-db.*postgres:17 looks like a database/);

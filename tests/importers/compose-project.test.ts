@@ -197,12 +197,23 @@ describe("host names in configuration → inferred needs", () => {
     expect(comp(inv, "worker").needs.map((n) => n.via)).toEqual(["BROKER", "CACHE", "SQL", "command"]);
     expect(comp(inv, "worker").needs[1]?.at).toEqual({ line: 10, column: 9 });
     expect(edges(comp(inv, "sync"))).toEqual({ payment: "hard inferred" });
-    expect(inv.notes?.filter((n) => n.kind === "inferred-need")).toHaveLength(7);
+    // Each inferred need says why, naming the variable or field and the service, never the value.
+    expect(inv.components.flatMap((c) => c.needs.map((n) => n.reason))).toEqual([
+      "ORDERS_DB names service orders-db",
+      "PAYMENT_URL names service payment",
+      "BROKER names service rabbitmq",
+      "CACHE names service cache",
+      "SQL names service sqldata",
+      "command names service orders-db",
+      "entrypoint names service payment",
+    ]);
   });
 
   it("a declared need also named in configuration is both declared and inferred; a name of nothing in the project is ignored", () => {
     const inv = expectOk(one(`services:\n  web:\n    depends_on: [api]\n    environment: { API: "http://api:80", CDN: "https://cdn.example.org" }\n  api: {}\n`));
-    expect(comp(inv, "web").needs).toEqual([{ type: "single", key: "api", strength: "hard", via: "API", provenance: ["declared", "inferred"], at: { line: 4, column: 25 } }]);
+    expect(comp(inv, "web").needs).toEqual([
+      { type: "single", key: "api", strength: "hard", via: "API", provenance: ["declared", "inferred"], at: { line: 4, column: 25 }, reason: "API names service api (declared too)" },
+    ]);
   });
 
   it("env_file content pushed with the project is read with its own file and line; a missing env_file is one warning", () => {
@@ -214,7 +225,9 @@ describe("host names in configuration → inferred needs", () => {
         ["checkout.env", `# checkout settings\nORDERS_DB=orders-db:5432\nSEARCH=http://search:9200 # replaced by environment\n`],
       ]),
     );
-    expect(comp(inv, "checkout").needs).toEqual([{ type: "single", key: "orders-db", strength: "hard", via: "ORDERS_DB", provenance: ["inferred"], at: { file: "checkout.env", line: 2, column: 1 } }]);
+    expect(comp(inv, "checkout").needs).toEqual([
+      { type: "single", key: "orders-db", strength: "hard", via: "ORDERS_DB", provenance: ["inferred"], at: { file: "checkout.env", line: 2, column: 1 }, reason: "ORDERS_DB in checkout.env names service orders-db" },
+    ]);
     expect(inv.warnings.filter((w) => /env_file/.test(w.message))).toEqual([expect.objectContaining({ file: "compose.yaml", line: 3, message: expect.stringMatching(/env_file "\.\/gone\.env" is not in this push/) })]);
   });
 

@@ -115,9 +115,6 @@ describe("a layered Compose project in one push", () => {
     expect(preview.dryRun).toBe(true);
     expect(preview.notes.map((n) => [n.kind, n.component, n.target ?? null])).toEqual(
       expect.arrayContaining([
-        ["inferred-need", "payments", "payments-db"],
-        ["inferred-need", "checkout", "orders"],
-        ["inferred-need", "schema-migrate", "payments-db"],
         ["startup-need", "checkout", "schema-migrate"],
         ["kind-from-image", "payments-db", null],
         ["kind-from-image", "collector", null],
@@ -127,6 +124,15 @@ describe("a layered Compose project in one push", () => {
       ]),
     );
     expect(preview.warnings.filter((w) => /profiles/.test(w.message))).toHaveLength(1);
+    // Inferred needs come with their reasons in the dry run (lib/inventory/inferred.ts).
+    const inferred = (dry.json as { inferred: { needs: { from: string; to: string[]; reason: string; at: { file?: string } }[] } }).inferred.needs;
+    expect(inferred.map((n) => [n.from, n.to.join(), n.reason, n.at.file])).toEqual(
+      expect.arrayContaining([
+        ["payments", "payments-db", "PAYMENTS_DB names service payments-db", "compose.yaml"],
+        ["checkout", "orders", "ORDERS_URL names service orders", "compose.override.yaml"],
+        ["schema-migrate", "payments-db", "command names service payments-db", "compose.yaml"],
+      ]),
+    );
 
     // dry_run=0 is a real push, as dry_run=false is.
     const first = await call(push, { url: url("&dry_run=0"), method: "POST", params: { env: "dispatch" }, as: admin, body, headers: { "content-type": contentType } });

@@ -6,6 +6,7 @@ import { QueryTypes, type Transaction } from "sequelize";
 import { db } from "@/models";
 import { analyse, type AnalysisResult } from "@/lib/analysis";
 import { analysisInputFromContent } from "@/lib/analysis/input";
+import { rankedByBetweenness } from "@/lib/analysis/rank";
 import { readSettings } from "@/lib/inventory/settings";
 import type { PinchWeights } from "@/lib/analysis/types";
 import type { SnapshotContent } from "@/lib/inventory/snapshot";
@@ -163,7 +164,7 @@ async function storeResult({
 }): Promise<"done" | "lost"> {
   const { sequelize } = db();
   const byKey = new Map(content.components.map((c) => [c.key, c]));
-  const ranked = [...result.nodes].sort((a, b) => b.betweenness - a.betweenness || b.pinchScore - a.pinchScore || a.key.localeCompare(b.key));
+  const ranked = rankedByBetweenness(result.nodes);
   const rows = ranked.map((n, i) => {
     const c = byKey.get(n.key);
     return {

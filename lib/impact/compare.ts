@@ -1,0 +1,436 @@
+// What a proposed inventory change does to the estate's failure points: the current graph and its
+// analysis (before) against the proposed graph analysed by the same code as the worker (after).
+// Pure: no database, no framework. Every measure named here is the analysis' own (DESIGN §3);
+// this file only compares them, and works out the few things the stored analysis does not keep
+// (who exactly goes down, cycles of hard needs, dominators per entry) for the part of the graph
+// the change can reach, so that a 50-component change to a 20,000-component estate costs little
+// beyond analysing the proposed graph once.
+import { dominators, entryRoots } from "@/lib/analysis/dominators";
+import type { CompactGraph, Csr } from "@/lib/analysis/graph";
+import { isSinglePoint } from "@/lib/analysis/pinch-score";
+import { ranksByKey } from "@/lib/analysis/rank";
+import { scc } from "@/lib/analysis/scc";
+import type { AnalysisInput, AnalysisResult } from "@/lib/analysis/types";
+import type { ComponentKind, Tier } from "@/lib/inventory/types";
+import { DownSets } from "./down-sets";
+import type { PolicySet } from "./policies";
+
+/** What the comparison reports of one component (from the snapshot content). */
+export interface ComponentFacts {
+  key: string;
+  name: string;
+  kind: ComponentKind;
+  tier: Tier;
+  team: string | null;
+}
+
+/** The measures of one component that the comparison reads (stored or freshly computed). */
+export interface MeasureFacts {
+  pinchScore: number;
+  rank: number;
+  blastDown: number;
+  blastDegraded: number;
+  articulation: boolean;
+}
+
+/** One side of the comparison: a graph as the analysis sees it, and its analysis. */
+export interface ImpactSide {
+  input: AnalysisInput;
+  graph: CompactGraph;
+  measures: ReadonlyMap<string, MeasureFacts>;
+  bridges: ReadonlyArray<readonly [string, string]>;
+  components: ReadonlyMap<string, ComponentFacts>;
+}
+
+/** A side from a fresh analysis (the proposed graph, or the current one when nothing fresh is stored). */
+export function sideFromAnalysis({
+  input,
+  graph,
+  result,
+  components,
+}: {
+  input: AnalysisInput;
+  graph: CompactGraph;
+  result: AnalysisResult;
+  components: ReadonlyMap<string, ComponentFacts>;
+}): ImpactSide {
+  const ranks = ranksByKey(result.nodes);
+  const measures = new Map<string, MeasureFacts>();
+  for (const n of result.nodes) {
+    measures.set(n.key, { pinchScore: n.pinchScore, rank: ranks.get(n.key)!, blastDown: n.blastDown, blastDegraded: n.blastDegraded, articulation: n.articulation });
+  }
+  return { input, graph, measures, bridges: result.graph.bridges, components };
+}
+
+export interface NeedRef {
+  from: string;
+  to: string;
+}
+
+export interface MovedComponent {
+  key: string;
+  before: { pinchScore: number; rank: number } | null;
+  after: { pinchScore: number; rank: number } | null;
+}
+
+export interface HardCycleChange {
+  /** Members, sorted. */
+  members: string[];
+  /** Hard needs inside the cycle that the change added or made hard: what closed it. */
+  closedBy: NeedRef[];
+}
+
+export interface BlastChange {
+  key: string;
+  before: { down: number; degraded: number } | null;
+  after: { down: number; degraded: number } | null;
+  /** Down after but not before when this component fails (null when not worked out). */
+  newlyDown: string[] | null;
+  noLongerDown: string[] | null;
+}
+
+export type SinglePointReason = "new-need" | "now-hard" | "now-tier-1" | "now-single-point";
+
+export interface SinglePointNeed extends NeedRef {
+  reason: SinglePointReason;
+  target: { replicas: number; zones: string[]; undeclared: boolean };
+}
+
+export interface DominatorChange {
+  entry: string;
+  status: "changed" | "new-entry" | "no-longer-entry";
+  /** Components this entry point now cannot avoid (each dominates `dominates` components from it). */
+  added: Array<{ key: string; dominates: number }>;
+  removed: Array<{ key: string; dominates: number }>;
+}
+
+export interface ImpactComparison {
+  /** Components whose needs, tier, replicas or zones differ, and those added or removed. */
+  changedComponents: string[];
+  moved: MovedComponent[];
+  articulation: { added: string[]; removed: string[] };
+  bridges: { added: Array<[string, string]>; removed: Array<[string, string]> };
+  hardCycles: { added: HardCycleChange[]; removed: string[][] };
+  /** Every tier-1 component whose blast radius changed. */
+  tier1Blast: BlastChange[];
+  /** Every component whose failure takes down more than before, most growth first. */
+  downGrowth: BlastChange[];
+  singlePointNeeds: SinglePointNeed[];
+  dominators: { entries: DominatorChange[]; entriesChecked: number; entriesTotal: number };
+  /** Runtime needs present after and not before (or made hard): where findings are located. */
+  addedNeeds: Array<NeedRef & { hard: boolean }>;
+}
+
+export interface CompareOptions {
+  movement: PolicySet["movement"];
+  /** Work out who newly goes down for at most this many components of downGrowth (largest first). */
+  detailedGrowth?: number;
+}
+
+const pairKey = (a: string, b: string): string => `${a}\u0000${b}`;
+const cmp = (a: string, b: string): number => (a < b ? -1 : a > b ? 1 : 0);
+
+/** Every need of an owner, as a comparable signature (what failure propagation reads). */
+function needSignatures(input: AnalysisInput): Map<string, string> {
+  const lists = new Map<string, string[]>();
+  for (const e of input.edges) {
+    const list = lists.get(e.from) ?? [];
+    list.push(`${e.to}|${e.strength}|${e.group ?? ""}`);
+    lists.set(e.from, list);
+  }
+  const out = new Map<string, string>();
+  for (const [k, list] of lists) out.set(k, list.sort().join("\n"));
+  return out;
+}
+
+function changedComponents(before: ImpactSide, after: ImpactSide): { needOwners: Set<string>; all: Set<string> } {
+  const sb = needSignatures(before.input);
+  const sa = needSignatures(after.input);
+  const needOwners = new Set<string>();
+  for (const k of new Set([...sb.keys(), ...sa.keys()])) if (sb.get(k) !== sa.get(k)) needOwners.add(k);
+  const all = new Set(needOwners);
+  const nodeB = new Map(before.input.nodes.map((n) => [n.key, n]));
+  const nodeA = new Map(after.input.nodes.map((n) => [n.key, n]));
+  for (const k of new Set([...nodeB.keys(), ...nodeA.keys()])) {
+    const b = nodeB.get(k);
+    const a = nodeA.get(k);
+    if (!a || !b || a.tier !== b.tier || a.replicas !== b.replicas || [...a.zones].sort().join() !== [...b.zones].sort().join()) all.add(k);
+  }
+  // Keys only named by needs (placeholders the graph adds on its own) come and go too.
+  for (const k of before.graph.keys) if (!after.graph.indexOf.has(k)) all.add(k);
+  for (const k of after.graph.keys) if (!before.graph.indexOf.has(k)) all.add(k);
+  return { needOwners, all };
+}
+
+/** owner → members of its hard needs; `plainOnly` leaves out any_of groups (they have an alternative). */
+function hardAdjacency(graph: CompactGraph, plainOnly: boolean): Csr {
+  const { needs, n } = graph;
+  const counts = new Int32Array(n + 1);
+  for (let g = 0; g < needs.count; g++) {
+    if (!needs.hard[g] || (plainOnly && needs.size[g] !== 1)) continue;
+    counts[needs.owner[g]! + 1]! += needs.members.offsets[g + 1]! - needs.members.offsets[g]!;
+  }
+  for (let v = 0; v < n; v++) counts[v + 1]! += counts[v]!;
+  const fill = counts.slice(0, n);
+  const targets = new Int32Array(counts[n]!);
+  for (let g = 0; g < needs.count; g++) {
+    if (!needs.hard[g] || (plainOnly && needs.size[g] !== 1)) continue;
+    const o = needs.owner[g]!;
+    for (let e = needs.members.offsets[g]!; e < needs.members.offsets[g + 1]!; e++) targets[fill[o]!++] = needs.members.targets[e]!;
+  }
+  return { offsets: counts, targets };
+}
+
+/** Keys reached from `start` along `adjacency` (the start keys included). */
+function reach(graph: CompactGraph, adjacency: Csr, start: Iterable<string>): Set<string> {
+  const seen = new Uint8Array(graph.n);
+  const queue: number[] = [];
+  for (const k of start) {
+    const v = graph.indexOf.get(k);
+    if (v !== undefined && !seen[v]) {
+      seen[v] = 1;
+      queue.push(v);
+    }
+  }
+  for (let i = 0; i < queue.length; i++) {
+    const v = queue[i]!;
+    for (let e = adjacency.offsets[v]!; e < adjacency.offsets[v + 1]!; e++) {
+      const w = adjacency.targets[e]!;
+      if (!seen[w]) {
+        seen[w] = 1;
+        queue.push(w);
+      }
+    }
+  }
+  return new Set(queue.map((v) => graph.keys[v]!));
+}
+
+/** Plain hard needs as "from\0to" (cycles), and every runtime need with its hardness (located findings). */
+function needPairs(graph: CompactGraph): { plainHard: Set<string>; runtime: Map<string, boolean> } {
+  const { needs, keys } = graph;
+  const plainHard = new Set<string>();
+  const runtime = new Map<string, boolean>();
+  for (let g = 0; g < needs.count; g++) {
+    const from = keys[needs.owner[g]!]!;
+    const hard = needs.hard[g] === 1;
+    for (let e = needs.members.offsets[g]!; e < needs.members.offsets[g + 1]!; e++) {
+      const k = pairKey(from, keys[needs.members.targets[e]!]!);
+      if (hard && needs.size[g] === 1) plainHard.add(k);
+      runtime.set(k, (runtime.get(k) ?? false) || hard);
+    }
+  }
+  return { plainHard, runtime };
+}
+
+function hardCycles(graph: CompactGraph, plainHard: Csr): string[][] {
+  // A component needing itself is a self-loop, reported by the analysis on its own; a cycle here
+  // is two or more components each down without the next.
+  return scc(graph, plainHard)
+    .cycles.filter((c) => c.length > 1)
+    .map((c) => c.map((v) => graph.keys[v]!).sort(cmp));
+}
+
+function moved(before: ImpactSide, after: ImpactSide, t: PolicySet["movement"]): MovedComponent[] {
+  const out: Array<MovedComponent & { weight: number }> = [];
+  for (const key of new Set([...before.measures.keys(), ...after.measures.keys()])) {
+    const b = before.measures.get(key);
+    const a = after.measures.get(key);
+    const delta = (a?.pinchScore ?? 0) - (b?.pinchScore ?? 0);
+    let counts: boolean;
+    if (a && b) counts = Math.abs(delta) > t.pinchScore || (Math.min(a.rank, b.rank) <= t.topWindow && Math.abs(a.rank - b.rank) > t.rank);
+    else counts = (a ?? b)!.rank <= t.topWindow || Math.abs(delta) > t.pinchScore;
+    if (!counts) continue;
+    out.push({
+      key,
+      before: b ? { pinchScore: b.pinchScore, rank: b.rank } : null,
+      after: a ? { pinchScore: a.pinchScore, rank: a.rank } : null,
+      weight: Math.abs(delta),
+    });
+  }
+  out.sort((x, y) => y.weight - x.weight || Math.min(x.after?.rank ?? Infinity, x.before?.rank ?? Infinity) - Math.min(y.after?.rank ?? Infinity, y.before?.rank ?? Infinity) || cmp(x.key, y.key));
+  return out.map(({ weight: _weight, ...m }) => m);
+}
+
+function setDiff<T>(a: Iterable<T>, b: ReadonlySet<T>): T[] {
+  const out: T[] = [];
+  for (const x of a) if (!b.has(x)) out.push(x);
+  return out;
+}
+
+function blastChange(key: string, before: ImpactSide, after: ImpactSide): BlastChange {
+  const b = before.measures.get(key);
+  const a = after.measures.get(key);
+  return {
+    key,
+    before: b ? { down: b.blastDown, degraded: b.blastDegraded } : null,
+    after: a ? { down: a.blastDown, degraded: a.blastDegraded } : null,
+    newlyDown: null,
+    noLongerDown: null,
+  };
+}
+
+function withDownSets(change: BlastChange, downBefore: DownSets, downAfter: DownSets): BlastChange {
+  const b = downBefore.keysOf(change.key);
+  const a = downAfter.keysOf(change.key);
+  return { ...change, newlyDown: setDiff(a, b).sort(cmp), noLongerDown: setDiff(b, a).sort(cmp) };
+}
+
+/**
+ * Components each entry point cannot avoid: those that strictly dominate at least one component
+ * from it (Cooper–Harvey–Kennedy, lib/analysis/dominators.ts), with how many they dominate.
+ */
+function chokepoints(graph: CompactGraph, entries: readonly string[]): Map<string, Map<string, number>> {
+  const out = new Map<string, Map<string, number>>();
+  const roots = entries.map((k) => graph.indexOf.get(k)).filter((v): v is number => v !== undefined);
+  // In batches, so the trees of a few thousand entries never have to be held at once.
+  for (let i = 0; i < roots.length; i += 64) {
+    const batch = roots.slice(i, i + 64);
+    const { trees } = dominators(graph, { roots: batch, maxTreeEntries: Number.MAX_SAFE_INTEGER });
+    for (const tree of trees ?? []) {
+      const pos = new Map<number, number>();
+      tree.nodes.forEach((v, j) => pos.set(v, j));
+      const size = new Int32Array(tree.nodes.length).fill(1);
+      // Nodes come in reverse postorder (an idom before the nodes it dominates): sum sizes backwards.
+      for (let j = tree.nodes.length - 1; j >= 1; j--) size[pos.get(tree.idom[j]!)!]! += size[j]!;
+      const map = new Map<string, number>();
+      for (let j = 1; j < tree.nodes.length; j++) if (size[j]! > 1) map.set(graph.keys[tree.nodes[j]!]!, size[j]! - 1);
+      out.set(graph.keys[tree.root]!, map);
+    }
+  }
+  return out;
+}
+
+function dominatorChanges(before: ImpactSide, after: ImpactSide, changed: Set<string>): ImpactComparison["dominators"] {
+  const entriesB = new Set(entryRoots(before.graph).map((v) => before.graph.keys[v]!));
+  const entriesA = new Set(entryRoots(after.graph).map((v) => after.graph.keys[v]!));
+  // An entry's dominator tree can change only if it reaches a changed component in one of the graphs.
+  const upB = reach(before.graph, before.graph.in, changed);
+  const upA = reach(after.graph, after.graph.in, changed);
+  const check = [...entriesA].filter((e) => entriesB.has(e) && (upB.has(e) || upA.has(e))).sort(cmp);
+  const fresh = [...entriesA].filter((e) => !entriesB.has(e)).sort(cmp);
+  const gone = [...entriesB].filter((e) => !entriesA.has(e)).sort(cmp);
+  const chokeB = chokepoints(before.graph, [...check, ...gone]);
+  const chokeA = chokepoints(after.graph, [...check, ...fresh]);
+  const list = (m: Map<string, number> | undefined, skip: Map<string, number> | undefined) =>
+    [...(m ?? new Map<string, number>())].filter(([k]) => !skip?.has(k)).map(([key, dominates]) => ({ key, dominates })).sort((x, y) => y.dominates - x.dominates || cmp(x.key, y.key));
+  const entries: DominatorChange[] = [];
+  for (const e of check) {
+    const added = list(chokeA.get(e), chokeB.get(e));
+    const removed = list(chokeB.get(e), chokeA.get(e));
+    if (added.length || removed.length) entries.push({ entry: e, status: "changed", added, removed });
+  }
+  for (const e of fresh) entries.push({ entry: e, status: "new-entry", added: list(chokeA.get(e), undefined), removed: [] });
+  for (const e of gone) entries.push({ entry: e, status: "no-longer-entry", added: [], removed: list(chokeB.get(e), undefined) });
+  return { entries, entriesChecked: check.length + fresh.length + gone.length, entriesTotal: entriesA.size };
+}
+
+function singlePointNeeds(before: ImpactSide, after: ImpactSide, pairsB: ReturnType<typeof needPairs>): SinglePointNeed[] {
+  const g = after.graph;
+  const out: SinglePointNeed[] = [];
+  const tierB = (k: string): number | undefined => {
+    const v = before.graph.indexOf.get(k);
+    return v === undefined ? undefined : before.graph.tier[v];
+  };
+  const singleB = (k: string): boolean | undefined => {
+    const v = before.graph.indexOf.get(k);
+    return v === undefined ? undefined : isSinglePoint(before.graph.replicas[v]!, before.graph.zones[v]!);
+  };
+  const seen = new Set<string>();
+  for (let grp = 0; grp < g.needs.count; grp++) {
+    // Plain hard needs only: an any_of group still has an alternative when one member fails.
+    if (!g.needs.hard[grp] || g.needs.size[grp] !== 1) continue;
+    const u = g.needs.owner[grp]!;
+    const w = g.needs.members.targets[g.needs.members.offsets[grp]!]!;
+    if (g.tier[u] !== 1 || !isSinglePoint(g.replicas[w]!, g.zones[w]!)) continue;
+    const from = g.keys[u]!;
+    const to = g.keys[w]!;
+    const k = pairKey(from, to);
+    if (seen.has(k)) continue;
+    seen.add(k);
+    let reason: SinglePointReason | null;
+    if (!pairsB.plainHard.has(k)) reason = pairsB.runtime.has(k) ? "now-hard" : "new-need";
+    else if (tierB(from) !== 1) reason = "now-tier-1";
+    else if (singleB(to) === false) reason = "now-single-point";
+    else reason = null;
+    if (!reason) continue;
+    const kind = after.components.get(to)?.kind;
+    out.push({ from, to, reason, target: { replicas: g.replicas[w]!, zones: [...g.zones[w]!], undeclared: kind === undefined || kind === "undeclared" } });
+  }
+  return out.sort((a, b) => cmp(a.from, b.from) || cmp(a.to, b.to));
+}
+
+export function compareSides(before: ImpactSide, after: ImpactSide, options: CompareOptions): ImpactComparison {
+  const { needOwners, all: changed } = changedComponents(before, after);
+
+  const apB = new Set([...before.measures].filter(([, m]) => m.articulation).map(([k]) => k));
+  const apA = new Set([...after.measures].filter(([, m]) => m.articulation).map(([k]) => k));
+  const norm = ([a, b]: readonly [string, string]): string => (cmp(a, b) <= 0 ? pairKey(a, b) : pairKey(b, a));
+  const bridgesB = new Set(before.bridges.map(norm));
+  const bridgesA = new Set(after.bridges.map(norm));
+  const unpair = (k: string): [string, string] => k.split("\u0000") as [string, string];
+
+  const pairsB = needPairs(before.graph);
+  const pairsA = needPairs(after.graph);
+  const addedNeeds: ImpactComparison["addedNeeds"] = [];
+  for (const [k, hard] of pairsA.runtime) {
+    const was = pairsB.runtime.get(k);
+    if (was === undefined || (hard && !was)) {
+      const [from, to] = unpair(k);
+      addedNeeds.push({ from, to, hard });
+    }
+  }
+  addedNeeds.sort((a, b) => cmp(a.from, b.from) || cmp(a.to, b.to));
+
+  const cyclesB = hardCycles(before.graph, hardAdjacency(before.graph, true));
+  const cyclesA = hardCycles(after.graph, hardAdjacency(after.graph, true));
+  const idB = new Set(cyclesB.map((c) => c.join("\u0000")));
+  const idA = new Set(cyclesA.map((c) => c.join("\u0000")));
+  const addedCycles: HardCycleChange[] = cyclesA
+    .filter((c) => !idB.has(c.join("\u0000")))
+    .map((members) => {
+      const inside = new Set(members);
+      const closedBy = addedNeeds.filter((n) => inside.has(n.from) && inside.has(n.to) && pairsA.plainHard.has(pairKey(n.from, n.to))).map(({ from, to }) => ({ from, to }));
+      return { members, closedBy };
+    });
+
+  // Blast radius: counts come from the analyses; who exactly goes down is worked out only for
+  // components whose down set can have changed, i.e. those a changed component reaches along
+  // hard needs (a component is in X's down set only if it reaches X along hard needs).
+  const hardB = hardAdjacency(before.graph, false);
+  const hardA = hardAdjacency(after.graph, false);
+  const touched = new Set([...reach(before.graph, hardB, changed), ...reach(after.graph, hardA, changed)]);
+  const downB = new DownSets(before.graph);
+  const downA = new DownSets(after.graph);
+
+  const tier1 = new Set<string>();
+  for (const side of [before, after]) for (const [k, c] of side.components) if (c.tier === 1) tier1.add(k);
+  const tier1Blast: BlastChange[] = [];
+  for (const key of [...tier1].sort(cmp)) {
+    let change = blastChange(key, before, after);
+    if (touched.has(key)) change = withDownSets(change, downB, downA);
+    const countsMoved = change.before?.down !== change.after?.down || change.before?.degraded !== change.after?.degraded;
+    if (countsMoved || change.newlyDown?.length || change.noLongerDown?.length) tier1Blast.push(change);
+  }
+
+  const growth: BlastChange[] = [];
+  for (const [key, a] of after.measures) {
+    const b = before.measures.get(key);
+    if (b && a.blastDown > b.blastDown) growth.push(blastChange(key, before, after));
+  }
+  growth.sort((x, y) => y.after!.down - y.before!.down - (x.after!.down - x.before!.down) || cmp(x.key, y.key));
+  const detailed = options.detailedGrowth ?? 100;
+  const downGrowth = growth.map((c, i) => (i < detailed ? withDownSets(c, downB, downA) : c));
+
+  return {
+    changedComponents: [...changed].sort(cmp),
+    moved: moved(before, after, options.movement),
+    articulation: { added: setDiff(apA, apB).sort(cmp), removed: setDiff(apB, apA).sort(cmp) },
+    bridges: { added: setDiff(bridgesA, bridgesB).sort(cmp).map(unpair), removed: setDiff(bridgesB, bridgesA).sort(cmp).map(unpair) },
+    hardCycles: { added: addedCycles, removed: cyclesB.filter((c) => !idA.has(c.join("\u0000"))) },
+    tier1Blast,
+    downGrowth,
+    singlePointNeeds: singlePointNeeds(before, after, pairsB),
+    dominators: dominatorChanges(before, after, new Set([...needOwners, ...changed])),
+    addedNeeds,
+  };
+}

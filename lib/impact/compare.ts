@@ -74,7 +74,7 @@ export interface MovedComponent {
 }
 
 export interface HardCycleChange {
-  /** Members, sorted. */
+  /** Members, sorted. A cycle counts as new unless all its members were already in one cycle. */
   members: string[];
   /** Hard needs inside the cycle that the change added or made hard: what closed it. */
   closedBy: NeedRef[];
@@ -383,10 +383,17 @@ export function compareSides(before: ImpactSide, after: ImpactSide, options: Com
 
   const cyclesB = hardCycles(before.graph, hardAdjacency(before.graph, true));
   const cyclesA = hardCycles(after.graph, hardAdjacency(after.graph, true));
-  const idB = new Set(cyclesB.map((c) => c.join("\u0000")));
-  const idA = new Set(cyclesA.map((c) => c.join("\u0000")));
+  // A cycle is new when its members were not already all in one cycle: a cycle that only lost
+  // members (a need removed) is not new, and one that gained a member or merged two is.
+  const within = (cycles: string[][]) => {
+    const id = new Map<string, number>();
+    cycles.forEach((c, i) => c.forEach((k) => id.set(k, i)));
+    return (members: string[]) => members.every((k) => id.has(k) && id.get(k) === id.get(members[0]!));
+  };
+  const inBefore = within(cyclesB);
+  const inAfter = within(cyclesA);
   const addedCycles: HardCycleChange[] = cyclesA
-    .filter((c) => !idB.has(c.join("\u0000")))
+    .filter((c) => !inBefore(c))
     .map((members) => {
       const inside = new Set(members);
       const closedBy = addedNeeds.filter((n) => inside.has(n.from) && inside.has(n.to) && pairsA.plainHard.has(pairKey(n.from, n.to))).map(({ from, to }) => ({ from, to }));
@@ -426,7 +433,7 @@ export function compareSides(before: ImpactSide, after: ImpactSide, options: Com
     moved: moved(before, after, options.movement),
     articulation: { added: setDiff(apA, apB).sort(cmp), removed: setDiff(apB, apA).sort(cmp) },
     bridges: { added: setDiff(bridgesA, bridgesB).sort(cmp).map(unpair), removed: setDiff(bridgesB, bridgesA).sort(cmp).map(unpair) },
-    hardCycles: { added: addedCycles, removed: cyclesB.filter((c) => !idA.has(c.join("\u0000"))) },
+    hardCycles: { added: addedCycles, removed: cyclesB.filter((c) => !inAfter(c)) },
     tier1Blast,
     downGrowth,
     singlePointNeeds: singlePointNeeds(before, after, pairsB),

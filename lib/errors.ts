@@ -9,6 +9,8 @@ export const ERROR_STATUS = {
   forbidden: 403,
   not_found: 404,
   conflict: 409,
+  /** A real push that a change policy at `block` refuses (lib/data/impact.ts). */
+  policy_blocked: 409,
   payload_too_large: 413,
   invalid_inventory: 422,
   invalid_request: 422,

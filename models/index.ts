@@ -26,6 +26,7 @@ import { MapPosition } from "./MapPosition";
 import { Invite } from "./Invite";
 import { RiskReview } from "./RiskReview";
 import { OutboxMessage } from "./OutboxMessage";
+import { ChangePolicy } from "./ChangePolicy";
 
 function initModels(sequelize: Sequelize) {
   return {
@@ -50,6 +51,7 @@ function initModels(sequelize: Sequelize) {
     Invite: Invite.initModel(sequelize),
     RiskReview: RiskReview.initModel(sequelize),
     OutboxMessage: OutboxMessage.initModel(sequelize),
+    ChangePolicy: ChangePolicy.initModel(sequelize),
   };
 }
 

@@ -22,6 +22,7 @@ export const NAV: NavItem[] = [
   { label: "History", href: (env) => envPath(env, "/history"), match: under("/history") },
   { label: "Drift", href: (env) => envPath(env, "/drift"), match: under("/drift") },
   { label: "Reviews", href: (env) => envPath(env, "/reviews"), match: under("/reviews") },
+  { label: "Policies", href: (env) => envPath(env, "/policies"), match: under("/policies") },
   { label: "Teams", href: () => "/teams", match: (p) => p.startsWith("/teams") },
   // Architects reach the audit log here; admins everything else as well.
   { label: "Admin", href: () => "/admin", match: (p) => p.startsWith("/admin"), permission: "reviews:write" },

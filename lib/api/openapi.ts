@@ -15,6 +15,7 @@ import { createEnvironmentSchema, deleteEnvironmentQuerySchema, renameEnvironmen
 import { createTokenSchema } from "./schemas/tokens";
 import { acceptInviteSchema, inviteUserSchema, updateUserSchema } from "./schemas/users";
 import { pinchWeightsSchema } from "@/lib/analysis/types";
+import { policySetSchema } from "@/lib/impact/policies";
 
 type Method = "get" | "post" | "put" | "patch" | "delete";
 
@@ -37,7 +38,7 @@ export const OPERATIONS: Record<string, Partial<Record<Method, Operation>>> = {
     delete: { summary: "Delete an environment and everything of it, bound tokens included; ?confirm=<slug> required; audited", rule: "admin", query: deleteEnvironmentQuerySchema },
   },
   "/environments/{env}/inventory": {
-    post: { summary: "Push an inventory (YAML, JSON, Compose, CSV, OTLP/JSON or Kubernetes manifests; a layered Compose project as a multipart body of its files); dry_run=true writes nothing", rule: "inventory:write", query: pushQuerySchema, body: "inventory" },
+    post: { summary: "Push an inventory (YAML, JSON, Compose, CSV, OTLP/JSON or Kubernetes manifests; a layered Compose project as a multipart body of its files); dry_run=true writes nothing; impact=true reports what the change does to the failure points and the change policies (impact_format=markdown answers text/markdown, sarif application/sarif+json; 200 whatever the policies say); a real push a blocking policy refuses answers 409 policy_blocked unless an architect or admin gives override_reason", rule: "inventory:write", query: pushQuerySchema, body: "inventory" },
   },
   "/environments/{env}/components": { get: { summary: "Components, filtered", rule: "read", query: componentsQuerySchema } },
   "/environments/{env}/components/{key}": {
@@ -68,6 +69,10 @@ export const OPERATIONS: Record<string, Partial<Record<Method, Operation>>> = {
   "/environments/{env}/settings": {
     get: { summary: "Environment settings with defaults filled in", rule: "read" },
     patch: { summary: "Change environment settings (re-queues analysis when it reads them)", rule: "reviews:write", body: settingsPatchSchema },
+  },
+  "/environments/{env}/policies": {
+    get: { summary: "Change policies (rules a push's impact is held to, each block or warn) with the defaults", rule: "read" },
+    put: { summary: "Replace the change policies; audited", rule: "reviews:write", body: policySetSchema },
   },
   "/environments/{env}/weights": {
     get: { summary: "Pinch-score weights", rule: "read" },

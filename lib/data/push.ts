@@ -12,6 +12,8 @@ import { importInventory } from "@/importers";
 import { mergeSources } from "@/lib/inventory/merge";
 import { diffSnapshots, snapshotHash, type SnapshotContent, type SnapshotDiff } from "@/lib/inventory/snapshot";
 import { inferredNeedsOf, type InferredNeed } from "@/lib/inventory/inferred";
+import type { ImpactReport } from "@/lib/impact";
+import { impactForPush } from "./impact";
 import type { ImportFile, ImportFormat, ImportNote, InventoryIssue, KubernetesImportOptions, NormalisedInventory } from "@/lib/inventory/types";
 
 export type PushActor = Actor | (SystemActor & { canCreateEnvironments: true });
@@ -31,6 +33,10 @@ export interface PushInput {
   actor: PushActor;
   /** Settings of the `kubernetes` format (its query parameters). */
   kubernetes?: KubernetesImportOptions;
+  /** Report what the change does to the failure points and how it fares against the change policies. */
+  impact?: boolean;
+  /** Why an architect or admin pushes a change that a blocking policy refuses (audited). */
+  overrideReason?: string | null;
 }
 
 export interface PushResult {
@@ -44,6 +50,8 @@ export interface PushResult {
   observed?: { edges: number };
   /** Needs the importer inferred from configuration, each with its reason and position (dry runs only). */
   inferred?: { total: number; needs: InferredNeed[] };
+  /** The change's impact (lib/impact), when asked for or when a blocking policy held the push to it. */
+  impact?: ImpactReport;
 }
 
 export interface DiffSummary extends SnapshotDiff {
@@ -97,6 +105,8 @@ function parse(input: PushInput): NormalisedInventory {
     source: input.source ?? undefined,
     environment: input.environment,
     kubernetes: input.kubernetes,
+    // Findings point at lines only where the importer kept them.
+    positions: input.impact === true,
   });
   if (!result.ok) {
     throw new AppError(result.status === 413 ? "payload_too_large" : "invalid_inventory", result.status === 413 ? "The inventory is over a limit" : "The inventory has errors; nothing was changed", result.issues);
@@ -222,6 +232,10 @@ async function applyInventory({
   );
   const hash = snapshotHash(next);
   const changed = latest ? latest.hash !== hash : next.components.length > 0;
+  const impact = await impactForPush(
+    { environment, previous, next, inventory, snapshot: latest?.number ?? null, changed, requested: input.impact === true, dryRun: input.dryRun, overrideReason: input.overrideReason ?? null, actor: input.actor },
+    transaction,
+  );
   // The tables always hold the latest snapshot's graph, so identical content needs no rewrite.
   if (changed && input.format !== "otlp") {
     await writeSourceRows(
@@ -296,5 +310,6 @@ async function applyInventory({
     ...(inventory.notes && inventory.notes.length > 0 ? { notes: inventory.notes } : {}),
     ...(input.format === "otlp" ? { observed: { edges: inventory.observedEdges.length } } : {}),
     ...(input.dryRun ? inferredNeedsOf(inventory) : {}),
+    ...(impact ? { impact } : {}),
   };
 }

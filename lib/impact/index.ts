@@ -36,6 +36,8 @@ export interface ImpactRequest {
   /** Number of the current snapshot, null before the first push. */
   snapshot: number | null;
   stored: StoredAnalysis | null;
+  /** The proposed content equals the current one (same hash): analyse once and compare it with itself. */
+  unchanged?: boolean;
   settings: AnalysisSettings;
   weights: PinchWeights;
   policies: PolicySet;
@@ -48,29 +50,34 @@ const ms = (t0: number): number => Math.round(performance.now() - t0);
 export async function impactOf(req: ImpactRequest): Promise<ImpactReport> {
   const t0 = performance.now();
   const timings: Record<string, number> = {};
-  const inputA = analysisInputFromContent(req.after, req.settings);
-  const graphA = buildGraph(inputA);
-  const resultA = await analyse(graphA, { weights: req.weights });
-  timings.analyseProposed = ms(t0);
-
-  const t1 = performance.now();
   const inputB = analysisInputFromContent(req.before, req.settings);
   const graphB = buildGraph(inputB);
   const componentsB = componentFacts(req.before);
   let before: ImpactSide;
-  let exact = resultA.graph.exact;
+  let exact: boolean;
   if (req.stored) {
     before = { input: inputB, graph: graphB, measures: req.stored.measures, bridges: req.stored.bridges, components: componentsB };
-    exact &&= req.stored.exact;
+    exact = req.stored.exact;
   } else {
     const resultB = await analyse(graphB, { weights: req.weights });
     before = sideFromAnalysis({ input: inputB, graph: graphB, result: resultB, components: componentsB });
-    exact &&= resultB.graph.exact;
+    exact = resultB.graph.exact;
   }
-  timings.current = ms(t1);
+  timings.current = ms(t0);
+
+  const t1 = performance.now();
+  let after: ImpactSide;
+  if (req.unchanged) after = { ...before, components: componentFacts(req.after) };
+  else {
+    const inputA = analysisInputFromContent(req.after, req.settings);
+    const graphA = buildGraph(inputA);
+    const resultA = await analyse(graphA, { weights: req.weights });
+    after = sideFromAnalysis({ input: inputA, graph: graphA, result: resultA, components: componentFacts(req.after) });
+    exact &&= resultA.graph.exact;
+  }
+  timings.proposed = ms(t1);
 
   const t2 = performance.now();
-  const after = sideFromAnalysis({ input: inputA, graph: graphA, result: resultA, components: componentFacts(req.after) });
   const comparison = compareSides(before, after, { movement: req.policies.movement });
   const policies = evaluatePolicies({ comparison, before, after, policies: req.policies, reviews: req.reviews, locator: req.locator ?? NO_POSITIONS });
   timings.compare = ms(t2);

@@ -7,6 +7,7 @@ import * as m0005 from "./0005-outbox";
 import * as m0006 from "./0006-map-positions";
 import * as m0007 from "./0007-single-point";
 import * as m0008 from "./0008-need-kinds";
+import * as m0009 from "./0009-change-policies";
 
 export const MIGRATIONS = [
   { name: "0001-initial", ...m0001 },
@@ -17,4 +18,5 @@ export const MIGRATIONS = [
   { name: "0006-map-positions", ...m0006 },
   { name: "0007-single-point", ...m0007 },
   { name: "0008-need-kinds", ...m0008 },
+  { name: "0009-change-policies", ...m0009 },
 ];

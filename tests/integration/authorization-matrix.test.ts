@@ -33,6 +33,7 @@ const MATRIX: Record<string, Partial<Record<"GET" | "POST" | "PUT" | "PATCH" | "
   "environments/[env]/snapshots": { GET: "read" },
   "environments/[env]/snapshots/[a]/diff/[b]": { GET: "read" },
   "environments/[env]/weights": { GET: "read", PUT: "reviews:write" },
+  "environments/[env]/policies": { GET: "read", PUT: "reviews:write" },
   "environments/[env]/settings": { GET: "read", PATCH: "reviews:write" },
   "invites/[token]": { POST: "public" },
   "openapi.json": { GET: "public" },

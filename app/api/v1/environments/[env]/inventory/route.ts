@@ -1,9 +1,10 @@
-// POST /api/v1/environments/{env}/inventory[?dry_run=true][&format=…&source=…&profiles=…][&kubernetes settings] — push an
-// inventory, as one body or, for a layered Compose project, as several files in a multipart body.
-import { NextResponse } from "next/server";
+// POST /api/v1/environments/{env}/inventory[?dry_run=true][&format=…&source=…&profiles=…][&kubernetes settings]
+// [&impact=true&impact_format=json|markdown|sarif&file=…][&override_reason=…] — push an inventory, as one
+// body or, for a layered Compose project, as several files in a multipart body.
 import { parseParams, parseQuery } from "@/lib/api/query";
 import { envParamsSchema } from "@/lib/api/schemas/common";
 import { kubernetesOptionsOf, pushQuerySchema } from "@/lib/api/schemas/inventory";
+import { pushResponse } from "@/lib/api/impact-response";
 import { withPermission } from "@/lib/auth/with-permission";
 import { pushInventory } from "@/lib/data/push";
 import { readBodyWithLimit } from "@/lib/api/body";
@@ -15,9 +16,10 @@ export const POST = withPermission<{ env: string }>("inventory:write", async ({ 
   const contentType = req.headers.get("content-type");
   const files = isMultipart(contentType) ? await readPushedFiles(req) : undefined;
   const body = files ? Buffer.alloc(0) : await readBodyWithLimit(req);
+  const format = query.format ?? "pinchpoint";
   const result = await pushInventory({
     environment: env,
-    format: query.format ?? "pinchpoint",
+    format,
     body,
     files,
     profiles: query.profiles,
@@ -25,7 +27,9 @@ export const POST = withPermission<{ env: string }>("inventory:write", async ({ 
     source: query.source ?? null,
     dryRun: query.dry_run ?? false,
     kubernetes: kubernetesOptionsOf(query),
+    impact: query.impact === true || query.impact_format !== undefined,
+    overrideReason: query.override_reason ?? null,
     actor,
   });
-  return NextResponse.json(result);
+  return pushResponse(result, { impactFormat: query.impact_format ?? "json", file: query.file ?? (files?.length === 1 ? files[0]?.name : undefined), format, env });
 });

@@ -5,12 +5,13 @@ import { useRef, useState, type DragEvent } from "react";
 import { useSWRConfig } from "swr";
 import { Button } from "@/components/ui/Button";
 import { Card } from "@/components/ui/Card";
-import { ROLE_LABELS, type Role } from "@/lib/auth/roles";
+import { ROLE_LABELS, roleHas, type Role } from "@/lib/auth/roles";
 import type { PushResult } from "@/lib/data/push";
 import { MAX_BODY_BYTES } from "@/lib/inventory/limits";
 import type { ImportFormat } from "@/lib/inventory/types";
 import { FORMATS, detectFormat, sourceNamedIn, suggestSource, type Detection } from "./detect";
 import { DiffPreview } from "./DiffPreview";
+import { GatedPush, ImpactPanel } from "./ImpactPanel";
 import { ImportHistory } from "./ImportHistory";
 import { InferredNeeds } from "./InferredNeeds";
 import { ImporterNotes } from "./ImporterNotes";
@@ -61,6 +62,14 @@ function Problem({ outcome, text, texts, env }: { outcome: Exclude<PushOutcome, 
           </p>
         </div>
         {outcome.issues.length > 0 ? <IssueList issues={outcome.issues} text={text} texts={texts} /> : null}
+      </section>
+    );
+  }
+  if (outcome.kind === "blocked") {
+    return (
+      <section aria-label="Blocked by a change policy" className="space-y-2 rounded-md border border-down/60 bg-down/10 px-3 py-2" data-testid="import-blocked">
+        <p className="font-semibold">{outcome.message}</p>
+        {outcome.issues.length > 0 ? <IssueList issues={outcome.issues} text={text} /> : null}
       </section>
     );
   }
@@ -166,10 +175,10 @@ export function ImportsScreen({ env, canUpload, role }: { env: string; canUpload
     await check({ file: next, format: detected.format, source: nextSource, profiles });
   }
 
-  async function push(preview: PushResult) {
+  async function push(preview: PushResult, overrideReason: string | null = null) {
     if (!file) return;
     setStage({ step: "pushing", preview });
-    const outcome = await pushFile({ env, format, source: needsSource ? source : "", text: file.text, files: file.files, profiles, dryRun: false });
+    const outcome = await pushFile({ env, format, source: needsSource ? source : "", text: file.text, files: file.files, profiles, dryRun: false, overrideReason });
     if (outcome.kind === "ok") {
       setStage({ step: "pushed", result: outcome.result });
       // The history's first page now has a new row.
@@ -348,6 +357,7 @@ export function ImportsScreen({ env, canUpload, role }: { env: string; canUpload
                 {preview.observed.edges} observed edges from traces. They are kept apart from declared dependencies, so the graph and its rankings do not move.
               </p>
             )}
+            {preview.impact && <ImpactPanel impact={preview.impact} fileName={file?.name ?? "file"} env={env} />}
             <DiffPreview diff={preview.diff} />
             {preview.inferred && <InferredNeeds inferred={preview.inferred} />}
             <ImporterNotes notes={preview.notes ?? []} />
@@ -360,9 +370,7 @@ export function ImportsScreen({ env, canUpload, role }: { env: string; canUpload
               </section>
             )}
             <div className="flex flex-wrap items-center gap-3 border-t border-line pt-4">
-              <Button type="button" variant="primary" disabled={stage.step === "pushing"} onClick={() => void push(preview)} data-testid="push-button">
-                {stage.step === "pushing" ? "Pushing…" : `Push to ${env}`}
-              </Button>
+              <GatedPush impact={preview.impact} env={env} canOverride={roleHas(role, "reviews:write")} busy={stage.step === "pushing"} onPush={(reason) => void push(preview, reason)} />
               <span className="text-xs text-muted">
                 This changes Pinchpoint&apos;s picture of {env}, not your systems. Keep the file in its repository too: the next CI push from the same source replaces this upload.
               </span>

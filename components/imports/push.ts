@@ -9,6 +9,7 @@ export type PushOutcome =
   | { kind: "invalid"; status: number; message: string; issues: InventoryIssue[] }
   | { kind: "conflict"; message: string; issues: InventoryIssue[] }
   | { kind: "too-large"; message: string; issues: InventoryIssue[] }
+  | { kind: "blocked"; message: string; issues: InventoryIssue[] }
   | { kind: "refused"; status: number; message: string };
 
 /**
@@ -23,6 +24,7 @@ export async function pushFile({
   files,
   profiles,
   dryRun,
+  overrideReason,
 }: {
   env: string;
   format: ImportFormat;
@@ -31,9 +33,14 @@ export async function pushFile({
   files?: { name: string; text: string }[];
   profiles?: string;
   dryRun: boolean;
+  /** Why an architect or admin pushes past a blocking change policy. */
+  overrideReason?: string | null;
 }): Promise<PushOutcome> {
   const query = new URLSearchParams();
   if (dryRun) query.set("dry_run", "true");
+  // Every preview shows the impact on the failure points before "Push".
+  if (dryRun) query.set("impact", "true");
+  if (overrideReason) query.set("override_reason", overrideReason);
   query.set("format", format);
   if (source) query.set("source", source);
   if (format === "compose" && profiles) query.set("profiles", profiles);
@@ -55,6 +62,7 @@ export async function pushFile({
   if (res.ok) return { kind: "ok", result: body as unknown as PushResult };
   const message = body?.message ?? `The server answered ${res.status}`;
   const issues = Array.isArray(body?.issues) ? body.issues : [];
+  if (res.status === 409 && body?.error === "policy_blocked") return { kind: "blocked", message, issues };
   if (res.status === 409) return { kind: "conflict", message, issues };
   if (res.status === 413) return { kind: "too-large", message, issues };
   if (res.status === 422) return { kind: "invalid", status: res.status, message, issues };

@@ -2,14 +2,20 @@
 # Push one inventory file to Pinchpoint: a dry run on pull requests, a real push on the
 # main branch. Needs curl; uses jq for readable output when it is installed.
 #
-#   push-inventory.sh [--dry-run | --push] [--env ENV] [--format F --source S]
-#                     [--param NAME=VALUE ...] FILE
+#   push-inventory.sh [--dry-run | --push | --gate] [--env ENV] [--format F --source S]
+#                     [--param NAME=VALUE ...] [--sarif OUT] [--markdown OUT] FILE
 #   push-inventory.sh [...] --format compose [--source S] [--profiles a,b] FILE...
 #
 # --param adds a query parameter of the push, e.g. the kubernetes format's
 # `--param teams=shop:storefront` or `--param cluster_domain=corp.internal`.
 # A Compose project split over several files (compose.yaml, then its overrides in order,
 # .env and env_file files anywhere) goes in one request: give every file, base first.
+#
+# --gate is a dry run that asks for the change's impact on the estate's failure points
+# and holds it to the environment's change policies: it prints the impact as a Markdown
+# pull-request comment (also to --markdown OUT, and to GITHUB_STEP_SUMMARY on GitHub
+# Actions), writes the policy findings as a SARIF 2.1.0 file (--sarif OUT, default
+# pinchpoint-impact.sarif) located at FILE's lines, and fails when a blocking policy fails.
 #
 # Environment:
 #   PINCHPOINT_URL          base URL, e.g. https://pinchpoint.example.org (required)
@@ -19,14 +25,16 @@
 #   PINCHPOINT_MAIN_BRANCH  the branch whose builds really push (default: main)
 #   PINCHPOINT_BRANCH       the branch being built, when the CI's own variable is not
 #                           one of GITHUB_REF_NAME, CI_COMMIT_BRANCH, BRANCH_NAME, GIT_BRANCH
+#   PINCHPOINT_SARIF        where --gate writes the SARIF file (a flag wins over it)
 #
 # In auto mode the script looks at common CI variables (an event in CI_EVENT,
 # GITHUB_EVENT_NAME or CI_PIPELINE_SOURCE; the branch): a pull- or merge-request event
 # gives a dry run; a build of the main branch gives a push; anything it cannot tell is a
 # dry run, so a misconfigured pipeline never changes the stored graph by accident.
 #
-# Exit status: 0 accepted (or dry run passed), 1 rejected by the server, 2 usage or
-# set-up problem, 3 the server could not be reached.
+# Exit status: 0 accepted (or dry run passed, or the gate passed, warnings included),
+# 1 rejected by the server, 2 usage or set-up problem, 3 the server could not be reached,
+# 4 the gate failed: a change policy at `block` fails.
 set -eu
 
 usage() {
@@ -48,11 +56,16 @@ params=""
 file=""
 files=""
 profiles=""
+sarif_out="${PINCHPOINT_SARIF:-pinchpoint-impact.sarif}"
+markdown_out=""
 
 while [ "$#" -gt 0 ]; do
   case "$1" in
     --dry-run) mode_flag="dry-run" ;;
     --push) mode_flag="push" ;;
+    --gate) mode_flag="gate" ;;
+    --sarif) [ "$#" -ge 2 ] || usage; sarif_out="$2"; shift ;;
+    --markdown) [ "$#" -ge 2 ] || usage; markdown_out="$2"; shift ;;
     --env) [ "$#" -ge 2 ] || usage; env_slug="$2"; shift ;;
     --format) [ "$#" -ge 2 ] || usage; format="$2"; shift ;;
     --source) [ "$#" -ge 2 ] || usage; source_name="$2"; shift ;;
@@ -110,8 +123,8 @@ if [ "$mode" = "auto" ]; then
   esac
 fi
 case "$mode" in
-  dry-run | push) ;;
-  *) die "PINCHPOINT_MODE must be dry-run, push or auto (got '$mode')" ;;
+  dry-run | push | gate) ;;
+  *) die "PINCHPOINT_MODE must be dry-run, push, gate or auto (got '$mode')" ;;
 esac
 
 # --- build the request ---------------------------------------------------------------
@@ -125,15 +138,16 @@ query=""
 add_query() {
   if [ -z "$query" ]; then query="?$1"; else query="$query&$1"; fi
 }
-[ "$mode" = "dry-run" ] && add_query "dry_run=true"
+[ "$mode" = "push" ] || add_query "dry_run=true"
 [ -n "$format" ] && add_query "format=$format"
 [ -n "$source_name" ] && add_query "source=$source_name"
 for p in $params; do add_query "$p"; done
 [ -n "$profiles" ] && add_query "profiles=$profiles"
 
-url="${PINCHPOINT_URL%/}/api/v1/environments/$env_slug/inventory$query"
+base="${PINCHPOINT_URL%/}/api/v1/environments/$env_slug/inventory"
 body="$(mktemp)"
-trap 'rm -f "$body"' EXIT
+headers="$(mktemp)"
+trap 'rm -f "$body" "$headers"' EXIT
 trap 'exit 130' HUP INT TERM
 
 # One file is the body; several are form parts in the order given, each named by the path given
@@ -154,18 +168,53 @@ fi
 
 printf '%s %s to %s (%s)\n' "$mode" "$shown" "$env_slug" "$reason"
 
-# The token goes to curl on stdin, not on its command line, so it never shows in `ps`.
-if ! status="$(printf 'Authorization: Bearer %s\n' "$PINCHPOINT_TOKEN" |
-  curl --silent --show-error --location --max-time 120 \
-    --request POST \
-    --header @- \
-    --header "Accept: application/json" \
-    "$@" \
-    --output "$body" \
-    --write-out '%{http_code}' \
-    "$url")"; then
-  printf 'push-inventory: could not reach %s\n' "$PINCHPOINT_URL" >&2
-  exit 3
+# POST with the query in $1 into the file $2 (response headers into $headers); the rest of the
+# arguments are curl's body options. Prints the HTTP status, or fails when the server cannot be reached.
+post() {
+  post_query="$1"
+  post_out="$2"
+  shift 2
+  # The token goes to curl on stdin, not on its command line, so it never shows in `ps`.
+  printf 'Authorization: Bearer %s\n' "$PINCHPOINT_TOKEN" |
+    curl --silent --show-error --location --max-time 120 \
+      --request POST \
+      --header @- \
+      --header "Accept: application/json" \
+      "$@" \
+      --dump-header "$headers" \
+      --output "$post_out" \
+      --write-out '%{http_code}' \
+      "$base$post_query"
+}
+
+# Percent-encode a query value, byte by byte (file paths may hold spaces or '&').
+urlencode() {
+  rest="$1"
+  out=""
+  while [ -n "$rest" ]; do
+    c="${rest%"${rest#?}"}"
+    rest="${rest#?}"
+    case "$c" in
+      [A-Za-z0-9._~/-]) out="$out$c" ;;
+      *) out="$out$(printf '%s' "$c" | od -An -tx1 | tr -d ' \n' | sed 's/../%&/g')" ;;
+    esac
+  done
+  printf '%s' "$out"
+}
+
+if [ "$mode" = "gate" ]; then
+  # The path as the repository knows it, for the SARIF locations and the comment (a Compose
+  # project's files name themselves in their form parts).
+  [ "$count" -gt 1 ] || add_query "file=$(urlencode "${file#./}")"
+  if ! status="$(post "$query&impact_format=sarif" "$body" "$@")"; then
+    printf 'push-inventory: could not reach %s\n' "$PINCHPOINT_URL" >&2
+    exit 3
+  fi
+else
+  if ! status="$(post "$query" "$body" "$@")"; then
+    printf 'push-inventory: could not reach %s\n' "$PINCHPOINT_URL" >&2
+    exit 3
+  fi
 fi
 
 have_jq=false
@@ -194,6 +243,45 @@ annotate() { # $1 = jq path to the list, $2 = error | warning
     ' "$body"
   fi
 }
+
+# The gate: the SARIF answer is in $body; the Markdown comment is a second dry run (the
+# server answers each format on its own, and a dry run changes nothing).
+if [ "$mode" = "gate" ] && [ "$status" = "200" ]; then
+  verdict="$(tr -d '\r' <"$headers" | awk -F': *' 'tolower($1) == "pinchpoint-impact" { v = $2 } END { print v }')"
+  cp "$body" "$sarif_out"
+  markdown="$(mktemp)"
+  trap 'rm -f "$body" "$headers" "$markdown"' EXIT
+  if ! status="$(post "$query&impact_format=markdown" "$markdown" "$@")"; then
+    printf 'push-inventory: could not reach %s\n' "$PINCHPOINT_URL" >&2
+    exit 3
+  fi
+  if [ "$status" = "200" ]; then
+    cat "$markdown"
+    [ -z "$markdown_out" ] || cp "$markdown" "$markdown_out"
+    [ -z "${GITHUB_STEP_SUMMARY:-}" ] || cat "$markdown" >>"$GITHUB_STEP_SUMMARY"
+  fi
+  # The findings once more as file:line:column lines, the shape CI log viewers link.
+  if command -v jq >/dev/null 2>&1; then
+    jq -r '.runs[0].results[] | .locations[0].physicalLocation as $l
+      | "\($l.artifactLocation.uri)" + (if $l.region then ":\($l.region.startLine):\($l.region.startColumn // 1)" else "" end)
+        + ": \(.level): \(.message.text) [\(.ruleId)]"' "$sarif_out"
+    # GitHub Actions turns workflow commands into annotations on the pull request's lines.
+    if [ "${GITHUB_ACTIONS:-}" = "true" ]; then
+      jq -r '.runs[0].results[] | .locations[0].physicalLocation as $l
+        | "::\(.level) file=\($l.artifactLocation.uri)" + (if $l.region then ",line=\($l.region.startLine),col=\($l.region.startColumn // 1)" else "" end)
+          + "::" + (.message.text | gsub("%"; "%25") | gsub("\r"; "%0D") | gsub("\n"; "%0A"))' "$sarif_out"
+    fi
+  fi
+  printf 'SARIF written to %s\n' "$sarif_out"
+  case "$verdict" in
+    blocked)
+      printf 'gate: FAILED, a change policy that blocks fails (an architect or admin can still push with a reason)\n' >&2
+      exit 4 ;;
+    warn) echo "gate: passed with warnings" ;;
+    *) echo "gate: passed" ;;
+  esac
+  exit 0
+fi
 
 case "$status" in
   2??)
@@ -224,7 +312,7 @@ case "$status" in
     else
       cat "$body"; echo
     fi
-    if [ "$mode" = "dry-run" ]; then
+    if [ "$mode" != "push" ]; then
       echo "dry run: nothing was stored"
     fi
     exit 0

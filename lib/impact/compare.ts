@@ -415,6 +415,9 @@ export function compareSides(before: ImpactSide, after: ImpactSide, options: Com
   for (const key of [...tier1].sort(cmp)) {
     let change = blastChange(key, before, after);
     if (touched.has(key)) change = withDownSets(change, downB, downA);
+    // A component that comes or goes taking nothing down with it has no blast radius to report.
+    const zero = (x: BlastChange["before"]) => x === null || (x.down === 0 && x.degraded === 0);
+    if ((change.before === null || change.after === null) && zero(change.before) && zero(change.after)) continue;
     const countsMoved = change.before?.down !== change.after?.down || change.before?.degraded !== change.after?.degraded;
     if (countsMoved || change.newlyDown?.length || change.noLongerDown?.length) tier1Blast.push(change);
   }

@@ -1,6 +1,6 @@
 // Benchmark of the analysis engine (npm run bench). Speed is measured here, never in tests.
 //   npx tsx scripts/bench.ts                     all sections
-//   npx tsx scripts/bench.ts --only measures     one section (push | kubernetes | compose | measures | igraph)
+//   npx tsx scripts/bench.ts --only measures     one section (push | impact | kubernetes | compose | measures | igraph)
 //   npx tsx scripts/bench.ts --compare-igraph    also time python3-igraph on the 20k graph
 //   npx tsx scripts/bench.ts --edge-list FILE    one JSON line for a `from to` edge list
 //   --runs N                                     calls per side in the igraph comparison (default 3)
@@ -160,6 +160,66 @@ async function benchCompose(n: number): Promise<void> {
   });
 }
 
+/**
+ * Impact of a change on a 20,000-component estate (DESIGN §10): a team's file of 200 components,
+ * 50 of them changed, dry-run with impact=true through the API's push path; the promise is under
+ * 5 s. Timed with the worker's stored analysis of the current snapshot (what a CI gate meets) and
+ * with it stale (the current graph analysed again in the request), then the estate as one file.
+ */
+async function benchImpact(n: number): Promise<void> {
+  const { withBenchDatabase, inventoryYaml } = await import("./bench/push");
+  const { impactBenchFiles } = await import("./bench/impact");
+  const input = generateGraph({ n, seed: 42 });
+  const files = impactBenchFiles(input);
+  await withBenchDatabase(async (url) => {
+    process.env.DATABASE_URL = url;
+    const { db, closeDb } = await import("../models");
+    const { migrateToLatest } = await import("../models/migrate");
+    const { pushInventory } = await import("../lib/data/push");
+    const { drainAnalysisQueue } = await import("../lib/data/analysis-jobs");
+    const { impactMarkdown } = await import("../lib/impact/markdown");
+    const { impactSarif } = await import("../lib/impact/sarif");
+    await migrateToLatest(db().sequelize);
+    const actor = { type: "system" as const, label: "bench", canCreateEnvironments: true as const };
+    const push = (environment: string, body: string, dryRun: boolean, impact = false) =>
+      pushInventory({ environment, format: "pinchpoint", body, contentType: "application/yaml", dryRun, impact, actor });
+    await push("bench-impact", files.platform, false);
+    await push("bench-impact", files.team, false);
+    await drainAnalysisQueue();
+    const line = async (label: string, environment: string, body: string) => {
+      const t0 = performance.now();
+      const result = await push(environment, body, true, true);
+      const total = ms(t0);
+      const r = result.impact!;
+      const t1 = performance.now();
+      impactMarkdown(r, { file: "pinchpoint.yaml" });
+      impactSarif(r, { file: "pinchpoint.yaml", policiesUrl: "http://127.0.0.1:3000/environments/bench-impact/policies" });
+      const render = ms(t1);
+      const parts = Object.entries(r.timings).map(([k, v]) => `${k} ${v}`).join(", ");
+      console.log(
+        `${label}: dry run with impact ${total} ms (${total < 5000 ? "under" : "OVER"} 5 s; analysis ${r.basis.analysis}; ${parts} ms); ` +
+          `Markdown + SARIF ${render} ms; ${r.summary.changedComponents} components changed, ${r.summary.moved} moved, ` +
+          `${r.summary.singlePointNeeds} tier-1 needs on single points, ${r.summary.tier1BlastChanged} tier-1 blast radii changed, ` +
+          `${r.summary.dominatorEntriesChanged} of ${r.dominators.entriesTotal} entry points' dominators changed (${r.dominators.entriesChecked} checked)`,
+      );
+    };
+    console.log(`estate: ${n} components, ${input.edges.length} needs; the change touches ${files.touched} of the team's 200 components`);
+    const t0 = performance.now();
+    await push("bench-impact", files.changed, true);
+    console.log(`team file, the same dry run without impact (for comparison): ${ms(t0)} ms`);
+    for (let i = 1; i <= 3; i++) await line(`team file, stored analysis, run ${i}`, "bench-impact", files.changed);
+    // Stale: the newest snapshot's analysis queued again, as after a change of weights.
+    await db().sequelize.query("UPDATE analysis_runs SET status = 'queued'");
+    await line("team file, stored analysis stale (both graphs analysed in the request)", "bench-impact", files.changed);
+    // The stale run is not needed again; analyse only the one-file estate.
+    await db().sequelize.query("DELETE FROM analysis_runs WHERE status = 'queued'");
+    await push("bench-impact-one", inventoryYaml(input, "estate-repo", "bench-impact-one"), false);
+    await drainAnalysisQueue();
+    await line(`whole estate as one ${(files.wholeChanged.length / 1048576).toFixed(1)} MiB file (parsed with positions), stored analysis`, "bench-impact-one", files.wholeChanged);
+    await closeDb();
+  });
+}
+
 const sections: Section[] = [
   {
     name: "push",
@@ -167,6 +227,14 @@ const sections: Section[] = [
     run: async () => {
       console.log("# push of a seeded inventory through the API's code path into a throwaway PostgreSQL database");
       await benchPush(20_000);
+    },
+  },
+  {
+    name: "impact",
+    byDefault: true,
+    run: async () => {
+      console.log("# impact of a change (impact=true dry run) through the API's push path, throwaway PostgreSQL database");
+      await benchImpact(20_000);
     },
   },
   {

@@ -2,7 +2,6 @@
 // transaction: what a dry run reports on request, and what a real push is held to when the
 // environment has a policy at `block`. A blocked push is refused unless an architect or admin
 // gives a reason, which is audited with the push.
-import "server-only";
 import { QueryTypes, type Transaction } from "sequelize";
 import { db } from "@/models";
 import type { Actor } from "@/lib/auth/actor";
@@ -16,7 +15,7 @@ import type { ReviewState } from "@/lib/impact/evaluate";
 import { locatorFor } from "@/lib/impact/locate";
 import { hasBlockingRule } from "@/lib/impact/policies";
 import { readSettings } from "@/lib/inventory/settings";
-import type { SnapshotContent } from "@/lib/inventory/snapshot";
+import type { SnapshotContent, SnapshotDiff } from "@/lib/inventory/snapshot";
 import type { InventoryIssue, NormalisedInventory } from "@/lib/inventory/types";
 import { recordAudit, type SystemActor } from "./audit";
 import { readEnvironmentPolicies } from "./change-policies";
@@ -59,6 +58,8 @@ export interface PushImpactInput {
   environment: { id: string; slug: string };
   previous: SnapshotContent;
   next: SnapshotContent;
+  /** What the push changes in the content: the comparison looks only at these components. */
+  diff: SnapshotDiff;
   inventory: NormalisedInventory;
   /** Number of the newest snapshot (null before the first push). */
   snapshot: number | null;
@@ -70,6 +71,18 @@ export interface PushImpactInput {
   /** Why an architect or admin pushes a change a policy blocks. */
   overrideReason: string | null;
   actor: Actor | SystemActor;
+}
+
+/** Components whose fields or needs the push changes (a superset of what the analysis sees change). */
+function changedKeys(diff: SnapshotDiff): Set<string> {
+  return new Set([
+    ...diff.componentsAdded.map((c) => c.key),
+    ...diff.componentsRemoved.map((c) => c.key),
+    ...diff.componentsChanged.map((c) => c.key),
+    ...diff.dependenciesAdded.map((d) => d.from),
+    ...diff.dependenciesRemoved.map((d) => d.from),
+    ...diff.dependenciesChanged.map((d) => d.from),
+  ]);
 }
 
 /** Policy findings as located issues, for the refusal of a blocked push. */
@@ -103,6 +116,7 @@ export async function impactForPush(input: PushImpactInput, transaction: Transac
     after: input.next,
     snapshot: input.snapshot,
     unchanged: !input.changed,
+    changed: changedKeys(input.diff),
     stored,
     settings,
     weights,

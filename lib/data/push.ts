@@ -232,8 +232,9 @@ async function applyInventory({
   );
   const hash = snapshotHash(next);
   const changed = latest ? latest.hash !== hash : next.components.length > 0;
+  const diff = summarise(diffSnapshots(previous, next));
   const impact = await impactForPush(
-    { environment, previous, next, inventory, snapshot: latest?.number ?? null, changed, requested: input.impact === true, dryRun: input.dryRun, overrideReason: input.overrideReason ?? null, actor: input.actor },
+    { environment, previous, next, diff, inventory, snapshot: latest?.number ?? null, changed, requested: input.impact === true, dryRun: input.dryRun, overrideReason: input.overrideReason ?? null, actor: input.actor },
     transaction,
   );
   // The tables always hold the latest snapshot's graph, so identical content needs no rewrite.
@@ -245,7 +246,6 @@ async function applyInventory({
   } else if (origins.size > 0 && !input.dryRun) {
     await refreshNeedOrigins({ sourceId: sourceRow.id, origins }, transaction);
   }
-  const diff = summarise(diffSnapshots(previous, next));
 
   let snapshot: PushResult["snapshot"] = null;
   if (changed && !input.dryRun) {

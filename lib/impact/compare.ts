@@ -125,40 +125,60 @@ export interface CompareOptions {
   movement: PolicySet["movement"];
   /** Work out who newly goes down for at most this many components of downGrowth (largest first). */
   detailedGrowth?: number;
+  /**
+   * Keys whose component or needs may differ between the sides (a superset is fine), e.g. from the
+   * snapshot diff the push computes anyway; only these are compared. Without it every component is.
+   */
+  changed?: ReadonlySet<string>;
 }
 
 const pairKey = (a: string, b: string): string => `${a}\u0000${b}`;
 const cmp = (a: string, b: string): number => (a < b ? -1 : a > b ? 1 : 0);
 
-/** Every need of an owner, as a comparable signature (what failure propagation reads). */
-function needSignatures(input: AnalysisInput): Map<string, string> {
+const edgeId = (e: AnalysisInput["edges"][number]): string => `${e.from}\u0000${e.to}\u0000${e.strength}\u0000${e.group ?? ""}`;
+
+/** Each wanted owner's needs (to, strength, group), sorted, as one comparable string. */
+function needSignatures(input: AnalysisInput, owners: ReadonlySet<string>): Map<string, string> {
   const lists = new Map<string, string[]>();
   for (const e of input.edges) {
+    if (!owners.has(e.from)) continue;
     const list = lists.get(e.from) ?? [];
-    list.push(`${e.to}|${e.strength}|${e.group ?? ""}`);
+    list.push(edgeId(e));
     lists.set(e.from, list);
   }
-  const out = new Map<string, string>();
-  for (const [k, list] of lists) out.set(k, list.sort().join("\n"));
-  return out;
+  return new Map([...lists].map(([k, list]) => [k, list.sort().join("\n")]));
 }
 
-function changedComponents(before: ImpactSide, after: ImpactSide): { needOwners: Set<string>; all: Set<string> } {
-  const sb = needSignatures(before.input);
-  const sa = needSignatures(after.input);
+function changedComponents(before: ImpactSide, after: ImpactSide, hint: ReadonlySet<string> | undefined): { needOwners: Set<string>; all: Set<string> } {
   const needOwners = new Set<string>();
-  for (const k of new Set([...sb.keys(), ...sa.keys()])) if (sb.get(k) !== sa.get(k)) needOwners.add(k);
-  const all = new Set(needOwners);
-  const nodeB = new Map(before.input.nodes.map((n) => [n.key, n]));
-  const nodeA = new Map(after.input.nodes.map((n) => [n.key, n]));
-  for (const k of new Set([...nodeB.keys(), ...nodeA.keys()])) {
-    const b = nodeB.get(k);
-    const a = nodeA.get(k);
-    if (!a || !b || a.tier !== b.tier || a.replicas !== b.replicas || [...a.zones].sort().join() !== [...b.zones].sort().join()) all.add(k);
+  if (hint) {
+    const sb = needSignatures(before.input, hint);
+    const sa = needSignatures(after.input, hint);
+    for (const k of hint) if (sb.get(k) !== sa.get(k)) needOwners.add(k);
+  } else {
+    // An owner whose needs differ has an edge (to, strength, group) on one side only.
+    const idsB = new Set(before.input.edges.map(edgeId));
+    const idsA = new Set<string>();
+    for (const e of after.input.edges) {
+      const id = edgeId(e);
+      idsA.add(id);
+      if (!idsB.has(id)) needOwners.add(e.from);
+    }
+    for (const e of before.input.edges) if (!idsA.has(edgeId(e))) needOwners.add(e.from);
   }
+  const all = new Set(needOwners);
+  const nodeB = new Map<string, AnalysisInput["nodes"][number]>();
+  for (const n of before.input.nodes) if (!hint || hint.has(n.key)) nodeB.set(n.key, n);
+  for (const a of after.input.nodes) {
+    if (hint && !hint.has(a.key)) continue;
+    const b = nodeB.get(a.key);
+    nodeB.delete(a.key);
+    if (!b || a.tier !== b.tier || a.replicas !== b.replicas || a.zones.length !== b.zones.length || [...a.zones].sort().join() !== [...b.zones].sort().join()) all.add(a.key);
+  }
+  for (const k of nodeB.keys()) all.add(k);
   // Keys only named by needs (placeholders the graph adds on its own) come and go too.
-  for (const k of before.graph.keys) if (!after.graph.indexOf.has(k)) all.add(k);
-  for (const k of after.graph.keys) if (!before.graph.indexOf.has(k)) all.add(k);
+  for (const k of before.graph.implicitKeys) if (!after.graph.indexOf.has(k)) all.add(k);
+  for (const k of after.graph.implicitKeys) if (!before.graph.indexOf.has(k)) all.add(k);
   return { needOwners, all };
 }
 
@@ -205,12 +225,22 @@ function reach(graph: CompactGraph, adjacency: Csr, start: Iterable<string>): Se
   return new Set(queue.map((v) => graph.keys[v]!));
 }
 
-/** Plain hard needs as "from\0to" (cycles), and every runtime need with its hardness (located findings). */
-function needPairs(graph: CompactGraph): { plainHard: Set<string>; runtime: Map<string, boolean> } {
+/**
+ * The needs of some owners: plain hard needs as "from\0to" (cycles), and every runtime need with
+ * its hardness (located findings). Only owners whose needs changed are worth reading: the others
+ * have the same needs on both sides.
+ */
+function needPairs(graph: CompactGraph, owners: ReadonlySet<string>): { plainHard: Set<string>; runtime: Map<string, boolean> } {
   const { needs, keys } = graph;
   const plainHard = new Set<string>();
   const runtime = new Map<string, boolean>();
+  const wanted = new Uint8Array(graph.n);
+  for (const k of owners) {
+    const v = graph.indexOf.get(k);
+    if (v !== undefined) wanted[v] = 1;
+  }
   for (let g = 0; g < needs.count; g++) {
+    if (!wanted[needs.owner[g]!]) continue;
     const from = keys[needs.owner[g]!]!;
     const hard = needs.hard[g] === 1;
     for (let e = needs.members.offsets[g]!; e < needs.members.offsets[g + 1]!; e++) {
@@ -324,7 +354,7 @@ function dominatorChanges(before: ImpactSide, after: ImpactSide, changed: Set<st
   return { entries, entriesChecked: check.length + fresh.length + gone.length, entriesTotal: entriesA.size };
 }
 
-function singlePointNeeds(before: ImpactSide, after: ImpactSide, pairsB: ReturnType<typeof needPairs>): SinglePointNeed[] {
+function singlePointNeeds(before: ImpactSide, after: ImpactSide, pairsB: ReturnType<typeof needPairs>, needOwners: ReadonlySet<string>): SinglePointNeed[] {
   const g = after.graph;
   const out: SinglePointNeed[] = [];
   const tierB = (k: string): number | undefined => {
@@ -348,7 +378,8 @@ function singlePointNeeds(before: ImpactSide, after: ImpactSide, pairsB: ReturnT
     if (seen.has(k)) continue;
     seen.add(k);
     let reason: SinglePointReason | null;
-    if (!pairsB.plainHard.has(k)) reason = pairsB.runtime.has(k) ? "now-hard" : "new-need";
+    // An owner whose needs did not change had this very need before.
+    if (needOwners.has(from) && !pairsB.plainHard.has(k)) reason = pairsB.runtime.has(k) ? "now-hard" : "new-need";
     else if (tierB(from) !== 1) reason = "now-tier-1";
     else if (singleB(to) === false) reason = "now-single-point";
     else reason = null;
@@ -360,7 +391,7 @@ function singlePointNeeds(before: ImpactSide, after: ImpactSide, pairsB: ReturnT
 }
 
 export function compareSides(before: ImpactSide, after: ImpactSide, options: CompareOptions): ImpactComparison {
-  const { needOwners, all: changed } = changedComponents(before, after);
+  const { needOwners, all: changed } = changedComponents(before, after, options.changed);
 
   const apB = new Set([...before.measures].filter(([, m]) => m.articulation).map(([k]) => k));
   const apA = new Set([...after.measures].filter(([, m]) => m.articulation).map(([k]) => k));
@@ -369,8 +400,8 @@ export function compareSides(before: ImpactSide, after: ImpactSide, options: Com
   const bridgesA = new Set(after.bridges.map(norm));
   const unpair = (k: string): [string, string] => k.split("\u0000") as [string, string];
 
-  const pairsB = needPairs(before.graph);
-  const pairsA = needPairs(after.graph);
+  const pairsB = needPairs(before.graph, needOwners);
+  const pairsA = needPairs(after.graph, needOwners);
   const addedNeeds: ImpactComparison["addedNeeds"] = [];
   for (const [k, hard] of pairsA.runtime) {
     const was = pairsB.runtime.get(k);
@@ -439,7 +470,7 @@ export function compareSides(before: ImpactSide, after: ImpactSide, options: Com
     hardCycles: { added: addedCycles, removed: cyclesB.filter((c) => !inAfter(c)) },
     tier1Blast,
     downGrowth,
-    singlePointNeeds: singlePointNeeds(before, after, pairsB),
+    singlePointNeeds: singlePointNeeds(before, after, pairsB, needOwners),
     dominators: dominatorChanges(before, after, new Set([...needOwners, ...changed])),
     addedNeeds,
   };

@@ -38,6 +38,8 @@ export interface ImpactRequest {
   stored: StoredAnalysis | null;
   /** The proposed content equals the current one (same hash): analyse once and compare it with itself. */
   unchanged?: boolean;
+  /** Keys whose component or needs the change touches, when the caller knows (compareSides' `changed`). */
+  changed?: ReadonlySet<string>;
   settings: AnalysisSettings;
   weights: PinchWeights;
   policies: PolicySet;
@@ -59,7 +61,7 @@ export async function impactOf(req: ImpactRequest): Promise<ImpactReport> {
     before = { input: inputB, graph: graphB, measures: req.stored.measures, bridges: req.stored.bridges, components: componentsB };
     exact = req.stored.exact;
   } else {
-    const resultB = await analyse(graphB, { weights: req.weights });
+    const resultB = await analyse(graphB, { weights: req.weights, maxDominatorTreeEntries: 0 });
     before = sideFromAnalysis({ input: inputB, graph: graphB, result: resultB, components: componentsB });
     exact = resultB.graph.exact;
   }
@@ -71,14 +73,15 @@ export async function impactOf(req: ImpactRequest): Promise<ImpactReport> {
   else {
     const inputA = analysisInputFromContent(req.after, req.settings);
     const graphA = buildGraph(inputA);
-    const resultA = await analyse(graphA, { weights: req.weights });
+    // The dominator trees of every entry are not read here (compare.ts works out the few it needs).
+    const resultA = await analyse(graphA, { weights: req.weights, maxDominatorTreeEntries: 0 });
     after = sideFromAnalysis({ input: inputA, graph: graphA, result: resultA, components: componentFacts(req.after) });
     exact &&= resultA.graph.exact;
   }
   timings.proposed = ms(t1);
 
   const t2 = performance.now();
-  const comparison = compareSides(before, after, { movement: req.policies.movement });
+  const comparison = compareSides(before, after, { movement: req.policies.movement, ...(req.changed ? { changed: req.changed } : {}) });
   const policies = evaluatePolicies({ comparison, before, after, policies: req.policies, reviews: req.reviews, locator: req.locator ?? NO_POSITIONS });
   timings.compare = ms(t2);
   timings.total = ms(t0);

@@ -165,6 +165,20 @@ describe(`impact comparison on ${CASES} seeded before/after graphs against netwo
     expect(count((c) => c.singlePointNeeds.length > 0)).toBeGreaterThan(10);
   });
 
+  it("told which components the change touches (as the push does, from its snapshot diff), the comparison gives the same answer", () => {
+    each((k, _r, ours) => {
+      const touched = new Set<string>();
+      const pairs = (g: GraphSpec) => new Map(g.edges.map(([u, v, hard]) => [`${u},${v}`, hard]));
+      const [pb, pa] = [pairs(k.before), pairs(k.after)];
+      for (const [id, hard] of pa) if (pb.get(id) !== hard) touched.add(key(Number(id.split(",")[0])));
+      for (const id of pb.keys()) if (!pa.has(id)) touched.add(key(Number(id.split(",")[0])));
+      for (let v = 0; v < k.n; v++) if (k.before.tier[v] !== k.after.tier[v] || k.before.replicas[v] !== k.after.replicas[v]) touched.add(key(v));
+      touched.add(key(0)); // a superset is fine
+      const hinted = compareSides(ours.before, ours.after, { movement: DEFAULT_POLICIES.movement, detailedGrowth: Infinity, changed: touched });
+      expect(hinted, `case ${k.id}`).toEqual(ours.c);
+    });
+  });
+
   it("pinch scores before and after equal DESIGN §3 over networkx.betweenness_centrality and ancestors along hard needs", () => {
     each((k, r, ours) => {
       for (const [side, spec, ref] of [[ours.before, k.before, r.before], [ours.after, k.after, r.after]] as const) {

@@ -215,6 +215,9 @@ async function benchImpact(n: number): Promise<void> {
     await db().sequelize.query("DELETE FROM analysis_runs WHERE status = 'queued'");
     await push("bench-impact-one", inventoryYaml(input, "estate-repo", "bench-impact-one"), false);
     await drainAnalysisQueue();
+    const t1 = performance.now();
+    await push("bench-impact-one", files.wholeChanged, true);
+    console.log(`whole estate as one file, the same dry run without impact (for comparison): ${ms(t1)} ms`);
     await line(`whole estate as one ${(files.wholeChanged.length / 1048576).toFixed(1)} MiB file (parsed with positions), stored analysis`, "bench-impact-one", files.wholeChanged);
     await closeDb();
   });

@@ -45,6 +45,7 @@ async function freshStoredAnalysis({ environmentId, weights }: { environmentId: 
   return { snapshot: latest.number, measures, bridges: latest.bridges, exact: latest.exact ?? true };
 }
 
+/** Overdue as lib/data/reviews.ts judges it (by the UTC day); that module is server-only, this one runs in scripts too. */
 async function reviewStates({ environmentId }: { environmentId: string }, transaction: Transaction): Promise<Map<string, ReviewState>> {
   const rows = await db().sequelize.query<{ key: string; status: ReviewState["status"]; overdue: boolean }>(
     `SELECT key, status, (status <> 'resolved' AND review_by < (now() AT TIME ZONE 'UTC')::date) AS overdue

@@ -13,7 +13,6 @@ import { Dependency } from "./Dependency";
 import { Environment } from "./Environment";
 import { ImportRecord } from "./ImportRecord";
 import { Membership } from "./Membership";
-import { ObservedDependency } from "./ObservedDependency";
 import { SignInAttempt } from "./SignInAttempt";
 import { Snapshot } from "./Snapshot";
 import { Source } from "./Source";
@@ -37,7 +36,6 @@ function initModels(sequelize: Sequelize) {
     Source: Source.initModel(sequelize),
     Component: Component.initModel(sequelize),
     Dependency: Dependency.initModel(sequelize),
-    ObservedDependency: ObservedDependency.initModel(sequelize),
     ComponentAnnotation: ComponentAnnotation.initModel(sequelize),
     Snapshot: Snapshot.initModel(sequelize),
     ImportRecord: ImportRecord.initModel(sequelize),

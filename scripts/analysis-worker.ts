@@ -3,8 +3,12 @@
 import { closeDb } from "../models";
 import { claimNextJob, runJob, workerId } from "../lib/data/analysis-jobs";
 import { startOutboxLoop } from "../lib/mail";
+import { runTraceUpkeep } from "../lib/data/traces";
 
 const POLL_MS = Number(process.env.PINCHPOINT_WORKER_POLL_MS ?? 500);
+/** How often traces' waiting calls are swept and changed observed sets taken into the graph. */
+const TRACE_TICK_MS = Number(process.env.PINCHPOINT_TRACE_TICK_MS ?? 2_000);
+let lastTraceTick = 0;
 let stopping = false;
 
 async function main() {
@@ -13,6 +17,10 @@ async function main() {
   // The same process delivers queued e-mail (and the daily review reminders) between jobs.
   const stopMail = startOutboxLoop({ intervalMs: 5_000 });
   while (!stopping) {
+    if (Date.now() - lastTraceTick >= TRACE_TICK_MS) {
+      lastTraceTick = Date.now();
+      await runTraceUpkeep().catch((error: unknown) => console.error("[worker] trace upkeep failed:", error instanceof Error ? error.message : error));
+    }
     const job = await claimNextJob(id).catch((error: unknown) => {
       console.error("[worker] could not reach the queue:", error instanceof Error ? error.message : error);
       return null;

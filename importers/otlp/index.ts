@@ -1,27 +1,17 @@
-// OpenTelemetry traces (OTLP/JSON) → observed edges, never declared components: what telemetry
-// saw is kept apart from what teams declared so drift can be shown.
-//   - a span whose parent span (same traceId) ran in another service.name gives
-//     parent-service → child-service, evidence "span-parent";
-//   - a CLIENT span (kind 3 or "SPAN_KIND_CLIENT") with `peer.service` gives
-//     service → peer.service, evidence "peer.service"; failing that, with `db.system`,
-//     service → the db.system value (e.g. "postgresql"), evidence "db.system".
-//     db.name / server.address are not used: they name databases and hosts, which seldom
-//     match component keys, whereas peer.service is the attribute meant to name a service.
-// One client call often yields both a peer.service edge and a span-parent edge to the
-// server span; they are kept as separate evidence, each with its own count.
-// Keys are normalised: lower-cased, characters outside a-z 0-9 . _ - become "-", leading
-// characters that are not a letter or digit dropped, cut to 128 ("Checkout API" → "checkout-api").
-// Spans with no service.name, and parents outside the file, give no edge (reported as warnings).
+// OpenTelemetry traces as a file: OTLP/JSON (one ExportTraceServiceRequest) or JSON Lines (one
+// request a line, as the Collector's file exporter writes). The spans are folded into observed
+// edges (lib/traces/fold.ts: the semantic-conventions rules) and never kept. This is the pure import
+// API; the push path (lib/data/traces.ts) streams files through the same steps into aggregates.
 import type { ImportResult, InventoryIssue, ObservedEdge } from "@/lib/inventory/types";
-import { KEY_PATTERN } from "@/lib/inventory/types";
+import { TraceFold, type FoldStats } from "@/lib/traces/fold";
+import { describeRejects, noRejects, type RejectedSpans } from "@/lib/traces/types";
 import { checkedText } from "../shared/body";
 import { checkOrigin } from "../shared/origin";
-import { loadStructured } from "../shared/structured";
 import { finishIssues } from "../shared/text";
-import { mapZodIssues } from "../shared/zod-issues";
-import { type KeyValue, TraceRequestSchema } from "./schema";
+import { TraceFileError, traceDocumentsOfText, type TraceDocument } from "./documents";
+import { spansFromJson } from "./spans";
 
-const SPAN_KIND_CLIENT = 3;
+export { normaliseKey } from "@/lib/traces/semconv";
 
 export interface OtlpOptions {
   body: string | Uint8Array;
@@ -35,83 +25,48 @@ export function importOtlp(opts: OtlpOptions): ImportResult {
   return parseOtlp({ ...opts, text: text.text });
 }
 
-export function normaliseKey(raw: string): string | null {
-  const key = raw
-    .toLowerCase()
-    .replace(/[^a-z0-9._-]/g, "-")
-    .replace(/^[^a-z0-9]+/, "")
-    .slice(0, 128);
-  return KEY_PATTERN.test(key) ? key : null;
+/**
+ * Fold one document of a file. Issues are located by line when the file has several documents.
+ * Throws TraceFileError on data that does not decode (nothing of the file is kept then).
+ */
+export function foldTraceDocument(fold: TraceFold, doc: TraceDocument, rejected: RejectedSpans, { lines }: { lines: boolean }): void {
+  const decoded = spansFromJson(doc.value, { file: true, pathPrefix: lines ? `lines[${doc.line}].` : "" });
+  if (!decoded.ok) throw new TraceFileError(422, decoded.issues.map((i) => (lines ? { ...i, line: doc.line } : i)));
+  for (const [reason, n] of decoded.rejected.reasons) rejected.reasons.set(reason, (rejected.reasons.get(reason) ?? 0) + n);
+  rejected.count += decoded.rejected.count;
+  fold.add(decoded.spans);
 }
 
-function attr(attributes: readonly KeyValue[] | undefined, name: string): string | undefined {
-  return attributes?.find((a) => a.key === name)?.value?.stringValue;
+/** What a folded file did not use, as push warnings. */
+export function foldWarnings(stats: FoldStats, rejected: RejectedSpans): InventoryIssue[] {
+  const out: InventoryIssue[] = [];
+  if (rejected.count > 0) out.push({ path: "resourceSpans", message: `skipped: ${describeRejects(rejected)}` });
+  if (stats.duplicates > 0) out.push({ path: "resourceSpans", message: `${stats.duplicates} spans repeated a trace and span id already read; each span counts once` });
+  if (stats.unnamed > 0) out.push({ path: "resourceSpans", message: `${stats.unnamed} spans have a service.name that gives no usable component key; they were skipped` });
+  if (stats.unresolved > 0) out.push({ path: "resourceSpans", message: `${stats.unresolved} client, producer or consumer spans name no callee (no SERVER child, peer.service, server.address, rpc.service, database or messaging destination)` });
+  if (stats.orphans > 0) out.push({ path: "resourceSpans", message: `${stats.orphans} server spans have a parent span not in this file; no edge taken from them` });
+  return out;
 }
 
 export function parseOtlp(opts: Omit<OtlpOptions, "body"> & { text: string }): ImportResult {
   const origin = checkOrigin(opts);
-  const loaded = loadStructured(opts.text, { json: true });
-  if (!loaded.ok) return { ok: false, status: loaded.status, issues: finishIssues([...origin.issues, ...loaded.issues]) };
-  const parsed = TraceRequestSchema.safeParse(loaded.source.value);
-  if (!parsed.success || origin.source === null) {
-    const issues = [...origin.issues, ...(parsed.success ? [] : mapZodIssues(parsed.error.issues, loaded.source))];
-    return { ok: false, status: 422, issues: finishIssues(issues) };
+  const fold = new TraceFold();
+  const rejected = noRejects();
+  try {
+    const docs = traceDocumentsOfText(opts.text);
+    for (const doc of docs) foldTraceDocument(fold, doc, rejected, { lines: docs.length > 1 });
+  } catch (error) {
+    if (!(error instanceof TraceFileError)) throw error;
+    return { ok: false, status: error.status, issues: finishIssues([...origin.issues, ...error.issues]) };
   }
-
-  const warnings: InventoryIssue[] = [];
-  // First pass: which service ran each span, so parents later in the file still resolve.
-  const serviceOfSpan = new Map<string, string>();
-  let unnamed = 0;
-  const spans: { service: string; id: string; parent: string | null; client: boolean; peer: string | undefined; db: string | undefined }[] = [];
-  parsed.data.resourceSpans.forEach((rs, r) => {
-    const rawName = attr(rs.resource?.attributes, "service.name");
-    const service = rawName === undefined ? null : normaliseKey(rawName);
-    if (rawName !== undefined && service === null) {
-      warnings.push({ path: `resourceSpans[${r}].resource`, message: `service.name ${JSON.stringify(rawName)} gives no usable key; its spans are skipped` });
-    }
-    for (const scope of [...(rs.scopeSpans ?? []), ...(rs.instrumentationLibrarySpans ?? [])]) {
-      for (const span of scope.spans ?? []) {
-        if (service === null) {
-          unnamed += 1;
-          continue;
-        }
-        const id = `${span.traceId.toLowerCase()}/${span.spanId.toLowerCase()}`;
-        serviceOfSpan.set(id, service);
-        const parent = span.parentSpanId ? `${span.traceId.toLowerCase()}/${span.parentSpanId.toLowerCase()}` : null;
-        const client = span.kind === SPAN_KIND_CLIENT || span.kind === "SPAN_KIND_CLIENT";
-        spans.push({ service, id, parent, client, peer: attr(span.attributes, "peer.service"), db: attr(span.attributes, "db.system") });
-      }
-    }
-  });
-  if (unnamed > 0) warnings.push({ path: "resourceSpans", message: `${unnamed} spans have no usable service.name and were skipped` });
-
-  const edges = new Map<string, ObservedEdge>();
-  const add = (from: string, to: string, evidence: string): void => {
-    if (from === to) return;
-    const id = `${from}\u0000${to}\u0000${evidence}`;
-    const e = edges.get(id);
-    if (e) e.count += 1;
-    else edges.set(id, { from, to, count: 1, evidence });
-  };
-  let orphans = 0;
-  for (const s of spans) {
-    if (s.parent !== null) {
-      const parentService = serviceOfSpan.get(s.parent);
-      if (parentService === undefined) orphans += 1;
-      else add(parentService, s.service, "span-parent");
-    }
-    if (!s.client) continue;
-    const peer = s.peer !== undefined ? normaliseKey(s.peer) : null;
-    const db = s.db !== undefined ? normaliseKey(s.db) : null;
-    if (peer !== null) add(s.service, peer, "peer.service");
-    else if (db !== null) add(s.service, db, "db.system");
-  }
-  if (orphans > 0) warnings.push({ path: "resourceSpans", message: `${orphans} spans have a parent span not in this file; no edge taken from them` });
-
+  if (origin.source === null) return { ok: false, status: 422, issues: finishIssues(origin.issues) };
+  fold.finish();
   const cmp = (x: string, y: string): number => (x < y ? -1 : x > y ? 1 : 0);
-  const observedEdges = [...edges.values()].sort((a, b) => cmp(a.from, b.from) || cmp(a.to, b.to) || cmp(a.evidence, b.evidence));
+  const observedEdges: ObservedEdge[] = [...fold.edges.values()]
+    .map((e) => ({ from: e.from, to: e.to, count: e.calls, evidence: [...e.evidence].sort(cmp).join(",") }))
+    .sort((a, b) => cmp(a.from, b.from) || cmp(a.to, b.to));
   return {
     ok: true,
-    inventory: { source: origin.source, environment: origin.environment, components: [], observedEdges, warnings },
+    inventory: { source: origin.source, environment: origin.environment, components: [], observedEdges, warnings: foldWarnings(fold.stats, rejected) },
   };
 }

@@ -1,4 +1,7 @@
 // Read a request body as bytes, refusing past the inventory size limit without buffering more.
+import { Readable } from "node:stream";
+import type { ReadableStream as NodeReadableStream } from "node:stream/web";
+import { createGunzip } from "node:zlib";
 import { AppError } from "@/lib/errors";
 import { MAX_BODY_BYTES } from "@/lib/inventory/limits";
 
@@ -25,4 +28,26 @@ export async function readBodyWithLimit(req: Request, limit = MAX_BODY_BYTES): P
     chunks.push(value);
   }
   return Buffer.concat(chunks);
+}
+
+/**
+ * A request body as a stream of chunks, gunzipped when sent with `Content-Encoding: gzip`, for
+ * readers that fold as they go (trace files) and so take bodies larger than any buffer limit.
+ */
+export async function* bodyChunks(req: Request): AsyncGenerator<Uint8Array> {
+  if (!req.body) return;
+  const coding = (req.headers.get("content-encoding") ?? "").trim().toLowerCase();
+  if (coding !== "" && coding !== "identity" && coding !== "gzip") {
+    throw new AppError("invalid_request", `Content-Encoding ${JSON.stringify(coding)} is not supported; send gzip or no encoding`);
+  }
+  const source = Readable.fromWeb(req.body as NodeReadableStream<Uint8Array>);
+  const stream = coding === "gzip" ? source.pipe(createGunzip()) : source;
+  try {
+    for await (const chunk of stream) yield chunk as Uint8Array;
+  } catch (error) {
+    if ((error as { code?: string }).code?.startsWith("Z_")) throw new AppError("invalid_inventory", "The body is not valid gzip", [{ path: "(body)", message: "Content-Encoding: gzip, but the body does not decompress" }]);
+    throw error;
+  } finally {
+    source.destroy();
+  }
 }

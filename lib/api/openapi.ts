@@ -23,7 +23,7 @@ interface Operation {
   summary: string;
   rule: RouteRule;
   query?: z.ZodType;
-  body?: z.ZodType | "inventory";
+  body?: z.ZodType | "inventory" | "otlp";
 }
 
 /** Path (OpenAPI template) → method → operation. */
@@ -38,7 +38,14 @@ export const OPERATIONS: Record<string, Partial<Record<Method, Operation>>> = {
     delete: { summary: "Delete an environment and everything of it, bound tokens included; ?confirm=<slug> required; audited", rule: "admin", query: deleteEnvironmentQuerySchema },
   },
   "/environments/{env}/inventory": {
-    post: { summary: "Push an inventory (YAML, JSON, Compose, CSV, OTLP/JSON or Kubernetes manifests; a layered Compose project as a multipart body of its files); dry_run=true writes nothing; impact=true reports what the change does to the failure points and the change policies (impact_format=markdown answers text/markdown, sarif application/sarif+json; 200 whatever the policies say); a real push a blocking policy refuses answers 409 policy_blocked unless an architect or admin gives override_reason", rule: "inventory:write", query: pushQuerySchema, body: "inventory" },
+    post: { summary: "Push an inventory (YAML, JSON, Compose, CSV, Kubernetes manifests, or OTLP/JSON and JSON Lines traces streamed; a layered Compose project as a multipart body of its files); dry_run=true writes nothing; impact=true reports what the change does to the failure points and the change policies (impact_format=markdown answers text/markdown, sarif application/sarif+json; 200 whatever the policies say); a real push a blocking policy refuses answers 409 policy_blocked unless an architect or admin gives override_reason", rule: "inventory:write", query: pushQuerySchema, body: "inventory" },
+  },
+  "/environments/{env}/otlp/v1/traces": {
+    post: {
+      summary: "OTLP/HTTP trace receiver (set an exporter's endpoint to …/environments/{env}/otlp): ExportTraceServiceRequest as protobuf or JSON, gzip or not; spans are folded into observed edges, never stored",
+      rule: "inventory:write",
+      body: "otlp",
+    },
   },
   "/environments/{env}/components": { get: { summary: "Components, filtered", rule: "read", query: componentsQuerySchema } },
   "/environments/{env}/components/{key}": {
@@ -138,8 +145,17 @@ export function openApiDocument(serverUrl: string) {
                 "multipart/form-data": {
                   schema: { type: "object", properties: { file: { type: "array", items: { type: "string", format: "binary" } } } },
                 },
+                "application/x-ndjson": { schema: { type: "string", description: "OTLP/JSON traces, one ExportTraceServiceRequest a line (format=otlp)" } },
               },
             }
+          : op.body === "otlp"
+            ? {
+                required: true,
+                content: {
+                  "application/x-protobuf": { schema: { type: "string", format: "binary", description: "opentelemetry.proto.collector.trace.v1.ExportTraceServiceRequest" } },
+                  "application/json": { schema: { type: "object", description: "ExportTraceServiceRequest in the OTLP JSON encoding" } },
+                },
+              }
           : op.body
             ? { required: true, content: { "application/json": { schema: jsonSchema(op.body) } } }
             : undefined;

@@ -24,6 +24,11 @@ export interface RouteOptions {
    * environment list). Other routes without an `{env}` in their path refuse bound tokens.
    */
   acrossEnvironments?: boolean;
+  /**
+   * Renders errors (the wrapper's own 401/403 included) for routes whose clients expect another
+   * error body than the API's, such as the OTLP receiver (google.rpc.Status).
+   */
+  renderError?: (error: unknown, req: NextRequest) => Response;
 }
 
 /** A token bound to an environment reaches that environment's routes and nothing wider. */
@@ -54,7 +59,7 @@ export function withPermission<P = Record<string, never>>(
       }
       return await handler({ req, actor: actor as Actor, params });
     } catch (error) {
-      return errorResponse(error);
+      return options.renderError ? options.renderError(error, req) : errorResponse(error);
     }
   };
   return Object.assign(wrapped, { permission });

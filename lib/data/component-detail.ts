@@ -5,6 +5,7 @@ import { db } from "@/models";
 import type { ComponentKind, FilePosition, Provenance, Strength } from "@/lib/inventory/types";
 import { COMPONENT_SELECT, toComponentListItem, type ComponentListItem, type ComponentRow } from "./components";
 import { notFound } from "@/lib/errors";
+import { trafficByPair, type Traffic } from "./trace-traffic";
 
 export interface ComponentEdge {
   key: string;
@@ -17,6 +18,8 @@ export interface ComponentEdge {
   provenance: Provenance[];
   /** Where an inferred need was named (file, line, column), when known. */
   origin: FilePosition | null;
+  /** traffic over the trace window, for needs traces saw */
+  traffic?: Traffic;
 }
 
 /** A list item (effective owner, declared team, source, notes) plus everything else known. */
@@ -25,7 +28,6 @@ export interface ComponentDetail extends ComponentListItem {
   annotationUpdatedAt: string | null;
   needs: ComponentEdge[];
   dependents: ComponentEdge[];
-  observed: { needs: string[]; dependents: string[] };
 }
 
 export async function getComponentDetail({ environmentId, key }: { environmentId: string; key: string }): Promise<ComponentDetail> {
@@ -43,24 +45,18 @@ export async function getComponentDetail({ environmentId, key }: { environmentId
         ORDER BY c.key`,
       { type: QueryTypes.SELECT, replacements: { environmentId, key } },
     );
-  const [needs, dependents, observed] = await Promise.all([
-    edges("needs"),
-    edges("dependents"),
-    sequelize.query<{ from_key: string; to_key: string }>(
-      "SELECT DISTINCT from_key, to_key FROM observed_dependencies WHERE environment_id = :environmentId AND (from_key = :key OR to_key = :key)",
-      { type: QueryTypes.SELECT, replacements: { environmentId, key } },
-    ),
-  ]);
+  const [needs, dependents, traffic] = await Promise.all([edges("needs"), edges("dependents"), trafficByPair({ environmentId, key })]);
+  const decorate = (list: ComponentEdge[], pair: (e: ComponentEdge) => string): ComponentEdge[] =>
+    list.map((e) => {
+      const t = traffic.get(pair(e));
+      return t ? { ...e, traffic: t } : e;
+    });
   return {
     ...toComponentListItem(row),
     links: row.links,
     annotationUpdatedAt: row.updated_at?.toISOString() ?? null,
-    needs,
-    dependents,
-    observed: {
-      needs: observed.filter((o) => o.from_key === key).map((o) => o.to_key),
-      dependents: observed.filter((o) => o.to_key === key).map((o) => o.from_key),
-    },
+    needs: decorate(needs, (e) => `${key}\u0000${e.key}`),
+    dependents: decorate(dependents, (e) => `${e.key}\u0000${key}`),
   };
 }
 

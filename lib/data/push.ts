@@ -1,12 +1,14 @@
 // A push: parse → authorise the source → merge into the environment's graph → snapshot → queue
 // analysis. All or nothing: one transaction, serialised per environment by an advisory lock, so
 // concurrent pushes never lose each other's work and a failed push writes nothing at all.
-import { QueryTypes, type Transaction } from "sequelize";
+import type { Transaction } from "sequelize";
 import { db } from "@/models";
 import type { Actor } from "@/lib/auth/actor";
 import { recordAudit, type SystemActor } from "./audit";
 import { loadCurrentContent, needOriginKey, refreshNeedOrigins, writeSourceRows, type NeedOrigins } from "./graph-content";
-import { queueAnalysis } from "./analysis-jobs";
+import { observedOverlay } from "./observed-graph";
+import { insertSnapshot, latestSnapshot } from "./snapshot-insert";
+import { pushTraceFile } from "./traces";
 import { AppError, notFound } from "@/lib/errors";
 import { importInventory } from "@/importers";
 import { mergeSources } from "@/lib/inventory/merge";
@@ -47,7 +49,8 @@ export interface PushResult {
   warnings: InventoryIssue[];
   /** What the importer inferred beyond what the files say, each with its reason (see ImportNote). */
   notes?: ImportNote[];
-  observed?: { edges: number };
+  /** trace files: distinct observed edges, spans read, calls counted, repeated spans skipped */
+  observed?: { edges: number; spans: number; calls: number; duplicates: number };
   /** Needs the importer inferred from configuration, each with its reason and position (dry runs only). */
   inferred?: { total: number; needs: InferredNeed[] };
   /** The change's impact (lib/impact), when asked for or when a blocking policy held the push to it. */
@@ -58,7 +61,7 @@ export interface DiffSummary extends SnapshotDiff {
   counts: { componentsAdded: number; componentsRemoved: number; componentsChanged: number; dependenciesAdded: number; dependenciesRemoved: number };
 }
 
-function summarise(diff: SnapshotDiff): DiffSummary {
+export function summariseDiff(diff: SnapshotDiff): DiffSummary {
   return {
     ...diff,
     counts: {
@@ -144,6 +147,13 @@ class DryRunRollback extends Error {
 }
 
 export async function pushInventory(input: PushInput): Promise<PushResult> {
+  if (input.format === "otlp") {
+    // Traces are folded into aggregates, not merged as declarations (lib/data/traces.ts).
+    const body = typeof input.body === "string" ? Buffer.from(input.body) : input.body;
+    return pushTraceFile({ environment: input.environment, source: input.source ?? null, dryRun: input.dryRun, actor: input.actor, chunks: (async function* () {
+      yield body;
+    })() });
+  }
   const inventory = parse(input);
   const { sequelize } = db();
   try {
@@ -160,7 +170,7 @@ export async function pushInventory(input: PushInput): Promise<PushResult> {
   }
 }
 
-async function lockEnvironment(input: PushInput, source: string, transaction: Transaction): Promise<{ id: string; slug: string }> {
+export async function lockEnvironment(input: Pick<PushInput, "environment" | "actor">, source: string, transaction: Transaction): Promise<{ id: string; slug: string }> {
   const { sequelize, models } = db();
   // Serialise pushes per environment slug (the environment may not exist yet).
   await sequelize.query("SELECT pg_advisory_xact_lock(hashtext('pinchpoint-env:' || :slug))", {
@@ -190,89 +200,56 @@ async function applyInventory({
   environment: { id: string; slug: string };
   transaction: Transaction;
 }): Promise<PushResult> {
-  const { sequelize, models } = db();
+  const { models } = db();
   const [sourceRow] = await models.Source.findOrCreate({
     where: { environmentId: environment.id, name: inventory.source },
     defaults: { environmentId: environment.id, name: inventory.source, lastFormat: input.format, lastPushAt: new Date() },
     transaction,
   });
   const previous = await loadCurrentContent({ environmentId: environment.id }, transaction);
-  let next: SnapshotContent = previous;
-  let warnings = [...inventory.warnings];
-  let aliasesChanged = false;
 
-  if (input.format === "otlp") {
-    // Traces declare nothing: they replace the source's observed edges and leave the declared graph alone.
-    await models.ObservedDependency.destroy({ where: { sourceId: sourceRow.id }, transaction });
-    const now = new Date();
-    await models.ObservedDependency.bulkCreate(
-      inventory.observedEdges.map((e) => ({ environmentId: environment.id, sourceId: sourceRow.id, fromKey: e.from, toKey: e.to, count: e.count, evidence: e.evidence, lastSeenAt: now })),
-      { transaction },
+  // Observed components and needs are laid over the declared graph, never merged as a source's.
+  const overlay = await observedOverlay({ environmentId: environment.id }, transaction);
+  const merged = mergeSources({ existing: overlay.strip(previous), source: inventory.source, incoming: inventory });
+  const first = merged.conflicts[0];
+  if (first) {
+    throw new AppError(
+      "conflict",
+      `${first.message} (this push is "${inventory.source}")`,
+      merged.conflicts.map((c) => ({ path: `components[key=${c.key}]`, message: c.message })),
     );
-  } else {
-    const merged = mergeSources({ existing: previous, source: inventory.source, incoming: inventory });
-    const first = merged.conflicts[0];
-    if (first) {
-      throw new AppError(
-        "conflict",
-        `${first.message} (this push is "${inventory.source}")`,
-        merged.conflicts.map((c) => ({ path: `components[key=${c.key}]`, message: c.message })),
-      );
-    }
-    next = merged.content;
-    // The merge's warnings start with the importer's own: take them once.
-    warnings = merged.warnings;
-    aliasesChanged = merged.aliasesChanged;
   }
+  const next: SnapshotContent = overlay.apply(merged.content);
+  // The merge's warnings start with the importer's own: take them once.
+  const warnings = merged.warnings;
+  const aliasesChanged = merged.aliasesChanged;
   const origins = needOrigins(inventory);
 
-  const [latest] = await sequelize.query<{ number: number; hash: string }>(
-    "SELECT number, hash FROM snapshots WHERE environment_id = :id ORDER BY number DESC LIMIT 1",
-    { type: QueryTypes.SELECT, replacements: { id: environment.id }, transaction },
-  );
+  const latest = await latestSnapshot({ environmentId: environment.id }, transaction);
   const hash = snapshotHash(next);
   const changed = latest ? latest.hash !== hash : next.components.length > 0;
-  const diff = summarise(diffSnapshots(previous, next));
+  const diff = summariseDiff(diffSnapshots(previous, next));
   const impact = await impactForPush(
     { environment, previous, next, diff, inventory, snapshot: latest?.number ?? null, changed, requested: input.impact === true, dryRun: input.dryRun, overrideReason: input.overrideReason ?? null, actor: input.actor },
     transaction,
   );
   // The tables always hold the latest snapshot's graph, so identical content needs no rewrite.
-  if (changed && input.format !== "otlp") {
+  if (changed) {
     await writeSourceRows(
       { environmentId: environment.id, sourceId: sourceRow.id, sourceName: inventory.source, content: next, origins, allDependencies: aliasesChanged },
       transaction,
     );
+    await overlay.write({ previous, next, pushingSource: inventory.source }, transaction);
   } else if (origins.size > 0 && !input.dryRun) {
     await refreshNeedOrigins({ sourceId: sourceRow.id, origins }, transaction);
   }
 
   let snapshot: PushResult["snapshot"] = null;
   if (changed && !input.dryRun) {
-    // A bound parameter, not Sequelize's escaped literal: the content of a large estate is megabytes.
-    const [row] = await sequelize.query<{ id: string; number: number; created_at: Date }>(
-      `INSERT INTO snapshots (id, environment_id, number, hash, content, component_count, dependency_count, undeclared_count, source_name, format, actor_label)
-       VALUES (gen_random_uuid(), $1, $2, $3, $4::jsonb, $5, $6, $7, $8, $9, $10) RETURNING id, number, created_at`,
-      {
-        type: QueryTypes.SELECT,
-        bind: [
-          environment.id,
-          (latest?.number ?? 0) + 1,
-          hash,
-          JSON.stringify(next),
-          next.components.length,
-          next.dependencies.length,
-          next.components.filter((c) => c.kind === "undeclared").length,
-          inventory.source,
-          input.format,
-          input.actor.label,
-        ],
-        transaction,
-      },
+    snapshot = await insertSnapshot(
+      { environmentId: environment.id, number: (latest?.number ?? 0) + 1, hash, content: next, sourceName: inventory.source, format: input.format, actorLabel: input.actor.label },
+      transaction,
     );
-    if (!row) throw new Error("snapshot insert returned nothing");
-    snapshot = { id: row.id, number: row.number, createdAt: row.created_at.toISOString() };
-    await queueAnalysis({ environmentId: environment.id, snapshotId: row.id }, transaction);
   }
 
   await sourceRow.update({ lastFormat: input.format, lastPushAt: new Date() }, { transaction });
@@ -284,7 +261,7 @@ async function applyInventory({
       actorLabel: input.actor.label,
       graphChanged: changed,
       snapshotNumber: snapshot?.number ?? null,
-      summary: { ...diff.counts, components: next.components.length, dependencies: next.dependencies.length, observedEdges: inventory.observedEdges.length },
+      summary: { ...diff.counts, components: next.components.length, dependencies: next.dependencies.length },
       warnings,
     },
     { transaction },
@@ -308,7 +285,6 @@ async function applyInventory({
     diff,
     warnings,
     ...(inventory.notes && inventory.notes.length > 0 ? { notes: inventory.notes } : {}),
-    ...(input.format === "otlp" ? { observed: { edges: inventory.observedEdges.length } } : {}),
     ...(input.dryRun ? inferredNeedsOf(inventory) : {}),
     ...(impact ? { impact } : {}),
   };

@@ -35,3 +35,11 @@ export const MAX_URL_LENGTH = 2_048;
  * text is checked before it is parsed.
  */
 export const MAX_NESTING_DEPTH = 64;
+
+/**
+ * Largest trace file streamed through `?format=otlp` (JSON Lines). Traces are folded as they are
+ * read and never held whole, so this can be far above MAX_BODY_BYTES; one line (one OTLP request)
+ * and a single-document file are still held whole and keep MAX_BODY_BYTES, the OTLP specification's
+ * recommended request limit (20 MiB).
+ */
+export const MAX_TRACE_FILE_BYTES = 2 * 1024 * 1024 * 1024;

@@ -8,6 +8,7 @@ import * as m0006 from "./0006-map-positions";
 import * as m0007 from "./0007-single-point";
 import * as m0008 from "./0008-need-kinds";
 import * as m0009 from "./0009-change-policies";
+import * as m0010 from "./0010-traces";
 
 export const MIGRATIONS = [
   { name: "0001-initial", ...m0001 },
@@ -19,4 +20,5 @@ export const MIGRATIONS = [
   { name: "0007-single-point", ...m0007 },
   { name: "0008-need-kinds", ...m0008 },
   { name: "0009-change-policies", ...m0009 },
+  { name: "0010-traces", ...m0010 },
 ];

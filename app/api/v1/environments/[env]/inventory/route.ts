@@ -7,12 +7,17 @@ import { kubernetesOptionsOf, pushQuerySchema } from "@/lib/api/schemas/inventor
 import { pushResponse } from "@/lib/api/impact-response";
 import { withPermission } from "@/lib/auth/with-permission";
 import { pushInventory } from "@/lib/data/push";
-import { readBodyWithLimit } from "@/lib/api/body";
+import { bodyChunks, readBodyWithLimit } from "@/lib/api/body";
 import { isMultipart, readPushedFiles } from "@/lib/api/multipart";
+import { pushTraceFile } from "@/lib/data/traces";
 
 export const POST = withPermission<{ env: string }>("inventory:write", async ({ req, params, actor }) => {
   const { env } = parseParams(params, envParamsSchema);
   const query = parseQuery(req.url, pushQuerySchema);
+  if (query.format === "otlp") {
+    // Trace files are folded as they stream in, so they may be larger than the inventory limit.
+    return NextResponse.json(await pushTraceFile({ environment: env, source: query.source ?? null, chunks: bodyChunks(req), dryRun: query.dry_run ?? false, actor }));
+  }
   const contentType = req.headers.get("content-type");
   const files = isMultipart(contentType) ? await readPushedFiles(req) : undefined;
   const body = files ? Buffer.alloc(0) : await readBodyWithLimit(req);

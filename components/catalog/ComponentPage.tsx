@@ -10,7 +10,7 @@ import { dependencyChangeLine, dependencyLine, fieldChanges } from "@/components
 import { MEASURE_HELP } from "@/components/rankings/measures";
 import { Badge } from "@/components/ui/Badge";
 import { Card } from "@/components/ui/Card";
-import { ageOf, betweennessPct, dateTime, measure, pinchScore, plural, safeHref } from "@/components/ui/format";
+import { ageOf, betweennessPct, dateTime, measure, pinchScore, plural, safeHref, trafficLine } from "@/components/ui/format";
 import { Notice } from "@/components/ui/Notice";
 import { fetchJson, type ApiError } from "@/lib/client/fetcher";
 import type { ComponentHistoryEntry } from "@/lib/data/component-history";
@@ -59,6 +59,18 @@ function EdgeList({ env, edges, empty }: { env: string; edges: ComponentEdge[]; 
             </Badge>
           )}
           {e.via && <span className="text-xs text-faint">via {e.via}</span>}
+          {e.provenance?.includes("observed") &&
+            (e.provenance.length === 1 ? (
+              <Badge tone="info" title="Seen in traces; no inventory file declares it">traces only</Badge>
+            ) : (
+              <Badge tone="ok" title="Declared, and traces confirm it">seen in traces</Badge>
+            ))}
+          {e.traffic && (
+            <span className="font-mono text-xs text-muted" data-testid="edge-traffic" title={`Over the trace window: ${e.traffic.calls.toLocaleString()} calls, ${e.traffic.errors.toLocaleString()} errors; p50 ${e.traffic.p50Ms?.toFixed(1) ?? "?"} ms, p95 ${e.traffic.p95Ms?.toFixed(1) ?? "?"} ms; last seen ${dateTime(e.traffic.lastSeenAt)}`}>
+              {trafficLine(e.traffic)}
+              {e.traffic.p95Ms !== null ? ` · p95 ${e.traffic.p95Ms < 10 ? e.traffic.p95Ms.toFixed(1) : Math.round(e.traffic.p95Ms)} ms` : ""}
+            </span>
+          )}
         </li>
       ))}
     </ul>
@@ -140,7 +152,15 @@ export function ComponentPage({ env, componentKey }: { env: string; componentKey
                   })
                 : "—"}
             </Field>
-            <Field label="Source">{d.source ? <span className="font-mono">{d.source}</span> : <span className="text-muted">no source (undeclared)</span>}</Field>
+            <Field label="Source">
+              {d.source === "(traces)" ? (
+                <span title="No inventory file declares it; traces show it calling or being called">seen in traces only</span>
+              ) : d.source ? (
+                <span className="font-mono">{d.source}</span>
+              ) : (
+                <span className="text-muted">no source (undeclared)</span>
+              )}
+            </Field>
           </dl>
         </Card>
         <Card title="Ownership">
@@ -176,7 +196,7 @@ export function ComponentPage({ env, componentKey }: { env: string; componentKey
         ) : (
           <p className="text-sm text-muted">No finished analysis includes this component yet.</p>
         )}
-        <p className="mt-3 text-xs text-muted">Measures are only as good as the inventory: they come from declared dependencies only: a dependency nobody declared is not counted.</p>
+        <p className="mt-3 text-xs text-muted">Measures are only as good as the inventory and the traces behind it: a dependency nobody declared and no trace caught is not counted.</p>
       </Card>
 
       <div className="grid gap-4 lg:grid-cols-2">

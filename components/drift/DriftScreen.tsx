@@ -3,14 +3,14 @@
 // nobody declared belongs in the calling component's file; a declared need no trace shows is
 // worth a second look, never an automatic removal.
 import Link from "next/link";
-import type { ReactNode } from "react";
+import { useState, type ReactNode } from "react";
 import useSWR from "swr";
 import { Badge } from "@/components/ui/Badge";
 import { Card, Stat } from "@/components/ui/Card";
-import { dateTime, plural } from "@/components/ui/format";
+import { dateTime, plural, trafficLine } from "@/components/ui/format";
 import { Notice } from "@/components/ui/Notice";
 import { fetchJson, type ApiError } from "@/lib/client/fetcher";
-import type { DeclaredNotSeen, Drift, SeenNotDeclared } from "@/lib/data/drift";
+import type { AliasProposalRow, DeclaredNotSeen, Drift, SeenNotDeclared } from "@/lib/data/drift";
 
 const th = "whitespace-nowrap px-2 py-1.5 font-medium";
 const td = "px-2 py-1.5 align-top";
@@ -68,12 +68,61 @@ function DeclareHint({ row }: { row: SeenNotDeclared }) {
   if (!row.toKnown) {
     lines.push(
       <span key="to" className="block">
-        <span className="font-mono text-ink">{row.to}</span> matches no component key{row.evidence.includes("db.system") ? " (db.system names a technology, not a component: the need may be to a datastore with another key)" : ""}.
+        <span className="font-mono text-ink">{row.to}</span> matches no component key or alias{row.evidence.some((e) => e === "server.address" || e === "url.full" || e === "net.peer.name") ? " (named after a host address: if a declared component answers there, list the name in its aliases)" : ""}.
+      </span>,
+    );
+  }
+  if (row.tracedAs.length > 0) {
+    lines.push(
+      <span key="as" className="block">
+        Traced as <span className="font-mono text-ink">{row.tracedAs.join(", ")}</span> (resolved through aliases).
       </span>,
     );
   }
   return <div className="space-y-0.5 text-xs text-muted">{lines}</div>;
 }
+
+/** One click: the format 1 snippet for the file that should hold the need (or the alias), ready to copy. */
+function SnippetButton({ snippet, label, testId }: { snippet: string; label: string; testId: string }) {
+  const [open, setOpen] = useState(false);
+  const [copied, setCopied] = useState(false);
+  const copy = async () => {
+    try {
+      await navigator.clipboard.writeText(snippet);
+      setCopied(true);
+    } catch {
+      setCopied(false);
+    }
+  };
+  return (
+    <div className="mt-1.5">
+      <button
+        type="button"
+        className="rounded-md border border-line bg-raised px-2 py-0.5 text-xs text-ink hover:border-brass"
+        aria-expanded={open}
+        onClick={() => {
+          setOpen((v) => !v);
+          if (!open) void copy();
+        }}
+        data-testid={testId}
+      >
+        {label}
+      </button>
+      {open && (
+        <div className="mt-1.5 space-y-1">
+          <pre className="max-w-xl overflow-x-auto rounded-md border border-line bg-raised px-2 py-1.5 font-mono text-xs text-ink" data-testid={`${testId}-snippet`}>
+            {snippet}
+          </pre>
+          <p className="text-xs text-faint" role="status">
+            {copied ? "Copied. " : ""}Paste it into the team&apos;s inventory file and push it the usual way (CI or Imports).
+          </p>
+        </div>
+      )}
+    </div>
+  );
+}
+
+const ms = (v: number | null): string => (v === null ? "—" : v < 10 ? v.toFixed(1) : Math.round(v).toLocaleString());
 
 function SeenNotDeclaredTable({ env, rows }: { env: string; rows: SeenNotDeclared[] }) {
   if (rows.length === 0) return <p className="text-sm text-muted">None: every call the traces show is declared.</p>;
@@ -84,9 +133,10 @@ function SeenNotDeclaredTable({ env, rows }: { env: string; rows: SeenNotDeclare
         <thead className="text-left text-xs text-muted">
           <tr>
             <th scope="col" className={th}>Caller → called</th>
-            <th scope="col" className={`${th} text-right`} title="At least this many calls: the largest count over the kinds of evidence">Calls seen</th>
+            <th scope="col" className={`${th} text-right`} title="Calls over the trace window, and calls per minute since the window opened or the call was first seen">Traffic</th>
+            <th scope="col" className={`${th} text-right`} title="Duration the caller saw, median and 95th percentile, in milliseconds">p50 / p95 ms</th>
             <th scope="col" className={th}>Evidence</th>
-            <th scope="col" className={th} title="When the push that carried these traces arrived">Last seen</th>
+            <th scope="col" className={th} title="First and last time a span of this call arrived (UTC)">First / last seen</th>
             <th scope="col" className={th}>Who should declare it</th>
           </tr>
         </thead>
@@ -96,17 +146,32 @@ function SeenNotDeclaredTable({ env, rows }: { env: string; rows: SeenNotDeclare
               <td className={td}>
                 <Edge env={env} from={r.from} to={r.to} fromKnown={r.fromKnown} toKnown={r.toKnown} />
               </td>
-              <td className={`${td} text-right font-mono tabular-nums`}>{r.count}</td>
+              <td className={`${td} text-right font-mono tabular-nums`} data-testid="drift-traffic">
+                <span className="block text-ink">{r.calls.toLocaleString()}</span>
+                <span className={`block text-xs ${r.errorRate >= 0.01 ? "text-degraded" : "text-muted"}`}>{trafficLine(r)}</span>
+              </td>
+              <td className={`${td} whitespace-nowrap text-right font-mono text-xs tabular-nums text-muted`}>
+                {ms(r.p50Ms)} / {ms(r.p95Ms)}
+              </td>
               <td className={td}>
                 <span className="flex flex-wrap gap-1">
                   {r.evidence.map((e) => (
                     <Badge key={e}>{e}</Badge>
                   ))}
+                  {r.async && (
+                    <Badge tone="info" title="A message hand-off: the producer needs the destination, never the consumer">
+                      asynchronous
+                    </Badge>
+                  )}
                 </span>
               </td>
-              <td className={`${td} whitespace-nowrap font-mono text-xs text-muted`}>{dateTime(r.lastSeenAt)}</td>
+              <td className={`${td} whitespace-nowrap font-mono text-xs text-muted`}>
+                <span className="block">{dateTime(r.firstSeenAt)}</span>
+                <span className="block">{dateTime(r.lastSeenAt)}</span>
+              </td>
               <td className={td}>
                 <DeclareHint row={r} />
+                <SnippetButton snippet={r.snippet} label="Declare this need" testId="declare-need" />
               </td>
             </tr>
           ))}
@@ -162,19 +227,68 @@ function DeclaredNotSeenTable({ env, rows }: { env: string; rows: DeclaredNotSee
   );
 }
 
+function AliasProposals({ env, rows }: { env: string; rows: AliasProposalRow[] }) {
+  if (rows.length === 0) return null;
+  return (
+    <Card title={`Names that look like a component (${rows.length})`}>
+      <p className="mb-3 text-sm text-muted">
+        Traces call these by a name that is neither a key nor an alias, but it looks like exactly one declared component. Once the component lists it as an alias,
+        its calls count on that component. A guess from naming habits: confirm with the owning team.
+      </p>
+      <table className="w-full text-sm" data-testid="alias-proposals">
+        <caption className="sr-only">Proposed aliases: a trace name and the declared component it looks like</caption>
+        <thead className="text-left text-xs text-muted">
+          <tr>
+            <th scope="col" className={th}>Traced as</th>
+            <th scope="col" className={th}>Looks like</th>
+            <th scope="col" className={th}>Why</th>
+          </tr>
+        </thead>
+        <tbody>
+          {rows.map((r) => (
+            <tr key={`${r.alias}→${r.key}`} className="border-t border-line/60" data-testid="alias-proposal-row">
+              <td className={`${td} font-mono`}>{r.alias}</td>
+              <td className={td}>
+                <ComponentRef env={env} componentKey={r.key} known />
+                <span className="block text-xs text-muted">
+                  source <span className="font-mono text-ink">{r.source}</span>
+                  {r.team ? ` · team ${r.team}` : ""}
+                </span>
+              </td>
+              <td className={`${td} text-xs text-muted`}>
+                {r.reason}
+                <SnippetButton snippet={r.snippet} label="Add this alias" testId="add-alias" />
+              </td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+    </Card>
+  );
+}
+
 function NoTraces({ env }: { env: string }) {
   return (
     <Card title="No traces pushed yet">
       <div className="space-y-3 text-sm text-muted" data-testid="drift-no-traces">
         <p>
-          Nothing to compare: this environment has no observed calls. Export a sample of traces as OTLP/JSON and push it under a source name of your choice, with an API token that has
-          inventory:write (Admin → Tokens). Traces declare nothing and never change the graph or the rankings.
+          Nothing to compare: this environment has seen no traced calls. Point an OpenTelemetry Collector&apos;s <span className="font-mono">otlphttp</span> exporter (or an
+          SDK&apos;s OTLP/HTTP exporter) at this environment, with an API token that has inventory:write (Admin → Tokens). It sends protobuf or JSON, gzip or not; spans
+          are folded into calls between components as they arrive and never stored.
         </p>
         <pre className="overflow-x-auto rounded-md border border-line bg-raised px-3 py-2 font-mono text-xs text-ink">
-          {`curl -X POST \\
-  -H "Authorization: Bearer $PINCHPOINT_TOKEN" \\
-  -H "Content-Type: application/json" \\
-  --data-binary @traces.json \\
+          {`exporters:
+  otlphttp/pinchpoint:
+    endpoint: <this server>/api/v1/environments/${env}/otlp
+    headers:
+      Authorization: "Bearer \${env:PINCHPOINT_TOKEN}"`}
+        </pre>
+        <p>Or push a trace file (OTLP/JSON, or JSON Lines as the Collector&apos;s file exporter writes them) under a source name of your choice:</p>
+        <pre className="overflow-x-auto rounded-md border border-line bg-raised px-3 py-2 font-mono text-xs text-ink">
+          {`curl -X POST \
+  -H "Authorization: Bearer $PINCHPOINT_TOKEN" \
+  -H "Content-Type: application/json" \
+  --data-binary @traces.jsonl \
   "<this server>/api/v1/environments/${env}/inventory?format=otlp&source=<name>"`}
         </pre>
         <p>
@@ -182,7 +296,7 @@ function NoTraces({ env }: { env: string }) {
           <Link href={`/environments/${env}/imports`} className="text-ink underline decoration-line underline-offset-2 hover:decoration-brass">
             Imports
           </Link>{" "}
-          screen (format “OpenTelemetry traces”, with a source name). A new push from the same source replaces its earlier traces.
+          screen (format “OpenTelemetry traces”, with a source name). A new file from the same source replaces its earlier one; the receiver adds up.
         </p>
       </div>
     </Card>
@@ -201,7 +315,8 @@ export function DriftScreen({ env }: { env: string }) {
         <p className="max-w-3xl text-sm text-muted">
           Drift is where the declared inventory and the running system disagree: calls that traces show but no file declares, and declared needs that no trace
           shows. Traces only show what was called while they were recorded; a need used at night, on failover or once a month can be missing from them, so
-          absence is not proof that a need is gone. Rankings, blast radius and drills keep using the declared inventory: fix the files, and the graph follows.
+          absence is not proof that a need is gone. Calls seen only in traces already take part in the analysis (as soft needs unless the environment&apos;s settings
+          say otherwise, and only in the views that include traces); declaring them in the files makes them part of every view, with the strength the team knows.
         </p>
       </div>
 
@@ -219,7 +334,7 @@ export function DriftScreen({ env }: { env: string }) {
             <Stat label="Seen, not declared" value={data.seenNotDeclared.length} tone={data.seenNotDeclared.length > 0 ? "degraded" : "ok"} hint="traced calls missing from the inventory" />
             <Stat label="Declared, not seen" value={data.declaredNotSeen.length} hint="needs of traced callers absent from traces" />
             <Stat label="Agreeing" value={data.agreeing} tone="ok" hint="declared needs the traces confirm" />
-            <Stat label="Trace sources" value={data.observedSources.length} hint={`newest ${dateTime(newest(data.observedSources.map((s) => s.lastSeenAt)))}`} />
+            <Stat label="Trace sources" value={data.observedSources.length} hint={`newest ${dateTime(newest(data.observedSources.map((s) => s.lastSeenAt)))}; window ${plural(data.window.days, "day")}`} />
           </div>
 
           <Card title={`Seen in traces, never declared (${data.seenNotDeclared.length})`}>
@@ -229,6 +344,8 @@ export function DriftScreen({ env }: { env: string }) {
             </p>
             <SeenNotDeclaredTable env={env} rows={data.seenNotDeclared} />
           </Card>
+
+          <AliasProposals env={env} rows={data.aliasProposals} />
 
           <Card title={`Declared, never seen in traces (${data.declaredNotSeen.length})`}>
             <p className="mb-3 text-sm text-muted">
@@ -240,12 +357,12 @@ export function DriftScreen({ env }: { env: string }) {
 
           <Card title={`Trace sources (${data.observedSources.length})`}>
             <table className="w-full text-sm" data-testid="observed-sources">
-              <caption className="sr-only">Sources of pushed traces with the time of their latest push</caption>
+              <caption className="sr-only">Sources of traces with the time a span of theirs last arrived</caption>
               <thead className="text-left text-xs text-muted">
                 <tr>
                   <th scope="col" className={th}>Source</th>
                   <th scope="col" className={`${th} text-right`}>Caller → called pairs</th>
-                  <th scope="col" className={th}>Last pushed</th>
+                  <th scope="col" className={th}>Last seen</th>
                 </tr>
               </thead>
               <tbody>

@@ -17,6 +17,7 @@ import {
 } from "@xyflow/react";
 import { useCallback, useEffect, useId, useMemo, useRef, useState, useSyncExternalStore, type KeyboardEvent, type ReactNode } from "react";
 import { COMPONENT_KINDS, TIERS, type ComponentKind, type Tier } from "@/lib/inventory/types";
+import { GraphViewBadge } from "@/components/rankings/SnapshotMeta";
 import { buildLegend, buildPalette, MODE_LABELS, paintNode, UNDECLARED, type Legend } from "./colour";
 import { DEFAULT_EXPORT_THEME, downloadBlob, kindSubtitle, renderSvg, svgToPng, type ExportEdge, type ExportNode, type ExportTheme } from "./export";
 import { Inspector, inspectorLinks } from "./Inspector";
@@ -550,6 +551,7 @@ function MapCanvasInner(props: MapCanvasProps) {
             {effGrouping.byTeam ? ` · ${effGrouping.collapsed.size > 0 ? `${[...effGrouping.collapsed].filter((s) => slots.includes(s)).length} teams collapsed` : "grouped by team"}` : ""}
           </span>
           {graph.snapshot ? <span>snapshot #{graph.snapshot.number}</span> : <span className="text-degraded">no snapshot yet</span>}
+          {graph.graphView ? <GraphViewBadge graphView={graph.graphView} /> : null}
           {layout.status === "done" ? <span>laid out in {(layout.ms / 1000).toFixed(1)} s{layout.cached ? " (cached)" : ""}</span> : null}
           {!canEdit && Object.keys(localPins).length > 0 ? <span>Moved positions are kept for this visit only; saving them needs lead, architect or admin.</span> : null}
           {notice ? (
@@ -777,6 +779,9 @@ function LegendPanel({ legend }: { legend: Legend }) {
         </li>
         <li className="flex items-center gap-1.5">
           <svg width={30} height={8} aria-hidden="true"><line x1={0} y1={4} x2={30} y2={4} className="pp-legend-edge pp-legend-cycle" /></svg>in a cycle (↻)
+        </li>
+        <li className="flex items-center gap-1.5">
+          <span className="pp-edge-traffic-key font-mono text-[10px]">12/min</span>calls seen in traces (and their error rate)
         </li>
         <li className="flex items-center gap-1.5">
           <span className="pp-badge pp-badge-inline">splits the graph</span>removing it disconnects parts of the estate

@@ -8,6 +8,7 @@ import { polylineMidpoint, polylinePath } from "./layout";
 import { paintNode, type Palette } from "./colour";
 import { KIND_LABEL, shapePaths, textInset } from "./shapes";
 import { teamSlotOf } from "./view";
+import { trafficLine } from "@/components/ui/format";
 
 export interface Decor {
   palette: Palette;
@@ -165,6 +166,12 @@ export const RoutedEdge = memo(function RoutedEdge(props: EdgeProps<MapFlowEdge>
             ↻
           </text>
         </g>
+      ) : null}
+      {edge?.traffic && mid ? (
+        <text className={`pp-edge-traffic${edge.traffic.errorRate >= 0.01 ? " pp-edge-traffic-errors" : ""}`} x={mid.x + 10} y={mid.y + 12}>
+          <title>{`Seen in traces: ${trafficLine(edge.traffic)} over the trace window`}</title>
+          {trafficLine(edge.traffic)}
+        </text>
       ) : null}
       {edge && edge.count > 1 && mid ? (
         <text className="pp-edge-count" x={mid.x + 10} y={mid.y - 6}>

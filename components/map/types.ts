@@ -37,6 +37,8 @@ export const mapEdgeSchema = z.object({
   provenance: z.array(z.enum(PROVENANCES)).optional(),
   group: z.string().nullable(),
   inCycle: z.boolean(),
+  /** Traffic traces saw on this need over the environment's trace window. */
+  traffic: z.object({ callsPerMinute: z.number(), errorRate: z.number(), p95Ms: z.number().nullable() }).optional(),
 });
 
 export const mapGraphSchema = z.object({
@@ -45,6 +47,11 @@ export const mapGraphSchema = z.object({
   nodes: z.array(mapNodeSchema),
   edges: z.array(mapEdgeSchema),
   teams: z.array(z.object({ slug: z.string(), name: z.string() })),
+  /** Which needs the measures were computed on (DESIGN §10). */
+  graphView: z
+    .object({ view: z.enum(["declared", "observed", "both"]), setting: z.enum(["declared", "observed", "both"]).nullable(), observedOnlyComponents: z.number(), observedNeeds: z.number() })
+    .nullable()
+    .optional(),
 });
 
 export type MapMetrics = z.infer<typeof metricsSchema>;

@@ -140,6 +140,8 @@ export interface ViewEdge {
   inCycle: boolean;
   /** how many component-level dependencies this edge stands for (>1 only between collapsed teams) */
   count: number;
+  /** calls traces saw on the dependencies it stands for (summed; error rate weighted by calls) */
+  traffic?: { callsPerMinute: number; errorRate: number };
 }
 
 export interface MapView {
@@ -243,8 +245,22 @@ export function groupSelection(graph: Pick<MapGraph, "teams">, selection: Select
       prev.strength = strongerStrength(prev.strength, e.strength);
       if (!isInferredOnly(e)) prev.inferred = false;
       if (e.inCycle) prev.inCycle = true;
+      if (e.traffic && fresh) {
+        const before = prev.traffic ?? { callsPerMinute: 0, errorRate: 0 };
+        const calls = before.callsPerMinute + e.traffic.callsPerMinute;
+        prev.traffic = { callsPerMinute: calls, errorRate: calls > 0 ? (before.errorRate * before.callsPerMinute + e.traffic.errorRate * e.traffic.callsPerMinute) / calls : 0 };
+      }
     } else {
-      byId.set(id, { id, source, target, strength: e.strength, inferred: isInferredOnly(e), inCycle: e.inCycle, count: 1 });
+      byId.set(id, {
+        id,
+        source,
+        target,
+        strength: e.strength,
+        inferred: isInferredOnly(e),
+        inCycle: e.inCycle,
+        count: 1,
+        ...(e.traffic ? { traffic: { callsPerMinute: e.traffic.callsPerMinute, errorRate: e.traffic.errorRate } } : {}),
+      });
     }
   }
   return { items, groups, edges: [...byId.values()], componentCount: nodes.length, focus: focusKey };

@@ -39,3 +39,9 @@ export function safeHref(url: string): string | null {
     return null;
   }
 }
+
+/** "12/min · 3% errors": calls per minute, and the error rate when there are errors. */
+export function trafficLine(t: { callsPerMinute: number; errorRate: number }): string {
+  const rate = t.callsPerMinute >= 10 ? Math.round(t.callsPerMinute).toLocaleString() : t.callsPerMinute >= 0.1 ? t.callsPerMinute.toFixed(1) : "<0.1";
+  return `${rate}/min${t.errorRate > 0 ? ` · ${t.errorRate < 0.001 ? "<0.1" : (t.errorRate * 100).toFixed(t.errorRate < 0.1 ? 1 : 0)}% errors` : ""}`;
+}

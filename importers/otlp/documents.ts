@@ -19,6 +19,8 @@ export interface TraceDocument {
   value: unknown;
   /** 1-based line the document starts on */
   line: number;
+  /** its text, to locate issues in it */
+  text: string;
 }
 
 const tooLarge = (message: string) => new TraceFileError(413, [{ path: "", message }]);
@@ -49,7 +51,7 @@ class DocumentReader {
     if (text.trim() === "") return null;
     this.contentLines += 1;
     try {
-      return { value: JSON.parse(text), line: this.lineNo };
+      return { value: JSON.parse(text), line: this.lineNo, text };
     } catch {
       if (this.contentLines === 1 && /^\s*[{[]/.test(text)) {
         this.whole = [text];
@@ -66,9 +68,10 @@ class DocumentReader {
 
   finish(): TraceDocument | null {
     if (this.whole) {
-      const loaded = loadStructured(this.whole.join("\n"), { json: true });
+      const text = this.whole.join("\n");
+      const loaded = loadStructured(text, { json: true });
       if (!loaded.ok) throw new TraceFileError(422, loaded.issues.map((i) => (i.line !== undefined ? { ...i, line: i.line + this.wholeStart - 1 } : i)));
-      return { value: loaded.source.value, line: this.wholeStart };
+      return { value: loaded.source.value, line: this.wholeStart, text };
     }
     if (this.contentLines === 0) throw new TraceFileError(422, [{ path: "", line: 1, column: 1, message: "the file is empty" }]);
     return null;

@@ -7,7 +7,8 @@ import { TraceFold, type FoldStats } from "@/lib/traces/fold";
 import { describeRejects, noRejects, type RejectedSpans } from "@/lib/traces/types";
 import { checkedText } from "../shared/body";
 import { checkOrigin } from "../shared/origin";
-import { finishIssues } from "../shared/text";
+import { loadStructured } from "../shared/structured";
+import { finishIssues, type PathSegment } from "../shared/text";
 import { TraceFileError, traceDocumentsOfText, type TraceDocument } from "./documents";
 import { spansFromJson } from "./spans";
 
@@ -30,11 +31,22 @@ export function importOtlp(opts: OtlpOptions): ImportResult {
  * Throws TraceFileError on data that does not decode (nothing of the file is kept then).
  */
 export function foldTraceDocument(fold: TraceFold, doc: TraceDocument, rejected: RejectedSpans, { lines }: { lines: boolean }): void {
-  const decoded = spansFromJson(doc.value, { file: true, pathPrefix: lines ? `lines[${doc.line}].` : "" });
-  if (!decoded.ok) throw new TraceFileError(422, decoded.issues.map((i) => (lines ? { ...i, line: doc.line } : i)));
+  const decoded = spansFromJson(doc.value, { file: true });
+  if (!decoded.ok) throw new TraceFileError(422, locate(doc, decoded.issues, lines));
   for (const [reason, n] of decoded.rejected.reasons) rejected.reasons.set(reason, (rejected.reasons.get(reason) ?? 0) + n);
   rejected.count += decoded.rejected.count;
   fold.add(decoded.spans);
+}
+
+/** Issues of one document with the line and column they point at (found only when something failed). */
+function locate(doc: TraceDocument, issues: InventoryIssue[], lines: boolean): InventoryIssue[] {
+  const loaded = loadStructured(doc.text, { json: true });
+  return issues.map((i) => {
+    const segments: PathSegment[] = i.path === "(root)" ? [] : [...i.path.matchAll(/([^.[\]]+)|\[(\d+)\]/g)].map((m) => (m[2] !== undefined ? Number(m[2]) : m[1]!));
+    const at = loaded.ok ? loaded.source.locate(segments) : {};
+    const line = at.line !== undefined ? at.line + doc.line - 1 : lines ? doc.line : undefined;
+    return { path: lines ? `lines[${doc.line}].${i.path}` : i.path, ...(line !== undefined ? { line } : {}), ...(at.column !== undefined ? { column: at.column } : {}), message: i.message };
+  });
 }
 
 /** What a folded file did not use, as push warnings. */

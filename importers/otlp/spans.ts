@@ -89,7 +89,20 @@ function serviceName(attrs: readonly unknown[] | null | undefined): string | nul
   return null;
 }
 
-const nanos = (v: unknown): number => (typeof v === "number" ? v : typeof v === "string" ? Number(v) : 0);
+/**
+ * end − start in nanoseconds. Timestamps are about 1.8·10¹⁸, past the 2⁵³ a double holds exactly,
+ * so decimal strings are split into a high and a low part and subtracted part by part.
+ */
+function durationOf(start: unknown, end: unknown): number {
+  if (typeof start === "string" && typeof end === "string" && start.length > 15 && end.length > 15) {
+    const split = (s: string): [number, number] => [Number(s.slice(0, s.length - 15)), Number(s.slice(s.length - 15))];
+    const [sh, sl] = split(start);
+    const [eh, el] = split(end);
+    return Math.max(0, (eh - sh) * 1e15 + (el - sl));
+  }
+  const n = (v: unknown): number => (typeof v === "number" ? v : typeof v === "string" ? Number(v) : 0);
+  return Math.max(0, n(end) - n(start));
+}
 
 const isRecord = (v: unknown): v is Record<string, unknown> => typeof v === "object" && v !== null && !Array.isArray(v);
 
@@ -168,7 +181,7 @@ export function spansFromJson(value: unknown, { file = false, pathPrefix = "" }:
             parentSpanId: span.parentSpanId ? canonicalId(span.parentSpanId, 8) : null,
             kind: kindOf(span.kind),
             service,
-            durationNs: Math.max(0, nanos(span.endTimeUnixNano) - nanos(span.startTimeUnixNano)),
+            durationNs: durationOf(span.startTimeUnixNano, span.endTimeUnixNano),
             error: code === STATUS_CODE_ERROR || code === "STATUS_CODE_ERROR",
             attrs,
           });
@@ -229,8 +242,10 @@ function readSpan(r: R, end: number): (Omit<TraceSpan, "service" | "traceId" | "
   let spanId: string | null = null;
   let parentSpanId: string | null = null;
   let kind = 0;
-  let start = 0;
-  let finish = 0;
+  let startHi = 0;
+  let startLo = 0;
+  let endHi = 0;
+  let endLo = 0;
   let error = false;
   const raw: { key: string; value: { stringValue?: string; boolValue?: boolean } }[] = [];
   while (r.pos < end) {
@@ -240,8 +255,8 @@ function readSpan(r: R, end: number): (Omit<TraceSpan, "service" | "traceId" | "
       case 18: spanId = hexOf(r, 8); break;
       case 34: parentSpanId = hexOf(r, 8); break;
       case 48: kind = kindOf(r.int32()); break;
-      case 57: { const lo = r.fixed32(); start = r.fixed32() * 4294967296 + lo; break; }
-      case 65: { const lo = r.fixed32(); finish = r.fixed32() * 4294967296 + lo; break; }
+      case 57: startLo = r.fixed32(); startHi = r.fixed32(); break;
+      case 65: endLo = r.fixed32(); endHi = r.fixed32(); break;
       case 74: {
         const len = r.uint32();
         readKeyValue(r, r.pos + len, wantedSpanAttribute, (key, v) => raw.push({ key, value: { stringValue: v.s, boolValue: v.b } }));
@@ -262,7 +277,8 @@ function readSpan(r: R, end: number): (Omit<TraceSpan, "service" | "traceId" | "
   }
   const attrs: CalleeAttributes = {};
   readAttributes(raw, attrs);
-  return { traceId, spanId, parentSpanId, kind, durationNs: Math.max(0, finish - start), error, attrs };
+  // fixed64 as two 32-bit halves, subtracted half by half so the difference stays exact.
+  return { traceId, spanId, parentSpanId, kind, durationNs: Math.max(0, (endHi - startHi) * 4294967296 + (endLo - startLo)), error, attrs };
 }
 
 /** A binary protobuf ExportTraceServiceRequest → spans; bytes that do not decode are one located issue. */

@@ -1,8 +1,9 @@
 // A snapshot's content as the analysis sees it, under the environment's settings: needs known only
 // from configuration or only from traces count as the settings say (DESIGN §10), and the analysis
 // view picks which needs take part at all.
+import { OBSERVED_SOURCE } from "../inventory/observed";
 import { provenanceOf, type SnapshotContent, type SnapshotDependency } from "../inventory/snapshot";
-import type { EnvironmentSettings } from "../inventory/settings";
+import type { AnalysisView, EnvironmentSettings } from "../inventory/settings";
 import type { Strength } from "../inventory/types";
 import type { AnalysisInput } from "./types";
 
@@ -26,9 +27,29 @@ export function inView(d: Pick<SnapshotDependency, "provenance">, view: Analysis
   return view === "observed" ? p.includes("observed") : p.some((x) => x !== "observed");
 }
 
+/**
+ * The view a graph is analysed on: the setting, or when unset `both` if the graph has declared and
+ * observed parts, else the one it has. Screens and API responses say which (DESIGN §10).
+ */
+export function resolvedView(content: SnapshotContent, view: AnalysisSettings["analysisView"]): AnalysisView {
+  if (view !== null) return view;
+  const observed = content.dependencies.some((d) => provenanceOf(d).includes("observed"));
+  const declared = content.components.some((c) => c.source !== null && c.source !== OBSERVED_SOURCE);
+  return observed && declared ? "both" : observed ? "observed" : "declared";
+}
+
 export function analysisInputFromContent(content: SnapshotContent, settings: AnalysisSettings = DEFAULT_ANALYSIS_SETTINGS): AnalysisInput {
+  // Components, too, belong to a view: the declared one leaves out what only traces know of (unless
+  // a declared need points at it: it stands where an undeclared placeholder would), the observed
+  // one what no trace touched.
+  const view = settings.analysisView;
+  const dependencies = content.dependencies.filter((d) => inView(d, view));
+  const endpoints = new Set(dependencies.flatMap((d) => [d.from, d.to]));
+  const components = content.components.filter((c) =>
+    view === "declared" ? c.source !== OBSERVED_SOURCE || endpoints.has(c.key) : view === "observed" ? endpoints.has(c.key) || c.source === OBSERVED_SOURCE : true,
+  );
   return {
-    nodes: content.components.map((c) => ({
+    nodes: components.map((c) => ({
       key: c.key,
       tier: c.tier,
       replicas: c.replicas,
@@ -36,9 +57,7 @@ export function analysisInputFromContent(content: SnapshotContent, settings: Ana
       team: c.team,
       undeclared: c.kind === "undeclared",
     })),
-    edges: content.dependencies
-      .filter((d) => inView(d, settings.analysisView))
-      .map((d) => ({ from: d.from, to: d.to, strength: effectiveStrength(d, settings), group: d.group })),
+    edges: dependencies.map((d) => ({ from: d.from, to: d.to, strength: effectiveStrength(d, settings), group: d.group })),
   };
 }
 

@@ -104,7 +104,15 @@ export async function getDrift({ environmentId, now }: { environmentId: string; 
         toKnown: declaredComponents.has(e.to),
         declareIn,
         suggestedStrength,
-        snippet: needSnippet({ source: declareIn?.source ?? null, team: declareIn?.team ?? null, from: e.from, to: e.to, strength: suggestedStrength, via: e.via }),
+        snippet: needSnippet({
+          source: declareIn?.source ?? null,
+          team: declareIn?.team ?? null,
+          from: e.from,
+          fromKind: owner && owner.kind !== "undeclared" ? owner.kind : "service",
+          to: e.to,
+          strength: suggestedStrength,
+          via: e.via,
+        }),
       };
     })
     .sort((a, b) => b.calls - a.calls || cmp(a.from, b.from) || cmp(a.to, b.to));
@@ -126,8 +134,8 @@ export async function getDrift({ environmentId, now }: { environmentId: string; 
     known,
   }).flatMap((p) => {
     const c = declaredComponents.get(p.key);
-    if (!c?.source) return [];
-    return [{ ...p, source: c.source, team: c.team, snippet: aliasSnippet({ source: c.source, team: c.team, key: p.key, alias: p.alias }) }];
+    if (!c?.source || c.kind === "undeclared") return [];
+    return [{ ...p, source: c.source, team: c.team, snippet: aliasSnippet({ source: c.source, team: c.team, key: p.key, kind: c.kind, alias: p.alias }) }];
   });
 
   return { window: traffic.window, observedSources: traffic.sources, seenNotDeclared, declaredNotSeen, agreeing, aliasProposals };

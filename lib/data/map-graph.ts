@@ -6,13 +6,15 @@ import type { MapGraph } from "@/components/map/types";
 import { METRIC_COLUMNS, getAnalysisView, type MetricColumns } from "./analysis-results";
 import { listTeams } from "./teams";
 import { effectiveOwners, getSnapshotGraph } from "./snapshot-graph";
+import { graphViewOf } from "./graph-view";
+import { trafficByPair } from "./trace-traffic";
 
 export async function getMapGraph({ environmentId, slug }: { environmentId: string; slug: string }): Promise<MapGraph> {
   const view = await getAnalysisView({ environmentId, withGraph: true });
   const snapshot = view.served ?? view.latest;
   const teams = (await listTeams()).map((t) => ({ slug: t.slug, name: t.name }));
   if (!snapshot) return { environment: slug, snapshot: null, nodes: [], edges: [], teams };
-  const [{ content }, owners, metrics] = await Promise.all([
+  const [{ content }, owners, metrics, traffic, graphView] = await Promise.all([
     getSnapshotGraph({ snapshotId: snapshot.id }),
     effectiveOwners({ environmentId }),
     view.served
@@ -21,6 +23,8 @@ export async function getMapGraph({ environmentId, slug }: { environmentId: stri
           replacements: { id: view.served.id },
         })
       : Promise.resolve([]),
+    trafficByPair({ environmentId }),
+    view.served ? graphViewOf({ environmentId, snapshotId: view.served.id }) : Promise.resolve(null),
   ]);
   const byKey = new Map(metrics.map((m) => [m.key, m]));
   const cycleOf = new Map<string, number>();
@@ -29,6 +33,7 @@ export async function getMapGraph({ environmentId, slug }: { environmentId: stri
     environment: slug,
     snapshot: { number: snapshot.number, createdAt: snapshot.createdAt },
     teams,
+    graphView,
     nodes: content.components.map((c) => {
       const m = byKey.get(c.key);
       return {
@@ -57,6 +62,7 @@ export async function getMapGraph({ environmentId, slug }: { environmentId: stri
     }),
     edges: content.dependencies.map((d) => {
       const a = cycleOf.get(d.from);
+      const t = traffic.get(`${d.from}\u0000${d.to}`);
       return {
         from: d.from,
         to: d.to,
@@ -64,6 +70,7 @@ export async function getMapGraph({ environmentId, slug }: { environmentId: stri
         group: d.group,
         inCycle: a !== undefined && a === cycleOf.get(d.to),
         ...(d.provenance ? { provenance: d.provenance } : {}),
+        ...(t ? { traffic: { callsPerMinute: t.callsPerMinute, errorRate: t.errorRate, p95Ms: t.p95Ms } } : {}),
       };
     }),
   };

@@ -20,7 +20,7 @@ import { RecentSpanIds } from "@/lib/traces/seen";
 import type { Callee } from "@/lib/traces/semconv";
 import { noRejects, type RejectedSpans, type TraceSpan } from "@/lib/traces/types";
 import { foldTraceDocument, foldWarnings } from "@/importers/otlp";
-import { TraceFileError, traceDocuments } from "@/importers/otlp/documents";
+import { TraceFileError, traceDocuments, type TraceDocument } from "@/importers/otlp/documents";
 import { recordAudit } from "./audit";
 import { findEnvironment } from "./environments";
 import { materialiseChangedEnvironments, materialiseObservedGraph } from "./observed-graph";
@@ -307,7 +307,7 @@ export async function pushTraceFile(input: TraceFileInput): Promise<PushResult> 
   const rejected = noRejects();
   let documents = 0;
   try {
-    let pending: { value: unknown; line: number } | null = null;
+    let pending: TraceDocument | null = null;
     for await (const doc of traceDocuments(input.chunks)) {
       // Locate issues by line once a second document shows the file is JSON Lines.
       if (pending) {

@@ -23,7 +23,7 @@ export function needSnippet(s: NeedSnippetInput): string {
   const need: Record<string, string> = { key: s.to };
   if (s.strength !== "hard") need.strength = s.strength;
   if (s.via) need.via = s.via;
-  const component: Record<string, unknown> = s.source ? { key: s.from } : { key: s.from, kind: s.fromKind ?? "service", ...(s.team ? { team: s.team } : {}) };
+  const component: Record<string, unknown> = { key: s.from, kind: s.fromKind ?? "service", ...(!s.source && s.team ? { team: s.team } : {}) };
   component.needs = [need];
   const where = s.source
     ? [`In the file of source "${s.source}"${s.team ? ` (team ${s.team})` : ""}, add this need under`, `the needs of component "${s.from}":`]
@@ -36,10 +36,11 @@ export interface AliasSnippetInput {
   source: string;
   team: string | null;
   key: string;
+  kind: DeclaredKind;
   alias: string;
 }
 
 export function aliasSnippet(s: AliasSnippetInput): string {
   return header([`In the file of source "${s.source}"${s.team ? ` (team ${s.team})` : ""}, add the alias to component "${s.key}":`]) +
-    stringify({ pinchpoint: 1, source: s.source, components: [{ key: s.key, aliases: [s.alias] }] }, { lineWidth: 0 });
+    stringify({ pinchpoint: 1, source: s.source, components: [{ key: s.key, kind: s.kind, aliases: [s.alias] }] }, { lineWidth: 0 });
 }

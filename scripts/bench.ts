@@ -1,6 +1,6 @@
 // Benchmark of the analysis engine (npm run bench). Speed is measured here, never in tests.
 //   npx tsx scripts/bench.ts                     all sections
-//   npx tsx scripts/bench.ts --only measures     one section (push | impact | kubernetes | compose | measures | igraph)
+//   npx tsx scripts/bench.ts --only measures     one section (push | impact | kubernetes | compose | traces | measures | igraph)
 //   npx tsx scripts/bench.ts --compare-igraph    also time python3-igraph on the 20k graph
 //   npx tsx scripts/bench.ts --edge-list FILE    one JSON line for a `from to` edge list
 //   --runs N                                     calls per side in the igraph comparison (default 3)
@@ -254,6 +254,16 @@ const sections: Section[] = [
     run: async () => {
       console.log("# a generated Compose project (scripts/bench/compose.ts) parsed and pushed through the API's code path");
       await benchCompose(3000);
+    },
+  },
+  {
+    name: "traces",
+    byDefault: true,
+    run: async () => {
+      console.log("# traces through the receiver and as a streamed JSON Lines file, route handlers behind node:http, into a throwaway PostgreSQL database");
+      const { withBenchDatabase } = await import("./bench/push");
+      const { benchTraces } = await import("./bench/traces");
+      await withBenchDatabase(benchTraces);
     },
   },
   {

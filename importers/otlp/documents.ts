@@ -80,38 +80,48 @@ class DocumentReader {
 
 const notUtf8 = (line: number) => new TraceFileError(422, [{ path: "", line, message: "the file is not UTF-8 text" }]);
 
-/** The documents of a file given as a stream of byte chunks (a request body). */
+/**
+ * The documents of a file given as a stream of byte chunks (a request body). Lines are cut on the
+ * bytes (a newline byte never occurs inside a UTF-8 sequence) and each line is decoded once: joining
+ * decoded chunks into a growing string would copy a long line once per chunk.
+ */
 export async function* traceDocuments(chunks: AsyncIterable<Uint8Array>, { maxBytes = MAX_TRACE_FILE_BYTES }: { maxBytes?: number } = {}): AsyncGenerator<TraceDocument> {
   const decoder = new TextDecoder("utf-8", { fatal: true });
   const reader = new DocumentReader();
   let total = 0;
-  let pending = "";
-  for await (const chunk of chunks) {
-    total += chunk.byteLength;
-    if (total > maxBytes) throw tooLarge(`the trace file is over ${maxBytes} bytes`);
+  let parts: Buffer[] = [];
+  let partsLength = 0;
+  const decodeLine = (bytes: Buffer): string => {
     try {
-      pending += decoder.decode(chunk, { stream: true });
+      return decoder.decode(bytes);
     } catch {
       throw notUtf8(reader.line + 1);
     }
+  };
+  for await (const raw of chunks) {
+    const chunk = Buffer.isBuffer(raw) ? raw : Buffer.from(raw.buffer, raw.byteOffset, raw.byteLength);
+    total += chunk.byteLength;
+    if (total > maxBytes) throw tooLarge(`the trace file is over ${maxBytes} bytes`);
     let start = 0;
-    let nl = pending.indexOf("\n");
+    let nl = chunk.indexOf(10);
     while (nl >= 0) {
-      const doc = reader.take(pending.slice(start, nl));
+      const piece = chunk.subarray(start, nl);
+      const line = parts.length === 0 ? piece : Buffer.concat([...parts, piece], partsLength + piece.length);
+      parts = [];
+      partsLength = 0;
+      const doc = reader.take(decodeLine(line));
       if (doc) yield doc;
       start = nl + 1;
-      nl = pending.indexOf("\n", start);
+      nl = chunk.indexOf(10, start);
     }
-    pending = pending.slice(start);
-    if (pending.length > MAX_BODY_BYTES) throw tooLarge(`line ${reader.line + 1} is over ${MAX_BODY_BYTES} bytes (20 MiB); one line holds one OTLP request`);
+    if (start < chunk.length) {
+      parts.push(chunk.subarray(start));
+      partsLength += chunk.length - start;
+      if (partsLength > MAX_BODY_BYTES) throw tooLarge(`line ${reader.line + 1} is over ${MAX_BODY_BYTES} bytes (20 MiB); one line holds one OTLP request`);
+    }
   }
-  try {
-    pending += decoder.decode();
-  } catch {
-    throw notUtf8(reader.line + 1);
-  }
-  if (pending !== "") {
-    const doc = reader.take(pending);
+  if (partsLength > 0) {
+    const doc = reader.take(decodeLine(Buffer.concat(parts, partsLength)));
     if (doc) yield doc;
   }
   const last = reader.finish();

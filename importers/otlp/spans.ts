@@ -13,6 +13,7 @@ import {
   ATTRIBUTE_KEYS,
   DEPRECATED_KEYS,
   reject,
+  SPAN_KIND,
   STATUS_CODE_ERROR,
   type CalleeAttributes,
   type RejectedSpans,
@@ -63,21 +64,26 @@ export function canonicalId(raw: string, bytes: 16 | 8): string | null {
 
 const kindOf = (k: unknown): number => (typeof k === "number" && k >= 0 && k <= 5 ? k : typeof k === "string" ? (SPAN_KIND_NAMES[k] ?? 0) : 0);
 
+/** Set one attribute that names a callee; a deprecated name never overrides its successor. */
+function setAttribute(out: CalleeAttributes, key: string, stringValue: unknown, boolValue: unknown): void {
+  const field = ATTRIBUTE_KEYS[key];
+  if (field === undefined) return;
+  if (field === "messagingDestinationTemporary") {
+    if (boolValue === true) out.messagingDestinationTemporary = true;
+    return;
+  }
+  if (typeof stringValue !== "string" || stringValue === "") return;
+  if (DEPRECATED_KEYS.has(key) && out[field] !== undefined) return;
+  (out as Record<string, string>)[field] = stringValue;
+}
+
 /** Copy the attributes that name a callee; a deprecated name never overrides its successor. */
 function readAttributes(attrs: readonly { key?: unknown; value?: unknown }[] | null | undefined, out: CalleeAttributes): void {
   if (!attrs) return;
   for (const kv of attrs) {
-    const field = typeof kv.key === "string" ? ATTRIBUTE_KEYS[kv.key] : undefined;
-    if (field === undefined) continue;
+    if (typeof kv.key !== "string" || ATTRIBUTE_KEYS[kv.key] === undefined) continue;
     const value = kv.value as { stringValue?: unknown; boolValue?: unknown } | null | undefined;
-    if (field === "messagingDestinationTemporary") {
-      if (value?.boolValue === true) out.messagingDestinationTemporary = true;
-      continue;
-    }
-    const s = value?.stringValue;
-    if (typeof s !== "string" || s === "") continue;
-    if (DEPRECATED_KEYS.has(kv.key as string) && out[field] !== undefined) continue;
-    (out as Record<string, string>)[field] = s;
+    setAttribute(out, kv.key, value?.stringValue, value?.boolValue);
   }
 }
 
@@ -178,7 +184,7 @@ export function spansFromJson(value: unknown, { file = false, pathPrefix = "" }:
           spans.push({
             traceId,
             spanId,
-            parentSpanId: span.parentSpanId ? canonicalId(span.parentSpanId, 8) : null,
+            parentSpanId: span.parentSpanId && kindOf(span.kind) === SPAN_KIND.server ? canonicalId(span.parentSpanId, 8) : null,
             kind: kindOf(span.kind),
             service,
             durationNs: durationOf(span.startTimeUnixNano, span.endTimeUnixNano),
@@ -235,31 +241,79 @@ function readKeyValue(r: R, end: number, wanted: (key: string) => boolean, onVal
   }
 }
 
-const wantedSpanAttribute = (key: string): boolean => ATTRIBUTE_KEYS[key] !== undefined;
+/** The attribute keys we read, by byte length, so a key is recognised from its bytes without decoding it. */
+const KEYS_BY_LENGTH = new Map<number, Array<{ key: string; bytes: Buffer }>>();
+for (const key of Object.keys(ATTRIBUTE_KEYS)) {
+  const bytes = Buffer.from(key);
+  KEYS_BY_LENGTH.set(bytes.length, [...(KEYS_BY_LENGTH.get(bytes.length) ?? []), { key, bytes }]);
+}
+
+function knownKey(buf: Buffer, start: number, len: number): string | null {
+  for (const candidate of KEYS_BY_LENGTH.get(len) ?? []) {
+    let same = true;
+    for (let i = 0; i < len; i++) {
+      if (buf[start + i] !== candidate.bytes[i]) {
+        same = false;
+        break;
+      }
+    }
+    if (same) return candidate.key;
+  }
+  return null;
+}
+
+/** One span KeyValue straight into `attrs`, decoding the key only when its length could match. */
+function readSpanAttribute(r: R, end: number, attrs: CalleeAttributes): void {
+  let key: string | null = null;
+  while (r.pos < end) {
+    const tag = r.uint32();
+    if (tag === 10) {
+      const len = r.uint32();
+      key = knownKey(r.buf, r.pos, len);
+      if (key === null) {
+        r.pos = end;
+        return;
+      }
+      r.skip(len);
+    } else if (tag === 18 && key !== null) {
+      const stop = r.pos + r.uint32();
+      let sv: string | undefined;
+      let bv: boolean | undefined;
+      while (r.pos < stop) {
+        const t = r.uint32();
+        if (t === 10) sv = r.string();
+        else if (t === 16) bv = r.bool();
+        else r.skipType(t & 7);
+      }
+      setAttribute(attrs, key, sv, bv);
+    } else r.skipType(tag & 7);
+  }
+}
 
 function readSpan(r: R, end: number): (Omit<TraceSpan, "service" | "traceId" | "spanId"> & { traceId: string | null; spanId: string | null }) {
   let traceId: string | null = null;
   let spanId: string | null = null;
-  let parentSpanId: string | null = null;
+  let parentStart = -1;
+  let parentLength = 0;
   let kind = 0;
   let startHi = 0;
   let startLo = 0;
   let endHi = 0;
   let endLo = 0;
   let error = false;
-  const raw: { key: string; value: { stringValue?: string; boolValue?: boolean } }[] = [];
+  const attrs: CalleeAttributes = {};
   while (r.pos < end) {
     const tag = r.uint32();
     switch (tag) {
       case 10: traceId = hexOf(r, 16); break;
       case 18: spanId = hexOf(r, 8); break;
-      case 34: parentSpanId = hexOf(r, 8); break;
+      case 34: parentLength = r.uint32(); parentStart = r.pos; r.skip(parentLength); break;
       case 48: kind = kindOf(r.int32()); break;
       case 57: startLo = r.fixed32(); startHi = r.fixed32(); break;
       case 65: endLo = r.fixed32(); endHi = r.fixed32(); break;
       case 74: {
         const len = r.uint32();
-        readKeyValue(r, r.pos + len, wantedSpanAttribute, (key, v) => raw.push({ key, value: { stringValue: v.s, boolValue: v.b } }));
+        readSpanAttribute(r, r.pos + len, attrs);
         break;
       }
       case 122: {
@@ -275,8 +329,14 @@ function readSpan(r: R, end: number): (Omit<TraceSpan, "service" | "traceId" | "
       default: r.skipType(tag & 7);
     }
   }
-  const attrs: CalleeAttributes = {};
-  readAttributes(raw, attrs);
+  // Only a SERVER span's parent is read (the fold pairs it with its CLIENT); decoding it for
+  // every span would cost a string each.
+  let parentSpanId: string | null = null;
+  if (kind === SPAN_KIND.server && parentLength === 8) {
+    let zero = true;
+    for (let i = parentStart; i < parentStart + 8; i++) if (r.buf[i] !== 0) zero = false;
+    parentSpanId = zero ? null : r.buf.toString("hex", parentStart, parentStart + 8);
+  }
   // fixed64 as two 32-bit halves, subtracted half by half so the difference stays exact.
   return { traceId, spanId, parentSpanId, kind, durationNs: Math.max(0, (endHi - startHi) * 4294967296 + (endLo - startLo)), error, attrs };
 }

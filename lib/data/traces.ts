@@ -183,6 +183,61 @@ function waitingClientOf(row: { trace_id: string; span_id: string; service: stri
   return { traceId: row.trace_id, spanId: row.span_id, caller: row.service, fallback: row.call.f, via: row.call.v, durationNs: row.call.d, error: row.call.x };
 }
 
+// Group commit: requests of one environment that arrive while its previous transaction is running
+// are stored together in the next one, each answered once that transaction commits. Busy exporters
+// send several requests at once (OTLP/HTTP Concurrent Requests); they all touch the same edge rows,
+// so one transaction for all of them does the row work once instead of queueing on row locks.
+interface PendingFold {
+  sourceId: string;
+  fold: TraceFold;
+  at: Date;
+  done: (error?: unknown) => void;
+}
+const holderQueues = globalThis as unknown as { __pinchpointTraceQueues?: Map<string, { pending: PendingFold[]; running: boolean }> };
+const queues = (holderQueues.__pinchpointTraceQueues ??= new Map());
+
+function commitFold({ environmentId, sourceId, fold, at }: { environmentId: string; sourceId: string; fold: TraceFold; at: Date }): Promise<void> {
+  let q = queues.get(environmentId);
+  if (!q) {
+    q = { pending: [], running: false };
+    queues.set(environmentId, q);
+  }
+  const queue = q;
+  const stored = new Promise<void>((resolve, reject) => queue.pending.push({ sourceId, fold, at, done: (error?: unknown) => (error === undefined ? resolve() : reject(error)) }));
+  if (!queue.running) void drainQueue(environmentId, queue);
+  return stored;
+}
+
+async function drainQueue(environmentId: string, queue: { pending: PendingFold[]; running: boolean }): Promise<void> {
+  queue.running = true;
+  try {
+    while (queue.pending.length > 0) {
+      const batch = queue.pending.splice(0);
+      try {
+        await db().sequelize.transaction(async (transaction) => {
+          // Halves of one call may sit in two requests of this batch: the second finds the first waiting.
+          for (const p of batch) await pairWithWaiting({ environmentId, sourceId: p.sourceId, fold: p.fold }, transaction);
+          const bySource = new Map<string, { fold: TraceFold; at: Date }>();
+          for (const p of batch) {
+            const into = bySource.get(p.sourceId);
+            if (!into) bySource.set(p.sourceId, { fold: p.fold, at: p.at });
+            else {
+              into.fold.absorb(p.fold);
+              if (p.at > into.at) into.at = p.at;
+            }
+          }
+          for (const [sourceId, { fold, at }] of bySource) await storeFold({ environmentId, sourceId, fold, at }, transaction);
+        });
+        for (const p of batch) p.done();
+      } catch (error) {
+        for (const p of batch) p.done(error);
+      }
+    }
+  } finally {
+    queue.running = false;
+  }
+}
+
 export interface ReceiveResult {
   /** spans refused, with one English sentence per reason (the OTLP partial success) */
   rejected: RejectedSpans;
@@ -218,10 +273,7 @@ export async function receiveTraces({
   fold.add(spans);
   if (spans.length > 0) {
     const sourceId = await sourceIdFor({ environmentId, name: source });
-    await db().sequelize.transaction(async (transaction) => {
-      await pairWithWaiting({ environmentId, sourceId, fold }, transaction);
-      await storeFold({ environmentId, sourceId, fold, at: now }, transaction);
-    });
+    await commitFold({ environmentId, sourceId, fold, at: now });
   }
   // Remembered only once stored: a request that failed may be sent again and must count then.
   for (let i = 0; i < fold.accepted.length; i += 2) memory.addHash(fold.accepted[i]!, fold.accepted[i + 1]!);

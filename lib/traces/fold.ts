@@ -12,9 +12,9 @@
 // Each (trace id, span id) counts once: repeats within the fold and ids in `memory` (spans stored
 // by earlier requests) are skipped. Duration and error come from the span that makes the call: the
 // caller's view, what a user of that call experienced.
-import { record, type Histogram } from "./histogram";
+import { merge, record, type Histogram } from "./histogram";
 import { calleeFromAttributes, isDatabaseCall, isMessaging, messagingDestination, normaliseKey, protocolOf, type Callee, type CalleeKind, type Evidence } from "./semconv";
-import { lastHash, spanHash, SpanIdSet, type SpanIdMemory } from "./seen";
+import { lastHash, spanHash, SpanIdSet, SpanIndex, type SpanIdMemory } from "./seen";
 import { SPAN_KIND, type TraceSpan } from "./types";
 
 export interface ObservedCall {
@@ -117,6 +117,24 @@ export class TraceFold {
     this.stats.calls += 1;
   }
 
+  /** Add another fold's edges to this one's (requests stored in one transaction). */
+  absorb(other: TraceFold): void {
+    for (const [id, e] of other.edges) {
+      const mine = this.edges.get(id);
+      if (!mine) {
+        this.edges.set(id, { ...e, evidence: new Set(e.evidence), histogram: new Map(e.histogram) });
+        continue;
+      }
+      if (KIND_RANK[e.toKind] > KIND_RANK[mine.toKind]) mine.toKind = e.toKind;
+      mine.via ??= e.via;
+      mine.async ||= e.async;
+      for (const x of e.evidence) mine.evidence.add(x);
+      mine.calls += e.calls;
+      mine.errors += e.errors;
+      merge(mine.histogram, e.histogram);
+    }
+  }
+
   /** A waiting client met its SERVER child (here or in another request). */
   join(client: WaitingClient, callee: string): void {
     // A call into the same service (in-process loopback) is no dependency.
@@ -132,15 +150,25 @@ export class TraceFold {
   }
 
   add(spans: readonly TraceSpan[]): void {
-    // Pass 1: drop repeats, name services, index this batch's spans and its SERVER children by parent.
-    const batch: TraceSpan[] = [];
-    const batchIds: string[] = [];
-    const batchServices: string[] = [];
-    const byId = new Map<string, TraceSpan>();
-    const childOf = new Map<string, string>();
-    for (const span of spans) {
+    // Pass 1: drop repeats, name services, and index this batch by 64-bit id hashes: SERVER
+    // children by their parent's id, and spans that may be the non-client parent of a SERVER span
+    // by their own. Parallel arrays and typed-array indexes, not an object or id string a span:
+    // this runs on every span of every request.
+    const n = spans.length;
+    const kept = new Int32Array(n);
+    const services: string[] = [];
+    const selfHi = new Uint32Array(n);
+    const selfLo = new Uint32Array(n);
+    const parentHi = new Uint32Array(n);
+    const parentLo = new Uint32Array(n);
+    const childOf = new SpanIndex(n);
+    const parents = new SpanIndex(n);
+    let count = 0;
+    for (let i = 0; i < n; i++) {
+      const span = spans[i]!;
       spanHash(span.traceId, span.spanId);
-      const { hi, lo } = lastHash;
+      const hi = lastHash.hi;
+      const lo = lastHash.lo;
       if (this.memory?.hasHash(hi, lo) || !this.ids.addHash(hi, lo)) {
         this.stats.duplicates += 1;
         continue;
@@ -152,24 +180,30 @@ export class TraceFold {
         continue;
       }
       this.stats.spans += 1;
-      const id = `${span.traceId}/${span.spanId}`;
-      batch.push(span);
-      batchIds.push(id);
-      batchServices.push(service);
-      byId.set(id, span);
-      if (span.kind === SPAN_KIND.server && span.parentSpanId !== null) {
-        const parent = `${span.traceId}/${span.parentSpanId}`;
-        if (!childOf.has(parent)) childOf.set(parent, service);
+      const at = count++;
+      kept[at] = i;
+      services.push(service);
+      selfHi[at] = hi;
+      selfLo[at] = lo;
+      const kind = span.kind;
+      if (kind === SPAN_KIND.server && span.parentSpanId !== null) {
+        spanHash(span.traceId, span.parentSpanId);
+        parentHi[at] = lastHash.hi;
+        parentLo[at] = lastHash.lo;
+        childOf.setIfAbsent(lastHash.hi, lastHash.lo, at);
       }
+      if (kind !== SPAN_KIND.client && kind !== SPAN_KIND.producer) parents.setIfAbsent(hi, lo, at);
     }
 
-    // Pass 2: count calls.
-    for (let i = 0; i < batch.length; i++) {
-      const span = batch[i]!;
-      const service = batchServices[i]!;
-      const a = span.attrs;
+    // Pass 2: count the calls of client, producer and consumer spans, pairing clients with children.
+    const paired = new Uint8Array(count);
+    for (let at = 0; at < count; at++) {
+      const span = spans[kept[at]!]!;
       const kind = span.kind;
-      if (isMessaging(a) && (kind === SPAN_KIND.producer || kind === SPAN_KIND.consumer || kind === SPAN_KIND.client)) {
+      if (kind === SPAN_KIND.server || kind === SPAN_KIND.internal || kind === SPAN_KIND.unspecified) continue;
+      const service = services[at]!;
+      const a = span.attrs;
+      if (isMessaging(a)) {
         const dest = messagingDestination(a);
         if (dest) this.addCall(service, dest.name, dest.kind, dest.via, true, dest.evidence, span.durationNs, span.error);
         else this.stats.unresolved += 1;
@@ -182,41 +216,44 @@ export class TraceFold {
         else this.stats.unresolved += 1;
         continue;
       }
-      if (kind === SPAN_KIND.client) {
-        const id = batchIds[i]!;
-        const here = childOf.get(id);
-        if (here !== undefined) {
-          if (here !== service) this.addCall(service, here, "service", protocolOf(a), false, "child-span", span.durationNs, span.error);
-          continue;
-        }
-        const client: WaitingClient = { traceId: span.traceId, spanId: span.spanId, caller: service, fallback: calleeFromAttributes(a), via: protocolOf(a), durationNs: span.durationNs, error: span.error };
-        const earlier = this.servers.get(id);
-        if (earlier) {
-          this.servers.delete(id);
-          this.join(client, earlier.callee);
-        } else if (isDatabaseCall(a)) this.settle(client);
-        else this.clients.set(id, client);
+      if (kind !== SPAN_KIND.client) continue;
+      const child = childOf.get(selfHi[at]!, selfLo[at]!);
+      if (child >= 0) {
+        paired[child] = 1;
+        const callee = services[child]!;
+        if (callee !== service) this.addCall(service, callee, "service", protocolOf(a), false, "child-span", span.durationNs, span.error);
         continue;
       }
-      if (kind === SPAN_KIND.server && span.parentSpanId !== null) {
-        const parentId = `${span.traceId}/${span.parentSpanId}`;
-        const parent = byId.get(parentId);
-        if (parent) {
-          // A CLIENT/PRODUCER parent counted (or skipped) the call itself.
-          const parentService = this.keyOf(parent.service);
-          if (parent.kind !== SPAN_KIND.client && parent.kind !== SPAN_KIND.producer && parentService !== null && parentService !== service) {
-            this.addCall(parentService, service, "service", protocolOf(a), false, "parent-span", span.durationNs, span.error);
-          }
-          continue;
-        }
-        const waiting = this.clients.get(parentId);
-        if (waiting) {
-          this.clients.delete(parentId);
-          this.join(waiting, service);
-          continue;
-        }
-        if (!this.servers.has(parentId)) this.servers.set(parentId, { traceId: span.traceId, parentSpanId: span.parentSpanId, spanId: span.spanId, callee: service });
+      const id = `${span.traceId}/${span.spanId}`;
+      const client: WaitingClient = { traceId: span.traceId, spanId: span.spanId, caller: service, fallback: calleeFromAttributes(a), via: protocolOf(a), durationNs: span.durationNs, error: span.error };
+      const earlier = this.servers.get(id);
+      if (earlier) {
+        this.servers.delete(id);
+        this.join(client, earlier.callee);
+      } else if (isDatabaseCall(a)) this.settle(client);
+      else this.clients.set(id, client);
+    }
+
+    // Pass 3: SERVER spans no client of this batch claimed.
+    for (let at = 0; at < count; at++) {
+      if (paired[at] === 1 || parentHi[at] === 0) continue;
+      const span = spans[kept[at]!]!;
+      const service = services[at]!;
+      const parent = parents.get(parentHi[at]!, parentLo[at]!);
+      if (parent >= 0) {
+        // Its parent ran here without a CLIENT span (context propagated by hand).
+        const parentService = services[parent]!;
+        if (parentService !== service) this.addCall(parentService, service, "service", protocolOf(span.attrs), false, "parent-span", span.durationNs, span.error);
+        continue;
       }
+      const parentKey = `${span.traceId}/${span.parentSpanId}`;
+      const waiting = this.clients.get(parentKey);
+      if (waiting) {
+        this.clients.delete(parentKey);
+        this.join(waiting, service);
+        continue;
+      }
+      if (!this.servers.has(parentKey)) this.servers.set(parentKey, { traceId: span.traceId, parentSpanId: span.parentSpanId!, spanId: span.spanId, callee: service });
     }
   }
 

@@ -136,3 +136,47 @@ export interface SpanIdMemory {
   hasHash(hi: number, lo: number): boolean;
   addHash(hi: number, lo: number): boolean;
 }
+
+/**
+ * (trace id, span id) → a small integer, for one batch: the fold's lookups of children and parents
+ * by id without building an id string a span (same hashing, same open addressing as SpanIdSet).
+ */
+export class SpanIndex {
+  private readonly hi: Uint32Array;
+  private readonly lo: Uint32Array;
+  private readonly value: Int32Array;
+  private readonly mask: number;
+
+  constructor(expected: number) {
+    let slots = 16;
+    while (slots < expected * 2) slots *= 2;
+    this.hi = new Uint32Array(slots);
+    this.lo = new Uint32Array(slots);
+    this.value = new Int32Array(slots);
+    this.mask = slots - 1;
+  }
+
+  private find(h: number, l: number): number {
+    let i = (h ^ Math.imul(l, 0x9e3779b1)) & this.mask;
+    for (;;) {
+      const s = this.hi[i]!;
+      if (s === 0 || (s === h && this.lo[i] === l)) return i;
+      i = (i + 1) & this.mask;
+    }
+  }
+
+  /** Keeps the first value set for a key. */
+  setIfAbsent(h: number, l: number, v: number): void {
+    const i = this.find(h, l);
+    if (this.hi[i] !== 0) return;
+    this.hi[i] = h;
+    this.lo[i] = l;
+    this.value[i] = v;
+  }
+
+  /** The value, or -1. */
+  get(h: number, l: number): number {
+    const i = this.find(h, l);
+    return this.hi[i] === 0 ? -1 : this.value[i]!;
+  }
+}

@@ -54,6 +54,7 @@ export interface TraceSpan {
   /** Hex ids lower-cased (OTLP/JSON ids are case-insensitive hex); any other spelling kept as sent. */
   traceId: string;
   spanId: string;
+  /** Read for SERVER spans only: the fold pairs a SERVER span with its CLIENT parent, and nothing else needs it. */
   parentSpanId: string | null;
   kind: number;
   /** The resource's service.name, as sent. */

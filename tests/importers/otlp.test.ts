@@ -6,6 +6,7 @@
 import { describe, expect, it } from "vitest";
 import { importInventory } from "@/importers";
 import { normaliseKey } from "@/importers/otlp";
+import { traceDocuments, TraceFileError } from "@/importers/otlp/documents";
 import { spansFromJson } from "@/importers/otlp/spans";
 import { TraceFold } from "@/lib/traces/fold";
 import { stripPort } from "@/lib/traces/semconv";
@@ -182,6 +183,23 @@ describe("trace files", () => {
       { from: "frontend", to: "cart", count: 2, evidence: "peer.service" },
     ]);
     expect(inv.warnings).toContainEqual(expect.objectContaining({ message: expect.stringMatching(/^1 spans repeated a trace and span id/) }));
+  });
+
+  it("streams JSON Lines in chunks cut anywhere, even inside a multi-byte character, and refuses bytes that are not UTF-8", async () => {
+    const lines = [JSON.stringify(otlpJson([client("frontend", { "peer.service": "cart" })])), JSON.stringify(otlpJson([client("fröntend-ü", { "peer.service": "cart" })]))];
+    const bytes = Buffer.from(`\uFEFF${lines.join("\n")}\n`);
+    async function* chunks(size: number, from: Buffer = bytes) {
+      for (let i = 0; i < from.length; i += size) yield from.subarray(i, i + size);
+    }
+    const read = async (size: number, from?: Buffer) => {
+      const out: unknown[] = [];
+      for await (const d of traceDocuments(chunks(size, from))) out.push([d.line, d.value]);
+      return out;
+    };
+    const expected = lines.map((l, i) => [i + 1, JSON.parse(l)]);
+    for (const size of [1, 7, 64, 100_000]) expect(await read(size)).toEqual(expected);
+    const bad = Buffer.concat([Buffer.from(`${lines[0]}\n{"resourceSpans": [], "x": "`), Buffer.from([0xff, 0xfe]), Buffer.from('"}\n')]);
+    await expect(read(16, bad)).rejects.toEqual(new TraceFileError(422, [{ path: "", line: 2, message: "the file is not UTF-8 text" }]));
   });
 
   it("bad JSON and wrong shapes are located, in a single document and in JSON Lines", () => {

@@ -6,10 +6,10 @@ import { RecentSpanIds, SpanIdSet } from "@/lib/traces/seen";
 describe("span id sets", () => {
   it("remember every id of a large file and nothing else", () => {
     const set = new SpanIdSet();
-    const ids = Array.from({ length: 50_000 }, () => [randomBytes(16).toString("hex"), randomBytes(8).toString("hex")] as const);
-    for (const [t, s] of ids) expect(set.add(t, s)).toBe(true);
+    const ids = Array.from({ length: 20_000 }, () => [randomBytes(16).toString("hex"), randomBytes(8).toString("hex")] as const);
+    expect(ids.filter(([t, s]) => set.add(t, s)).length).toBe(ids.length);
     expect(set.size).toBe(ids.length);
-    for (const [t, s] of ids) expect(set.add(t, s)).toBe(false);
+    expect(ids.filter(([t, s]) => set.add(t, s)).length).toBe(0);
     expect(set.has(ids[0]![0], "ffffffffffffffff")).toBe(false);
   });
 

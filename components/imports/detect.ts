@@ -6,7 +6,7 @@ export const FORMATS: { value: ImportFormat; label: string; hint: string }[] = [
   { value: "pinchpoint", label: "Pinchpoint inventory", hint: "YAML or JSON, format 1 — names its own source" },
   { value: "compose", label: "Compose project", hint: "one file, or several at once (base, overrides, .env): merged as Compose does" },
   { value: "csv", label: "CSV edge list", hint: "header from,to[,strength,kind,tier,team,via,any_of]; comma, semicolon or tab" },
-  { value: "otlp", label: "OpenTelemetry traces", hint: "OTLP/JSON export; gives observed edges only" },
+  { value: "otlp", label: "OpenTelemetry traces", hint: "OTLP/JSON or JSON Lines (the Collector's file exporter); gives observed needs only" },
   { value: "kubernetes", label: "Kubernetes manifests", hint: "YAML documents, JSON or a List: workloads, Services, Ingresses and routes" },
 ];
 

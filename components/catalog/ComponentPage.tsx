@@ -48,9 +48,11 @@ function EdgeList({ env, edges, empty }: { env: string; edges: ComponentEdge[]; 
           <Link href={`/environments/${env}/components/${encodeURIComponent(e.key)}`} className="font-mono text-ink hover:underline">
             {e.key}
           </Link>
-          <Badge tone={STRENGTH_BADGE[e.strength].tone} title={STRENGTH_BADGE[e.strength].title}>
-            {e.strength === "startup" ? "start-up only" : e.strength}
-          </Badge>
+          {e.provenance?.length === 1 && e.provenance[0] === "observed" ? null : (
+            <Badge tone={STRENGTH_BADGE[e.strength].tone} title={STRENGTH_BADGE[e.strength].title}>
+              {e.strength === "startup" ? "start-up only" : e.strength}
+            </Badge>
+          )}
           {e.group && <Badge tone="info" title="Met while any one member of the group is up">any of</Badge>}
           {e.kind === "undeclared" && <Badge tone="undeclared" title="needed by something, declared by no source">undeclared</Badge>}
           {e.provenance?.includes("inferred") && (
@@ -61,7 +63,7 @@ function EdgeList({ env, edges, empty }: { env: string; edges: ComponentEdge[]; 
           {e.via && <span className="text-xs text-faint">via {e.via}</span>}
           {e.provenance?.includes("observed") &&
             (e.provenance.length === 1 ? (
-              <Badge tone="info" title="Seen in traces; no inventory file declares it">traces only</Badge>
+              <Badge tone="info" title="Seen in traces; no inventory file declares it. It counts as the environment's settings say (soft unless they make observed-only needs hard)">traces only</Badge>
             ) : (
               <Badge tone="ok" title="Declared, and traces confirm it">seen in traces</Badge>
             ))}

@@ -16,18 +16,18 @@ const th = "whitespace-nowrap px-2 py-1.5 font-medium";
 const td = "px-2 py-1.5 align-top";
 
 function ComponentRef({ env, componentKey, known }: { env: string; componentKey: string; known: boolean }) {
-  if (!known) {
-    return (
-      <span className="inline-flex items-center gap-1.5">
-        <span className="font-mono text-ink">{componentKey}</span>
-        <Badge tone="undeclared" title="No component with this key exists in the inventory">not in inventory</Badge>
-      </span>
-    );
-  }
+  // Every traced name is a component of the graph (known only from traces until a file declares it), so it has a page.
   return (
-    <Link href={`/environments/${env}/components/${encodeURIComponent(componentKey)}`} className="font-mono text-ink underline decoration-line underline-offset-2 hover:decoration-brass">
-      {componentKey}
-    </Link>
+    <span className="inline-flex items-center gap-1.5">
+      <Link href={`/environments/${env}/components/${encodeURIComponent(componentKey)}`} className="font-mono text-ink underline decoration-line underline-offset-2 hover:decoration-brass">
+        {componentKey}
+      </Link>
+      {!known && (
+        <Badge tone="undeclared" title="No inventory file declares a component with this key or alias; only traces know of it">
+          not in any file
+        </Badge>
+      )}
+    </span>
   );
 }
 

@@ -27,7 +27,7 @@ export interface SeenNotDeclared extends Traffic {
   async: boolean;
   /** the names traces used, when aliases resolved them */
   tracedAs: string[];
-  /** a declared component (not only seen in traces or an undeclared placeholder) */
+  /** declared by some file (not only seen in traces, nor an undeclared placeholder) */
   fromKnown: boolean;
   toKnown: boolean;
   /** whose file should declare the need: the source and team that declare `from`; null when no source declares it */

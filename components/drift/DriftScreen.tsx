@@ -339,8 +339,8 @@ export function DriftScreen({ env }: { env: string }) {
 
           <Card title={`Seen in traces, never declared (${data.seenNotDeclared.length})`}>
             <p className="mb-3 text-sm text-muted">
-              Each call is a need the inventory does not know about, so it is missing from rankings and blast radius. A need is declared on the calling component,
-              in the file of the source that declares it.
+              Each call is a need no file declares: it counts only in the views that include traces, and only as soft unless the environment&apos;s settings say
+              otherwise. A need is declared on the calling component, in the file of the source that declares it.
             </p>
             <SeenNotDeclaredTable env={env} rows={data.seenNotDeclared} />
           </Card>

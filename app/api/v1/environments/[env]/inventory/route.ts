@@ -1,6 +1,7 @@
 // POST /api/v1/environments/{env}/inventory[?dry_run=true][&format=…&source=…&profiles=…][&kubernetes settings]
 // [&impact=true&impact_format=json|markdown|sarif&file=…][&override_reason=…] — push an inventory, as one
 // body or, for a layered Compose project, as several files in a multipart body.
+import { NextResponse } from "next/server";
 import { parseParams, parseQuery } from "@/lib/api/query";
 import { envParamsSchema } from "@/lib/api/schemas/common";
 import { kubernetesOptionsOf, pushQuerySchema } from "@/lib/api/schemas/inventory";

@@ -12,6 +12,7 @@ export const ERROR_STATUS = {
   /** A real push that a change policy at `block` refuses (lib/data/impact.ts). */
   policy_blocked: 409,
   payload_too_large: 413,
+  unsupported_media_type: 415,
   invalid_inventory: 422,
   invalid_request: 422,
   rate_limited: 429,

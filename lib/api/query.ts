@@ -19,8 +19,20 @@ export function parseParams<T extends z.ZodType>(params: unknown, schema: T): z.
 /** JSON bodies of the API are small; inventories have their own, larger limit (lib/api/body.ts). */
 export const MAX_JSON_BODY_BYTES = 1024 * 1024;
 
-/** Parse a JSON request body, refusing one over 1 MiB; a body that is not JSON is a 400, not a 500. */
+/** `application/json`, with or without parameters (`; charset=utf-8`). */
+function isJsonContentType(value: string | null): boolean {
+  return value !== null && /^application\/json\s*(;|$)/i.test(value.trim());
+}
+
+/**
+ * Parse a JSON request body, refusing one over 1 MiB; a body that is not JSON is a 400, not a 500.
+ * The body must say it is JSON: a page on another site can send `text/plain` without asking the
+ * browser's permission (no CORS preflight), but never `application/json`.
+ */
 export async function readJson(req: Request): Promise<unknown> {
+  if (!isJsonContentType(req.headers.get("content-type"))) {
+    throw new AppError("unsupported_media_type", `This route takes a JSON body sent as Content-Type: application/json (got ${req.headers.get("content-type") ?? "none"})`);
+  }
   const bytes = await readBodyWithLimit(req, MAX_JSON_BODY_BYTES);
   try {
     return JSON.parse(bytes.toString("utf8"));

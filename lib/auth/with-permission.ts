@@ -6,6 +6,7 @@ import { actorCan, resolveActor, type Actor } from "./actor";
 import type { Permission } from "./roles";
 import { AppError, errorResponse, forbidden, unauthorized } from "@/lib/errors";
 import { findEnvironment } from "@/lib/data/environments";
+import { assertSameOrigin, isWriteMethod } from "./same-origin";
 
 export interface HandlerContext<P> {
   req: NextRequest;
@@ -52,6 +53,8 @@ export function withPermission<P = Record<string, never>>(
     try {
       const params = (await ctx?.params) ?? ({} as P);
       const actor = await resolveActor(req.headers);
+      // A write riding on the session cookie must come from our own pages (lib/auth/same-origin.ts).
+      if (actor?.type === "user" && isWriteMethod(req.method)) assertSameOrigin(req.headers);
       if (permission !== "public") {
         if (!actor) throw unauthorized();
         if (!actorCan(actor, permission)) throw forbidden(`This needs the ${permission} permission`);

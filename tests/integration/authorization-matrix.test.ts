@@ -145,6 +145,35 @@ describe("authorization matrix", () => {
   });
 });
 
+describe("cross-site writes", () => {
+  // Every write route, whatever its rule: the request a page on another port of the same host
+  // makes with fetch(…, { mode: "no-cors", credentials: "include" }) (see cross-site-writes.test.ts).
+  const writes = Object.entries(MATRIX).flatMap(([route, methods]) =>
+    Object.entries(methods)
+      .filter(([method, rule]) => method !== "GET" && rule !== "public")
+      .map(([method]) => ({ route, method: method as Method })),
+  );
+
+  it.each(writes)("$method $route refuses an admin's cookie sent from another origin", async ({ route, method }) => {
+    const handler = (await load(route))[method]!;
+    const res = await call(handler as never, {
+      url: urlOf(route),
+      method,
+      params: paramsOf(route),
+      as: users.admin,
+      ownPage: false,
+      headers: { origin: "http://127.0.0.1:4000", "sec-fetch-site": "same-site", "sec-fetch-mode": "no-cors", "content-type": "text/plain;charset=UTF-8" },
+      body: method === "DELETE" ? undefined : "{}",
+    });
+    expect({ route, method, status: res.status, message: String((res.json as { message?: string } | null)?.message ?? "") }).toEqual({
+      route,
+      method,
+      status: 403,
+      message: expect.stringContaining("Refused a change made with your session cookie"),
+    });
+  });
+});
+
 describe("server actions", () => {
   // A server action is a public endpoint: every exported action must be built by actionWithPermission.
   const roots = ["app", "components", "lib"].map((d) => path.resolve(__dirname, "../..", d));

@@ -44,11 +44,22 @@ export interface CallOptions<P> {
   as?: TestUser | { token: string } | null;
   body?: string | Buffer | object;
   headers?: Record<string, string>;
+  /**
+   * A signed-in browser's write from one of our own pages carries these (lib/auth/same-origin.ts);
+   * false sends the request without them, as a script replaying the cookie would.
+   */
+  ownPage?: boolean;
 }
+
+/** What Chromium attaches to a fetch() from a page served by the app itself. */
+export const OWN_PAGE_HEADERS = { origin: "http://127.0.0.1:3000", "sec-fetch-site": "same-origin", "sec-fetch-mode": "cors" } as const;
 
 export async function call<P>(handler: Handler<P>, opts: CallOptions<P>): Promise<{ status: number; json: unknown; headers: Headers }> {
   const headers = new Headers(opts.headers);
-  if (opts.as && "cookie" in opts.as) headers.set("cookie", opts.as.cookie);
+  if (opts.as && "cookie" in opts.as) {
+    headers.set("cookie", opts.as.cookie);
+    if (opts.ownPage !== false) for (const [k, v] of Object.entries(OWN_PAGE_HEADERS)) if (!headers.has(k)) headers.set(k, v);
+  }
   if (opts.as && "token" in opts.as) headers.set("authorization", `Bearer ${opts.as.token}`);
   let body: BodyInit | undefined;
   if (typeof opts.body === "string" || Buffer.isBuffer(opts.body)) body = opts.body as BodyInit;

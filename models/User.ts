@@ -11,6 +11,8 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
   declare active: CreationOptional<boolean>;
   /** `sub` of the OpenID Connect identity linked to this account */
   declare oidcSubject: string | null;
+  /** sessions issued under an older version are refused (see lib/auth/actor.ts) */
+  declare sessionVersion: CreationOptional<number>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 
@@ -24,6 +26,7 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
         role: { type: DataTypes.ENUM(...ROLES), allowNull: false },
         active: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
         oidcSubject: { type: DataTypes.STRING(255), allowNull: true, unique: true },
+        sessionVersion: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

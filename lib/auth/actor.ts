@@ -16,6 +16,8 @@ export type Actor =
       scopes: TokenScope[];
       environmentId: string | null;
       sourceName: string | null;
+      /** whose rights cap the token's (lib/data/tokens.ts) */
+      creator: { id: string; email: string; role: Role };
       label: string;
     };
 
@@ -25,9 +27,15 @@ const SCOPE_PERMISSIONS: Record<TokenScope, readonly Permission[]> = {
   "inventory:write": ["inventory:write"],
 };
 
+/** The token's scopes allow it, whatever its creator may do now. */
+export function scopeAllows(actor: Extract<Actor, { type: "token" }>, permission: Permission): boolean {
+  return actor.scopes.some((scope) => SCOPE_PERMISSIONS[scope].includes(permission));
+}
+
+/** A token does at most what its scopes say and at most what its creator may do today. */
 export function actorCan(actor: Actor, permission: Permission): boolean {
   if (actor.type === "user") return roleHas(actor.role, permission);
-  return actor.scopes.some((scope) => SCOPE_PERMISSIONS[scope].includes(permission));
+  return scopeAllows(actor, permission) && roleHas(actor.creator.role, permission);
 }
 
 function bearer(headers: Headers): string | null {
@@ -44,6 +52,10 @@ export async function resolveActor(headers: Headers): Promise<Actor | null> {
   if (token !== null) {
     const row = await authenticateToken({ token });
     if (!row) throw new AppError("unauthorized", "Unknown or revoked API token");
+    // Tokens act for the admin who made them: one whose account is gone or deactivated makes none work.
+    if (!row.creator || !row.creator.active) {
+      throw new AppError("unauthorized", `This API token's creator${row.creator ? ` (${row.creator.email})` : ""} no longer has an active account, so the token no longer works; ask an admin for a new one`);
+    }
     return {
       type: "token",
       id: row.id,
@@ -51,6 +63,7 @@ export async function resolveActor(headers: Headers): Promise<Actor | null> {
       scopes: row.scopes,
       environmentId: row.environmentId,
       sourceName: row.sourceName,
+      creator: { id: row.creator.id, email: row.creator.email, role: row.creator.role },
       label: `token ${row.name} (${row.prefix}…)`,
     };
   }
@@ -59,8 +72,10 @@ export async function resolveActor(headers: Headers): Promise<Actor | null> {
   const jwt = await getToken({ req: new NextRequest("http://pinchpoint.invalid/", { headers }), secret: authSecret() });
   const id = jwt?.sub;
   if (!id) return null;
-  // Re-read the user: a deactivation or role change takes effect on the next request.
+  // Re-read the user: a deactivation or role change takes effect on the next request, and a session
+  // issued before the account's sessions were ended (sign-out, new password, role change) is over.
   const user = await getUserById({ id });
   if (!user || !user.active) return null;
+  if (jwt.sv !== user.sessionVersion) return null;
   return { type: "user", id: user.id, email: user.email, name: user.name, role: user.role, label: user.email };
 }

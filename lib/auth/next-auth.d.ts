@@ -7,11 +7,14 @@ declare module "next-auth" {
   }
   interface User {
     role?: Role;
+    sessionVersion?: number;
   }
 }
 
 declare module "next-auth/jwt" {
   interface JWT {
     role?: Role;
+    /** users.session_version when the session was issued */
+    sv?: number;
   }
 }

@@ -7,7 +7,7 @@ import { z } from "zod";
 import { isRole } from "./roles";
 import { SIGN_IN_ERRORS } from "./messages";
 import { isSignInBlocked, reserveAttempt, signInSucceeded } from "@/lib/data/sign-in-attempts";
-import { normaliseEmail, verifyPassword } from "@/lib/data/users";
+import { endSessions, normaliseEmail, verifyPassword } from "@/lib/data/users";
 import { userForOidcIdentity } from "@/lib/data/sso-users";
 
 interface OidcProfile {
@@ -45,18 +45,14 @@ const credentialsSchema = z.object({
 export { SIGN_IN_ERRORS };
 
 /**
- * The caller's address for the per-address sign-in limit. X-Forwarded-For is a list each hop
- * appends to; entries left of the ones our own proxies added are the client's word. The rightmost
- * entry is the one `next start` itself adds for a direct connection; behind N trusted proxies
- * (PINCHPOINT_TRUSTED_PROXY_HOPS=N) the address is N entries further left.
+ * The caller's address for the per-address sign-in limit: the one address the launcher
+ * (scripts/serve.ts) put in X-Forwarded-For after reading the socket and the trusted proxies'
+ * entries (lib/auth/client-address.ts). Whatever else the client sent has been replaced there.
  */
-function clientAddress(headers: Record<string, unknown> | undefined): string {
+function signInAddress(headers: Record<string, unknown> | undefined): string {
   const forwarded = headers?.["x-forwarded-for"];
-  const hops = Math.max(0, Number(process.env.PINCHPOINT_TRUSTED_PROXY_HOPS ?? 0) || 0);
   const list = typeof forwarded === "string" ? forwarded.split(",").map((a) => a.trim()).filter(Boolean) : [];
-  const chosen = list[Math.max(0, list.length - 1 - hops)];
-  const real = headers?.["x-real-ip"];
-  return chosen || (typeof real === "string" ? real : "") || "local";
+  return list[list.length - 1] ?? "unknown";
 }
 
 export function authSecret(): string {
@@ -82,17 +78,24 @@ export const authOptions: NextAuthOptions = {
         const parsed = credentialsSchema.safeParse(raw);
         if (!parsed.success) throw new Error(SIGN_IN_ERRORS.wrong);
         const email = normaliseEmail(parsed.data.email);
-        const who = { email, address: clientAddress(req?.headers) };
+        const who = { email, address: signInAddress(req?.headers) };
         if (await isSignInBlocked(who)) throw new Error(SIGN_IN_ERRORS.limited);
         const { status, reservation } = await reserveAttempt(who);
         if (status === "limited") throw new Error(SIGN_IN_ERRORS.limited);
         const user = await verifyPassword({ email, password: parsed.data.password });
         if (!user) throw new Error(SIGN_IN_ERRORS.wrong);
         await signInSucceeded({ email, reservation });
-        return { id: user.id, email: user.email, name: user.name, role: user.role };
+        return { id: user.id, email: user.email, name: user.name, role: user.role, sessionVersion: user.sessionVersion };
       },
     }),
   ],
+  events: {
+    // Signing out ends the session on the server too: a copy of the cookie stops working at once.
+    // The version is per account, so this signs the account out in every browser.
+    async signOut({ token }) {
+      if (token?.sub) await endSessions({ userId: token.sub }).catch((error: unknown) => console.error("[auth] could not end sessions at sign-out:", error));
+    },
+  },
   callbacks: {
     async signIn({ account, profile }) {
       if (account?.provider !== "oidc") return true;
@@ -109,12 +112,14 @@ export const authOptions: NextAuthOptions = {
           token.role = linked.role;
           token.email = linked.email;
           token.name = linked.name;
+          token.sv = linked.sessionVersion;
         }
         return token;
       }
       if (user) {
         token.sub = user.id;
         if ("role" in user && isRole(user.role)) token.role = user.role;
+        if (typeof user.sessionVersion === "number") token.sv = user.sessionVersion;
       }
       return token;
     },

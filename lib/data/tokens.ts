@@ -2,7 +2,7 @@
 import { createHash, randomBytes } from "node:crypto";
 import type { Transaction } from "sequelize";
 import { db } from "@/models";
-import type { TokenScope } from "@/lib/auth/roles";
+import type { Role, TokenScope } from "@/lib/auth/roles";
 
 export const TOKEN_PREFIX = "ppt_";
 
@@ -99,6 +99,8 @@ export interface TokenActorRow {
   scopes: TokenScope[];
   environmentId: string | null;
   sourceName: string | null;
+  /** the admin who created it, as they are now: a token never does more than its creator could */
+  creator: { id: string; email: string; role: Role; active: boolean } | null;
 }
 
 /** The live token for this secret, touching its last-used time; null when unknown or revoked. */
@@ -106,6 +108,7 @@ export async function authenticateToken({ token }: { token: string }): Promise<T
   if (!token.startsWith(TOKEN_PREFIX)) return null;
   const row = await db().models.ApiToken.findOne({ where: { secretHash: hashToken(token) } });
   if (!row || row.revokedAt) return null;
+  const creator = row.createdBy ? await db().models.User.findByPk(row.createdBy) : null;
   // Last-used is informational: write it at most once a minute to keep pushes cheap.
   if (!row.lastUsedAt || Date.now() - row.lastUsedAt.getTime() > 60_000) {
     await row.update({ lastUsedAt: new Date() });
@@ -117,5 +120,6 @@ export async function authenticateToken({ token }: { token: string }): Promise<T
     scopes: row.scopes,
     environmentId: row.environmentId,
     sourceName: row.sourceName,
+    creator: creator ? { id: creator.id, email: creator.email, role: creator.role, active: creator.active } : null,
   };
 }

@@ -163,6 +163,8 @@ export async function updateUser({ id, input, actor }: { id: string; input: Upda
     if (input.role !== undefined) row.role = input.role;
     if (input.active !== undefined) row.active = input.active;
     if (!row.changed()) return;
+    // A new role or a deactivation applies to sessions already open, not only to the next sign-in.
+    row.sessionVersion = row.sessionVersion + 1;
     await row.save({ transaction });
     const after = snapshotOf(row);
     const action = input.role !== undefined && input.role !== before.role ? "user.role" : after.active ? "user.reactivate" : "user.deactivate";
@@ -208,6 +210,8 @@ export async function acceptInvite({ token, input }: { token: string; input: Acc
     invite.usedAt = new Date();
     await invite.save({ transaction });
     user.passwordHash = passwordHash;
+    // A password set is a fresh start: any session opened before it ends.
+    user.sessionVersion = user.sessionVersion + 1;
     await user.save({ transaction });
     await recordAudit(
       { actor: { type: "system", label: `invite accepted by ${user.email}` }, action: "user.invite.accept", targetType: "user", targetId: user.id, before: { password: false }, after: { password: true } },

@@ -1,5 +1,6 @@
 // Users: the only module that reads or writes the users table for the app.
 import bcrypt from "bcryptjs";
+import type { Transaction } from "sequelize";
 import { db } from "@/models";
 import type { Role } from "@/lib/auth/roles";
 
@@ -9,12 +10,14 @@ export interface AppUser {
   name: string;
   role: Role;
   active: boolean;
+  /** sessions carry the version they were issued under; a bump ends them all */
+  sessionVersion: number;
 }
 
 type UserRow = InstanceType<ReturnType<typeof db>["models"]["User"]>;
 
 export function toAppUser(row: UserRow): AppUser {
-  return { id: row.id, email: row.email, name: row.name, role: row.role, active: row.active };
+  return { id: row.id, email: row.email, name: row.name, role: row.role, active: row.active, sessionVersion: row.sessionVersion };
 }
 
 let dummyHash: string | undefined;
@@ -34,6 +37,14 @@ export async function verifyPassword({ email, password }: { email: string; passw
   const ok = await bcrypt.compare(password, hash);
   if (!row || !ok || !row.active || !row.passwordHash) return null;
   return toAppUser(row);
+}
+
+/**
+ * End every session of this account at once (sign-out, a new password, a role change,
+ * deactivation): cookies issued before carry an older version and are refused on their next request.
+ */
+export async function endSessions({ userId }: { userId: string }, transaction?: Transaction): Promise<void> {
+  await db().models.User.increment("sessionVersion", { by: 1, where: { id: userId }, transaction });
 }
 
 export async function hashPassword(password: string): Promise<string> {

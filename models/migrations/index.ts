@@ -9,6 +9,7 @@ import * as m0007 from "./0007-single-point";
 import * as m0008 from "./0008-need-kinds";
 import * as m0009 from "./0009-change-policies";
 import * as m0010 from "./0010-traces";
+import * as m0011 from "./0011-sessions-and-workers";
 
 export const MIGRATIONS = [
   { name: "0001-initial", ...m0001 },
@@ -21,4 +22,5 @@ export const MIGRATIONS = [
   { name: "0008-need-kinds", ...m0008 },
   { name: "0009-change-policies", ...m0009 },
   { name: "0010-traces", ...m0010 },
+  { name: "0011-sessions-and-workers", ...m0011 },
 ];

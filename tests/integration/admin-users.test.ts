@@ -10,7 +10,7 @@ import { ROLES, type Role } from "@/lib/auth/roles";
 import { findOpenInvite } from "@/lib/data/user-admin";
 import { verifyPassword } from "@/lib/data/users";
 import { db } from "@/models";
-import { call, createApiToken, createUser, type TestUser } from "../support/api";
+import { call, createApiToken, createUser, signInAgain, type TestUser } from "../support/api";
 
 const users = {} as Record<Role, TestUser>;
 let token: string;
@@ -171,7 +171,7 @@ describe("role changes and deactivation", () => {
     expect(audit?.actorLabel).toBe(users.admin.email);
   });
 
-  it("deactivates (the session stops working at once) and reactivates, both audited", async () => {
+  it("deactivates (the session stops working at once and stays ended) and reactivates (a new sign-in works), both audited", async () => {
     const target = await createUser("engineer");
     expect((await call(listEnvironments, { url: "/api/v1/environments", as: target })).status).toBe(200);
     const off = await call(updateUserRoute, { url: `/api/v1/users/${target.id}`, method: "PATCH", params: { id: target.id }, as: users.admin, body: { active: false } });
@@ -180,7 +180,9 @@ describe("role changes and deactivation", () => {
     expect((await call(listEnvironments, { url: "/api/v1/environments", as: target })).status).toBe(401);
     const on = await call(updateUserRoute, { url: `/api/v1/users/${target.id}`, method: "PATCH", params: { id: target.id }, as: users.admin, body: { active: true } });
     expect(on.json).toMatchObject({ active: true });
-    expect((await call(listEnvironments, { url: "/api/v1/environments", as: target })).status).toBe(200);
+    // Reactivation does not bring the ended session back: the person signs in again.
+    expect((await call(listEnvironments, { url: "/api/v1/environments", as: target })).status).toBe(401);
+    expect((await call(listEnvironments, { url: "/api/v1/environments", as: await signInAgain(target) })).status).toBe(200);
     const actions = (await db().models.AuditEvent.findAll({ where: { targetId: target.id }, order: [["createdAt", "ASC"]] })).map((a) => a.action);
     expect(actions).toEqual(["user.deactivate", "user.reactivate"]);
   });

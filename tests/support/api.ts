@@ -26,8 +26,16 @@ export async function createUser(role: Role, email?: string): Promise<TestUser> 
     passwordHash: await hashPassword("correct horse battery"),
     oidcSubject: null,
   });
-  const jwt = await encode({ token: { sub: row.id, email: row.email, name: row.name, role }, secret: process.env.NEXTAUTH_SECRET ?? "" });
+  const jwt = await encode({ token: { sub: row.id, email: row.email, name: row.name, role, sv: row.sessionVersion }, secret: process.env.NEXTAUTH_SECRET ?? "" });
   return { id: row.id, email: row.email, role, cookie: `next-auth.session-token=${jwt}` };
+}
+
+/** The cookie a fresh sign-in would give this user now (next-auth's jwt callback puts the current session version in it). */
+export async function signInAgain(user: TestUser): Promise<TestUser> {
+  const row = await db().models.User.findByPk(user.id);
+  if (!row) throw new Error(`no user ${user.id}`);
+  const jwt = await encode({ token: { sub: row.id, email: row.email, name: row.name, role: row.role, sv: row.sessionVersion }, secret: process.env.NEXTAUTH_SECRET ?? "" });
+  return { ...user, role: row.role, cookie: `next-auth.session-token=${jwt}` };
 }
 
 export async function createApiToken(opts: { scopes: TokenScope[]; environmentId?: string | null; source?: string | null; createdBy: string }): Promise<string> {

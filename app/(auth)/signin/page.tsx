@@ -1,19 +1,22 @@
 import type { Metadata } from "next";
+import { headers } from "next/headers";
 import { redirect } from "next/navigation";
-import { getServerSession } from "next-auth";
 import { SignInForm } from "@/components/auth/SignInForm";
 import { Logo } from "@/components/ui/Logo";
-import { authOptions, oidcProvider } from "@/lib/auth/options";
+import { resolveActor } from "@/lib/auth/actor";
+import { oidcProvider } from "@/lib/auth/options";
 import { demoMode } from "@/lib/config";
 import { sameOriginPath } from "@/lib/auth/callback";
 
 export const metadata: Metadata = { title: "Sign in" };
 
 export default async function SignInPage({ searchParams }: { searchParams: Promise<{ callbackUrl?: string; error?: string }> }) {
-  const session = await getServerSession(authOptions);
   const { callbackUrl, error } = await searchParams;
   const target = sameOriginPath(callbackUrl);
-  if (session?.user?.id) redirect(target);
+  // The server's word on the session, not the cookie's: an ended session (sign-out elsewhere, a role
+  // change) must land here and stay, not bounce back to a page that refuses it.
+  const actor = await resolveActor(await headers()).catch(() => null);
+  if (actor?.type === "user") redirect(target);
   return (
     <main className="grid min-h-screen md:grid-cols-[1.1fr_1fr]">
       <section className="hidden flex-col justify-between border-r border-line bg-surface p-10 md:flex">

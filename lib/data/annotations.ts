@@ -52,6 +52,11 @@ export async function annotateComponent({
       if (!ownsIt && !claims) {
         throw forbidden(currentOwner ? `Only a lead of "${currentOwner}", an architect or an admin may change this component` : "Claim an unowned component for a team you lead");
       }
+      // A lead hands a component only to a team they lead. Clearing the owner (null) is allowed: the
+      // component falls back to the team its inventory file declares, which is the file's word, not theirs.
+      if (input.team !== undefined && input.team !== null && !led.includes(input.team)) {
+        throw forbidden(`A lead hands components only to teams they lead; "${input.team}" is not one of yours. Ask a lead of "${input.team}", an architect or an admin.`);
+      }
     }
     const before = { team: currentOwner, notes: existing?.notes ?? null };
     const ownerTeam = input.team === undefined ? (existing?.ownerTeam ?? null) : input.team;

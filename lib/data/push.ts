@@ -9,6 +9,7 @@ import { loadCurrentContent, needOriginKey, refreshNeedOrigins, writeSourceRows,
 import { observedOverlay } from "./observed-graph";
 import { insertSnapshot, latestSnapshot } from "./snapshot-insert";
 import { pushTraceFile } from "./traces";
+import { checkMayReplaceSource } from "./source-ownership";
 import { AppError, notFound } from "@/lib/errors";
 import { importInventory } from "@/importers";
 import { mergeSources } from "@/lib/inventory/merge";
@@ -78,7 +79,7 @@ export function summariseDiff(diff: SnapshotDiff): DiffSummary {
 function mayCreateEnvironment(actor: PushActor): boolean {
   if (actor.type === "system") return actor.canCreateEnvironments;
   if (actor.type === "user") return actor.role === "admin";
-  return actor.environmentId === null;
+  return actor.environmentId === null && actor.creator.role === "admin";
 }
 
 function checkBinding(actor: PushActor, environmentId: string | null, source: string): void {
@@ -207,6 +208,7 @@ async function applyInventory({
     transaction,
   });
   const previous = await loadCurrentContent({ environmentId: environment.id }, transaction);
+  await checkMayReplaceSource({ actor: input.actor, source: inventory.source, current: previous }, transaction);
 
   // Observed components and needs are laid over the declared graph, never merged as a source's.
   const overlay = await observedOverlay({ environmentId: environment.id }, transaction);

@@ -9,6 +9,7 @@ import { GET as diffRoute } from "@/app/api/v1/environments/[env]/snapshots/[a]/
 import { GET as schemaRoute } from "@/app/api/v1/schema/inventory/route";
 import { db } from "@/models";
 import type { Role } from "@/lib/auth/roles";
+import { addMembership, upsertTeams } from "@/lib/data/teams";
 import { call, createApiToken, createUser, type TestUser } from "../support/api";
 
 const users = {} as Record<Role, TestUser>;
@@ -55,6 +56,12 @@ async function componentKinds(env = "shop") {
 
 beforeAll(async () => {
   for (const role of ["admin", "architect", "lead", "engineer", "viewer"] as const) users[role] = await createUser(role);
+  // The engineer and the lead work in the teams whose sources they push (lib/data/source-ownership.ts).
+  const teams = await upsertTeams({ teams: ["alpha", "beta"].map((slug) => ({ slug, name: slug, email: null, oncall: null, description: null })) });
+  for (const team of teams) {
+    await addMembership({ userId: users.engineer.id, teamId: team.id, isLead: false });
+    await addMembership({ userId: users.lead.id, teamId: team.id, isLead: true });
+  }
   // The environment is created by an admin's first push.
   const first = await pushAs(users.admin, A1);
   expect(first.status).toBe(200);

@@ -6,6 +6,7 @@ import type { OAuthConfig } from "next-auth/providers/oauth";
 import { z } from "zod";
 import { isRole } from "./roles";
 import { SIGN_IN_ERRORS } from "./messages";
+import { safeRedirect } from "./callback";
 import { isSignInBlocked, reserveAttempt, signInSucceeded } from "@/lib/data/sign-in-attempts";
 import { endSessions, normaliseEmail, verifyPassword } from "@/lib/data/users";
 import { userForOidcIdentity } from "@/lib/data/sso-users";
@@ -97,6 +98,9 @@ export const authOptions: NextAuthOptions = {
     },
   },
   callbacks: {
+    async redirect(params) {
+      return safeRedirect(params);
+    },
     async signIn({ account, profile }) {
       if (account?.provider !== "oidc") return true;
       const p = profile as OidcProfile | undefined;

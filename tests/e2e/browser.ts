@@ -10,6 +10,12 @@ export const baseUrl = () => {
   return url;
 };
 
+/**
+ * page.request shares the page's cookies but, unlike the page's own fetch(), sends no Origin: a
+ * cookie-authenticated write must say it comes from the app's own pages (lib/auth/same-origin.ts).
+ */
+export const ownOrigin = () => ({ origin: baseUrl() });
+
 export const SCREENSHOT_DIR = path.resolve(__dirname, "../../test-results/screenshots");
 
 export async function launch(): Promise<Browser> {

@@ -7,7 +7,7 @@ import { tmpdir } from "node:os";
 import path from "node:path";
 import type { Page } from "playwright-core";
 import { beforeAll, describe, expect, it } from "vitest";
-import { baseUrl, browserForFile } from "./browser";
+import { baseUrl, browserForFile, ownOrigin } from "./browser";
 import { signedInPage } from "./pages/signin";
 
 const browser = browserForFile();
@@ -19,7 +19,7 @@ let k8sToken: string;
 
 beforeAll(async () => {
   page = await signedInPage(browser(), "admin");
-  const res = await page.request.post(`${baseUrl()}/api/v1/tokens`, { data: { name: "e2e-ci-example", scopes: ["inventory:write"], environment: "production", source: "checkout-repo" } });
+  const res = await page.request.post(`${baseUrl()}/api/v1/tokens`, { data: { name: "e2e-ci-example", scopes: ["inventory:write"], environment: "production", source: "checkout-repo" }, headers: ownOrigin() });
   expect(res.status()).toBe(201);
   token = ((await res.json()) as { token: string }).token;
   const k8s = await page.request.post(`${baseUrl()}/api/v1/tokens`, { data: { name: "e2e-ci-k8s", scopes: ["inventory:write"], environment: "production", source: "recipes-k8s" } });

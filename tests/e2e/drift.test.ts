@@ -5,7 +5,7 @@
 import type { Page } from "playwright-core";
 import { beforeAll, describe, expect, it } from "vitest";
 import type { Drift } from "@/lib/data/drift";
-import { baseUrl, screenshot, browserForFile } from "./browser";
+import { baseUrl, browserForFile, screenshot } from "./browser";
 import { signedInPage } from "./pages/signin";
 
 const browser = browserForFile();

@@ -2,7 +2,7 @@
 // the SMTP sink, and the admin's mail page shows it with the team's address as recipient.
 import type { Page } from "playwright-core";
 import { beforeAll, describe, expect, it } from "vitest";
-import { baseUrl, screenshot, browserForFile } from "./browser";
+import { baseUrl, browserForFile, ownOrigin, screenshot } from "./browser";
 import { signedInPage } from "./pages/signin";
 
 const browser = browserForFile();
@@ -16,7 +16,7 @@ beforeAll(async () => {
 describe("mail", () => {
   it("delivers an owner-assigned notice to the team address and shows it to the admin", async () => {
     // nightly-batch-box is one of the demo's unowned components; no other test touches it.
-    const res = await page.request.patch(`${baseUrl()}/api/v1/environments/production/components/nightly-batch-box`, { data: { team: "data-platform" } });
+    const res = await page.request.patch(`${baseUrl()}/api/v1/environments/production/components/nightly-batch-box`, { data: { team: "data-platform" }, headers: ownOrigin() });
     expect(res.status()).toBe(200);
     const deadline = Date.now() + 30_000;
     for (;;) {

@@ -4,7 +4,7 @@ import type { Page } from "playwright-core";
 import { beforeAll, describe, expect, it } from "vitest";
 import { generateGraph } from "../../scripts/bench/generate";
 import { inventoryYaml } from "../../scripts/bench/push";
-import { baseUrl, screenshot, browserForFile } from "./browser";
+import { baseUrl, browserForFile, ownOrigin, screenshot } from "./browser";
 import { signedInPage } from "./pages/signin";
 
 const browser = browserForFile();
@@ -16,7 +16,7 @@ beforeAll(async () => {
   page = await signedInPage(browser(), "admin", { width: 1366, height: 900 });
   // A seeded 2,000-component estate (the benchmark's generator), pushed as the admin creating the environment.
   const body = inventoryYaml(generateGraph({ n: 2000, seed: 7 }), "e2e-large-repo", ENV);
-  const res = await page.request.post(`${baseUrl()}/api/v1/environments/${ENV}/inventory`, { data: body, headers: { "content-type": "application/yaml" } });
+  const res = await page.request.post(`${baseUrl()}/api/v1/environments/${ENV}/inventory`, { data: body, headers: { "content-type": "application/yaml", ...ownOrigin() } });
   expect(res.status()).toBe(200);
   // Wait for the worker to analyse it.
   const deadline = Date.now() + 60_000;

@@ -17,6 +17,7 @@ export const ERROR_STATUS = {
   invalid_request: 422,
   rate_limited: 429,
   internal: 500,
+  unavailable: 503,
 } as const;
 export type ErrorCode = keyof typeof ERROR_STATUS;
 
@@ -29,12 +30,15 @@ export interface ErrorBody {
 export class AppError extends Error {
   readonly code: ErrorCode;
   readonly issues?: InventoryIssue[];
+  /** sent as Retry-After: the caller (CI, a load balancer) may simply try again after this long */
+  readonly retryAfterSeconds?: number;
 
-  constructor(code: ErrorCode, message: string, issues?: InventoryIssue[]) {
+  constructor(code: ErrorCode, message: string, issues?: InventoryIssue[], options: { retryAfterSeconds?: number } = {}) {
     super(message);
     this.name = "AppError";
     this.code = code;
     this.issues = issues;
+    this.retryAfterSeconds = options.retryAfterSeconds;
   }
 
   get status(): number {
@@ -76,10 +80,51 @@ export function parseOrThrow<T extends z.ZodType>(schema: T, value: unknown, wha
   return result.data;
 }
 
+/** Seconds a client should wait before trying again while the database is unreachable. */
+export const DATABASE_RETRY_AFTER_S = 5;
+
+// Sequelize's connection failures, by name so that this module needs no database package, and
+// PostgreSQL's own (SQLSTATE class 08 connection exception, 57P01–57P03 shutting down or not
+// accepting connections, 53300 too many connections; PostgreSQL manual, Appendix A).
+const CONNECTION_ERROR_NAMES = new Set([
+  "SequelizeConnectionError",
+  "SequelizeConnectionRefusedError",
+  "SequelizeConnectionTimedOutError",
+  "SequelizeConnectionAcquireTimeoutError",
+  "SequelizeHostNotFoundError",
+  "SequelizeHostNotReachableError",
+  "SequelizeInvalidConnectionError",
+  "SequelizeAccessDeniedError",
+]);
+const UNAVAILABLE_SQLSTATE = /^(08|57P0[123]$|53300$)/;
+const UNAVAILABLE_MESSAGE = /Connection terminated|connection error and is not queryable|ECONNREFUSED|ECONNRESET|EHOSTUNREACH|timeout exceeded when trying to connect/i;
+
+/** Did this fail because PostgreSQL could not be reached (rather than because of what was asked)? */
+export function isDatabaseUnavailable(error: unknown): boolean {
+  for (let e: unknown = error, depth = 0; e && typeof e === "object" && depth < 4; depth++) {
+    const { name, message, code } = e as { name?: unknown; message?: unknown; code?: unknown };
+    if (typeof name === "string" && CONNECTION_ERROR_NAMES.has(name)) return true;
+    if (typeof code === "string" && UNAVAILABLE_SQLSTATE.test(code)) return true;
+    if (typeof message === "string" && UNAVAILABLE_MESSAGE.test(message)) return true;
+    e = (e as { parent?: unknown; original?: unknown; cause?: unknown }).parent ?? (e as { original?: unknown }).original ?? (e as { cause?: unknown }).cause;
+  }
+  return false;
+}
+
+export const databaseUnavailable = () =>
+  new AppError("unavailable", "Pinchpoint cannot reach its database right now. Try again in a few seconds (a push can simply be sent again: identical content makes no new snapshot).", undefined, {
+    retryAfterSeconds: DATABASE_RETRY_AFTER_S,
+  });
+
 /** Render any thrown value as the API's error JSON; unknown errors are logged and never leak internals. */
 export function errorResponse(error: unknown): NextResponse<ErrorBody> {
+  if (!(error instanceof AppError) && isDatabaseUnavailable(error)) {
+    console.error("[api] database unreachable:", error instanceof Error ? error.message : error);
+    error = databaseUnavailable();
+  }
   if (error instanceof AppError) {
-    return NextResponse.json(error.toBody(), { status: error.status });
+    const headers = error.retryAfterSeconds !== undefined ? { "retry-after": String(error.retryAfterSeconds) } : undefined;
+    return NextResponse.json(error.toBody(), { status: error.status, headers });
   }
   console.error("[api] unexpected error:", error);
   return NextResponse.json({ error: "internal", message: "Something went wrong on our side; it has been logged" } as const, {

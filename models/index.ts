@@ -75,7 +75,9 @@ export function db(): Db {
       dialect: "postgres",
       dialectModule: pg,
       logging: process.env.PINCHPOINT_SQL_LOG === "1" ? console.log : false,
-      pool: { max: Number(process.env.PINCHPOINT_DB_POOL ?? 10), min: 0, idle: 10_000 },
+      // Fail in seconds, not a minute, when PostgreSQL is away: callers answer 503 and are told to retry.
+      pool: { max: Number(process.env.PINCHPOINT_DB_POOL ?? 10), min: 0, idle: 10_000, acquire: 10_000 },
+      dialectOptions: { connectionTimeoutMillis: 5_000 },
     });
     holder.__pinchpointDb = { sequelize, models: initModels(sequelize) };
   }

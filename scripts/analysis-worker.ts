@@ -1,7 +1,9 @@
 // The analysis worker: takes jobs from the queue in PostgreSQL and runs them, off the request path.
 // Run any number of these (npm start runs one); they share the queue without stepping on each other.
+import { hostname } from "node:os";
 import { closeDb } from "../models";
 import { claimNextJob, runJob, workerId } from "../lib/data/analysis-jobs";
+import { recordWorkerHeartbeat, WORKER_BEAT_MS } from "../lib/data/worker-heartbeats";
 import { startOutboxLoop } from "../lib/mail";
 import { runTraceUpkeep } from "../lib/data/traces";
 
@@ -14,6 +16,15 @@ let stopping = false;
 async function main() {
   const id = workerId();
   console.log(`[worker] ${id} waiting for analysis jobs`);
+  // Alive, whether idle or busy: the overview and /api/health say when no worker has been heard from.
+  const startedAt = new Date();
+  let jobId: string | null = null;
+  const beat = () =>
+    recordWorkerHeartbeat({ workerId: id, host: hostname(), pid: process.pid, startedAt, jobId }).catch((error: unknown) =>
+      console.error("[worker] could not report a heartbeat:", error instanceof Error ? error.message : error),
+    );
+  void beat();
+  const beating = setInterval(() => void beat(), WORKER_BEAT_MS);
   // The same process delivers queued e-mail (and the daily review reminders) between jobs.
   const stopMail = startOutboxLoop({ intervalMs: 5_000 });
   while (!stopping) {
@@ -30,13 +41,16 @@ async function main() {
       continue;
     }
     const started = Date.now();
+    jobId = job.id;
     const outcome = await runJob(job, id).catch((error: unknown) => {
       // Never let one job stop the worker: the job is re-queued when its heartbeat goes stale.
       console.error("[worker] job failed unexpectedly:", error);
       return "failed" as const;
     });
+    jobId = null;
     console.log(`[worker] snapshot ${job.snapshot_id}: ${outcome} in ${Date.now() - started} ms`);
   }
+  clearInterval(beating);
   await stopMail();
   await closeDb();
 }

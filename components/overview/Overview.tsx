@@ -11,6 +11,7 @@ import { ageOf, betweennessPct, percent, pinchScore } from "@/components/ui/form
 import type { EnvironmentCounts } from "@/lib/data/components";
 import type { EnvironmentSummary } from "@/lib/data/environments";
 import type { RankingItem, RankingsResponse } from "@/components/rankings/api-types";
+import type { HealthResponse } from "@/lib/api/schemas/health";
 
 /** GET /api/v1/environments/{env}: the summary plus component counts. */
 type EnvironmentResponse = EnvironmentSummary & { counts: EnvironmentCounts };
@@ -25,6 +26,20 @@ interface ImportsResponse {
   items: Array<{ createdAt: string; source: string; format: string; actor: string; changed: boolean; snapshot: number | null }>;
 }
 
+
+/** Analyses run in a separate worker process: say so when none has been heard from for a minute. */
+function WorkerNotice({ health }: { health: HealthResponse | undefined }) {
+  const worker = health?.worker;
+  if (!worker || worker.status === "ok") return null;
+  const queued = health.queue?.analysisQueued ?? 0;
+  return (
+    <p role="alert" data-testid="worker-missing" className="rounded-md border border-degraded/50 bg-degraded/10 px-3 py-2 text-sm">
+      {worker.status === "never" ? "No analysis worker has ever reported" : `No analysis worker has been seen for ${ageOf(worker.lastSeenAt ?? new Date().toISOString()).replace(/ ago$/, "")}`}
+      {`: new snapshots wait to be analysed${queued ? ` (${queued} waiting)` : ""}, and rankings stay as they are. `}
+      <span className="text-muted">npm start runs a worker and restarts it when it stops; elsewhere start one with npx tsx scripts/analysis-worker.ts.</span>
+    </p>
+  );
+}
 
 function TopList({ env, title, items, error, value }: { env: string; title: string; items: RankingItem[] | undefined; error: ApiError | undefined; value: (i: RankingItem) => string }) {
   return (
@@ -68,6 +83,7 @@ export function Overview({ env }: { env: string }) {
   const byBetweenness = useSWR<RankingsResponse, ApiError>(`/api/v1/environments/${env}/rankings?sort=betweenness&limit=5`, fetchJson, refresh);
   const boot = useSWR<BootOrderResponse, ApiError>(`/api/v1/environments/${env}/boot-order`, fetchJson, refresh);
   const imports = useSWR<ImportsResponse, ApiError>(`/api/v1/environments/${env}/imports?limit=1`, fetchJson, refresh);
+  const health = useSWR<HealthResponse, ApiError>("/api/health", fetchJson, refresh);
   const summary = environment.data;
   const counts = summary?.counts;
   const ranked = byPinch.data;
@@ -120,6 +136,7 @@ export function Overview({ env }: { env: string }) {
           </p>
         )}
       </div>
+      <WorkerNotice health={health.data} />
       {environment.error && !missing && (
         <p role="alert" className="rounded-md border border-down/50 bg-down/10 px-3 py-2 text-sm">
           Could not load this environment: {environment.error.message}

@@ -113,6 +113,13 @@ export const OPERATIONS: Record<string, Partial<Record<Method, Operation>>> = {
   "/openapi.json": { get: { summary: "This document", rule: "public" } },
 };
 
+/** Operations outside /api/v1 (the server is the app's root): the health check. */
+export const ROOT_OPERATIONS: Record<string, Partial<Record<Method, Operation>>> = {
+  "/api/health": {
+    get: { summary: "App, database, analysis worker heartbeat and queue depth; 503 with Retry-After while the database is unreachable", rule: "public" },
+  },
+};
+
 const errorSchema = z.object({
   error: z.string(),
   message: z.string(),
@@ -187,6 +194,30 @@ export function openApiDocument(serverUrl: string) {
         token: { type: "http", scheme: "bearer", description: "API token, starts ppt_" },
       },
     },
-    paths,
+    paths: {
+      ...paths,
+      ...Object.fromEntries(
+        Object.entries(ROOT_OPERATIONS).map(([p, methods]) => [
+          p,
+          {
+            servers: [{ url: serverUrl.replace(/\/$/, "") }],
+            ...Object.fromEntries(
+              Object.entries(methods).map(([method, op]) => [
+                method,
+                {
+                  summary: op?.summary,
+                  "x-pinchpoint-permission": op?.rule,
+                  security: [],
+                  responses: {
+                    "200": { description: "OK (status ok, or degraded while no analysis worker is running)", content: { "application/json": { schema: {} } } },
+                    "503": { description: "The database is unreachable; Retry-After says when to ask again", content: { "application/json": { schema: {} } } },
+                  },
+                },
+              ]),
+            ),
+          },
+        ]),
+      ),
+    },
   };
 }

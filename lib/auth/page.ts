@@ -2,12 +2,17 @@
 import { headers } from "next/headers";
 import { redirect } from "next/navigation";
 import { actorCan, resolveActor, type Actor } from "./actor";
+import { databaseUnavailable, isDatabaseUnavailable } from "@/lib/errors";
 import type { Permission } from "./roles";
 
 export type UserActor = Extract<Actor, { type: "user" }>;
 
 export async function requireUser(): Promise<UserActor> {
-  const actor = await resolveActor(await headers()).catch(() => null);
+  // An unreachable database is not a signed-out user: say so (error page) instead of asking to sign in.
+  const actor = await resolveActor(await headers()).catch((error: unknown) => {
+    if (isDatabaseUnavailable(error)) throw databaseUnavailable();
+    return null;
+  });
   if (!actor || actor.type !== "user") redirect("/signin");
   return actor;
 }

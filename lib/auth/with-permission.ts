@@ -2,7 +2,7 @@
 // on the server, render errors in the shape of DESIGN §4.
 import { headers as nextHeaders } from "next/headers";
 import type { NextRequest } from "next/server";
-import { actorCan, resolveActor, type Actor } from "./actor";
+import { actorCan, resolveActor, scopeAllows, type Actor } from "./actor";
 import type { Permission } from "./roles";
 import { AppError, errorResponse, forbidden, unauthorized } from "@/lib/errors";
 import { findEnvironment } from "@/lib/data/environments";
@@ -44,6 +44,13 @@ async function checkTokenBinding(actor: Actor, params: unknown, options: RouteOp
   if (!options.acrossEnvironments) throw forbidden("This token is bound to one environment and cannot read across environments");
 }
 
+function refusal(actor: Actor, permission: Permission): string {
+  if (actor.type === "token" && scopeAllows(actor, permission)) {
+    return `This needs the ${permission} permission, which this token's creator (${actor.creator.email}, now ${actor.creator.role}) no longer has: a token does at most what its creator may`;
+  }
+  return `This needs the ${permission} permission`;
+}
+
 export function withPermission<P = Record<string, never>>(
   permission: RouteRule,
   handler: (ctx: HandlerContext<P>) => Promise<Response>,
@@ -52,12 +59,13 @@ export function withPermission<P = Record<string, never>>(
   const wrapped = async (req: NextRequest, ctx: RouteContext<P>) => {
     try {
       const params = (await ctx?.params) ?? ({} as P);
-      const actor = await resolveActor(req.headers);
+      // A public read needs no caller, and must not need the database to find one (GET /api/health).
+      const actor = permission === "public" && !isWriteMethod(req.method) ? null : await resolveActor(req.headers);
       // A write riding on the session cookie must come from our own pages (lib/auth/same-origin.ts).
       if (actor?.type === "user" && isWriteMethod(req.method)) assertSameOrigin(req.headers);
       if (permission !== "public") {
         if (!actor) throw unauthorized();
-        if (!actorCan(actor, permission)) throw forbidden(`This needs the ${permission} permission`);
+        if (!actorCan(actor, permission)) throw forbidden(refusal(actor, permission));
         await checkTokenBinding(actor, params, options);
       }
       return await handler({ req, actor: actor as Actor, params });
@@ -79,7 +87,7 @@ export function actionWithPermission<I, T>(
     try {
       const actor = await resolveActor(await nextHeaders());
       if (!actor) throw unauthorized();
-      if (!actorCan(actor, permission)) throw forbidden(`This needs the ${permission} permission`);
+      if (!actorCan(actor, permission)) throw forbidden(refusal(actor, permission));
       return { ok: true, data: await action(input, actor) };
     } catch (error) {
       if (error instanceof AppError) {

@@ -7,7 +7,7 @@ import path from "node:path";
 import { beforeAll, describe, expect, it } from "vitest";
 import { ROLES, roleHas, type Permission, type Role } from "@/lib/auth/roles";
 import type { RouteRule } from "@/lib/auth/with-permission";
-import { OPERATIONS } from "@/lib/api/openapi";
+import { OPERATIONS, ROOT_OPERATIONS } from "@/lib/api/openapi";
 import { call, createApiToken, createUser, type TestUser } from "../support/api";
 
 const MATRIX: Record<string, Partial<Record<"GET" | "POST" | "PUT" | "PATCH" | "DELETE", RouteRule>>> = {
@@ -171,6 +171,25 @@ describe("cross-site writes", () => {
       status: 403,
       message: expect.stringContaining("Refused a change made with your session cookie"),
     });
+  });
+});
+
+describe("routes outside /api/v1", () => {
+  // next-auth's own endpoints aside, every route under app/api is in one of the two tables.
+  const ROOT_MATRIX: Record<string, Partial<Record<Method, RouteRule>>> = { health: { GET: "public" } };
+  const root = path.resolve(__dirname, "../../app/api");
+  const found = readdirSync(root).filter((d) => d !== "v1" && d !== "auth" && statSync(path.join(root, d)).isDirectory());
+
+  it("are listed, documented in openapi.json with the same rule, and wrapped by withPermission", async () => {
+    expect(found.sort()).toEqual(Object.keys(ROOT_MATRIX).sort());
+    const documented = Object.fromEntries(
+      Object.entries(ROOT_OPERATIONS).map(([p, methods]) => [p.replace(/^\/api\//, ""), Object.fromEntries(Object.entries(methods).map(([m, op]) => [m.toUpperCase(), op?.rule]))]),
+    );
+    expect(documented).toEqual(ROOT_MATRIX);
+    for (const [route, methods] of Object.entries(ROOT_MATRIX)) {
+      const mod = (await import(/* @vite-ignore */ path.join(root, route, "route.ts"))) as Partial<Record<Method, Wrapped>>;
+      for (const [m, rule] of Object.entries(methods)) expect({ route, m, permission: mod[m as Method]?.permission }).toEqual({ route, m, permission: rule });
+    }
   });
 });
 

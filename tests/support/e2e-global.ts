@@ -1,6 +1,7 @@
 // Once per end-to-end run: a fresh database with the demo seeded, the analysis worker, and the
 // built app served on its own port — the same processes `npm start` runs, on test data.
 import { spawn, type ChildProcess } from "node:child_process";
+import { createServer } from "node:net";
 import path from "node:path";
 import { closeDb, db } from "@/models";
 import { migrateToLatest } from "@/models/migrate";
@@ -13,6 +14,14 @@ import { startMailSink } from "@/lib/mail/sink";
 const DB = "pp_e2e";
 const PORT = Number(process.env.PINCHPOINT_E2E_PORT ?? 3100);
 const root = path.resolve(__dirname, "../..");
+
+export function portFree(port: number): Promise<boolean> {
+  return new Promise((resolve) => {
+    const probe = createServer();
+    probe.once("error", () => resolve(false));
+    probe.listen(port, "127.0.0.1", () => probe.close(() => resolve(true)));
+  });
+}
 
 async function waitFor(url: string, timeoutMs: number): Promise<void> {
   const deadline = Date.now() + timeoutMs;
@@ -62,7 +71,9 @@ export default async function setup() {
   const log = (name: string) => (chunk: Buffer) => {
     if (process.env.PINCHPOINT_E2E_VERBOSE) process.stderr.write(`[${name}] ${chunk}`);
   };
-  const server = spawn(process.execPath, ["node_modules/next/dist/bin/next", "start", "-H", "127.0.0.1", "-p", String(PORT)], { cwd: root, env });
+  if (!(await portFree(PORT))) throw new Error(`port ${PORT} on 127.0.0.1 is taken by another process; choose another with PINCHPOINT_E2E_PORT`);
+  // The same server npm start runs (the caller's address from the socket, scripts/serve.ts).
+  const server = spawn(process.execPath, ["node_modules/tsx/dist/cli.mjs", "scripts/serve.ts", "-H", "127.0.0.1", "-p", String(PORT)], { cwd: root, env });
   server.stdout?.on("data", log("next"));
   server.stderr?.on("data", (chunk: Buffer) => process.stderr.write(`[next] ${chunk}`));
   children.push(server);

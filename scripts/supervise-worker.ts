@@ -1,0 +1,18 @@
+// npm start's analysis worker, kept running: restarted with a growing wait when it stops
+// (scripts/lib/supervise.ts). The worker itself reports a heartbeat, so the overview and
+// /api/health say when none has been seen for a minute even if this supervisor is gone too.
+import path from "node:path";
+import { supervise } from "./lib/supervise";
+
+const root = path.resolve(__dirname, "..");
+const supervisor = supervise({
+  name: "analysis worker",
+  command: process.execPath,
+  args: [path.join(root, "node_modules/tsx/dist/cli.mjs"), path.join(root, "scripts/analysis-worker.ts")],
+});
+
+for (const signal of ["SIGINT", "SIGTERM"] as const) {
+  process.on(signal, () => {
+    void supervisor.stop().then(() => process.exit(0));
+  });
+}

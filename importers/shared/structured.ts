@@ -19,6 +19,7 @@ import { fastLocator } from "./fast-locate";
 import { scanJson } from "./json-syntax";
 import { findExcessiveNesting } from "./nesting";
 import { formatPath, lineIndex, type PathSegment } from "./text";
+import { findForbiddenText } from "@/lib/forbidden-text";
 
 export interface Position {
   line?: number;
@@ -70,7 +71,18 @@ export function loadStructured(text: string, opts: LoadOptions): Loaded {
     const message = `nested more than ${MAX_NESTING_DEPTH} levels deep; an inventory needs far fewer`;
     return { ok: false, status: 422, issues: [{ path: "", ...at, message }] };
   }
-  return opts.json ? loadJson(text, opts.limit) : loadYaml(text, opts.limit, opts.markTags ?? []);
+  const loaded = opts.json ? loadJson(text, opts.limit) : loadYaml(text, opts.limit, opts.markTags ?? []);
+  return loaded.ok ? refuseForbiddenText(loaded.source) : loaded;
+}
+
+/**
+ * Escapes (`"\0"`, `"\u0000"`, `"\ud800"`) can put into a value what decodeBody refuses raw;
+ * the same rule applies to both, located at the value (lib/forbidden-text.ts).
+ */
+function refuseForbiddenText(source: StructuredSource): Loaded {
+  const problems = findForbiddenText(source.value);
+  if (problems.length === 0) return { ok: true, source };
+  return { ok: false, status: 422, issues: problems.map((p) => ({ path: formatPath(p.path), ...source.locate(p.path), message: p.message })) };
 }
 
 // JSON.parse does the work; the YAML parser (JSON is YAML 1.2) is only run when an issue

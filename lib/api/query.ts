@@ -1,11 +1,13 @@
 // Request parsing for route handlers: zod over query strings, params and JSON bodies.
 import type { z } from "zod";
-import { AppError, parseOrThrow } from "@/lib/errors";
+import { AppError, formatPath, parseOrThrow } from "@/lib/errors";
+import { findForbiddenText } from "@/lib/forbidden-text";
 import { readBodyWithLimit } from "./body";
 
 export function parseQuery<T extends z.ZodType>(url: string | URL, schema: T): z.infer<T> {
   const value: Record<string, string> = {};
   for (const [k, v] of new URL(url).searchParams) value[k] = v;
+  refuseForbiddenText(value, "query");
   return parseOrThrow(schema, value, "query");
 }
 
@@ -34,9 +36,23 @@ export async function readJson(req: Request): Promise<unknown> {
     throw new AppError("unsupported_media_type", `This route takes a JSON body sent as Content-Type: application/json (got ${req.headers.get("content-type") ?? "none"})`);
   }
   const bytes = await readBodyWithLimit(req, MAX_JSON_BODY_BYTES);
+  let value: unknown;
   try {
-    return JSON.parse(bytes.toString("utf8"));
+    value = JSON.parse(bytes.toString("utf8"));
   } catch {
     throw new AppError("bad_request", "The request body is not valid JSON");
   }
+  refuseForbiddenText(value, "body");
+  return value;
+}
+
+/** NUL, other control characters and lone surrogates in any field: a 422 naming each (lib/forbidden-text.ts). */
+function refuseForbiddenText(value: unknown, prefix: "body" | "query"): void {
+  const problems = findForbiddenText(value);
+  if (problems.length === 0) return;
+  throw new AppError(
+    "invalid_request",
+    `Invalid ${prefix}: ${problems.length === 1 ? "a field holds" : "fields hold"} characters no text may contain`,
+    problems.map((p) => ({ path: formatPath(prefix, p.path), message: p.message })),
+  );
 }

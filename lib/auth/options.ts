@@ -7,6 +7,7 @@ import { z } from "zod";
 import { isRole } from "./roles";
 import { SIGN_IN_ERRORS } from "./messages";
 import { safeRedirect } from "./callback";
+import { forbiddenCharacter } from "@/lib/forbidden-text";
 import { isSignInBlocked, reserveAttempt, signInSucceeded } from "@/lib/data/sign-in-attempts";
 import { endSessions, normaliseEmail, verifyPassword } from "@/lib/data/users";
 import { userForOidcIdentity } from "@/lib/data/sso-users";
@@ -38,9 +39,11 @@ export function oidcProvider(): OAuthConfig<OidcProfile> | null {
   };
 }
 
+// Text no account can hold (lib/forbidden-text.ts) is a wrong sign-in, not a database error.
+const plainText = (s: string) => forbiddenCharacter(s) === null;
 const credentialsSchema = z.object({
-  email: z.string().trim().min(3).max(320),
-  password: z.string().min(1).max(200),
+  email: z.string().trim().min(3).max(320).refine(plainText),
+  password: z.string().min(1).max(200).refine(plainText),
 });
 
 export { SIGN_IN_ERRORS };

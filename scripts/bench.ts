@@ -1,6 +1,6 @@
 // Benchmark of the analysis engine (npm run bench). Speed is measured here, never in tests.
 //   npx tsx scripts/bench.ts                     all sections
-//   npx tsx scripts/bench.ts --only measures     one section (push | impact | kubernetes | compose | traces | measures | igraph)
+//   npx tsx scripts/bench.ts --only measures     one section (push | impact | kubernetes | compose | traces | responsiveness | measures | igraph)
 //   npx tsx scripts/bench.ts --compare-igraph    also time python3-igraph on the 20k graph
 //   npx tsx scripts/bench.ts --edge-list FILE    one JSON line for a `from to` edge list
 //   --runs N                                     calls per side in the igraph comparison (default 3)
@@ -62,6 +62,7 @@ async function benchPush(n: number): Promise<void> {
     const { pushInventory } = await import("../lib/data/push");
     const { drainAnalysisQueue } = await import("../lib/data/analysis-jobs");
     const { importInventory } = await import("../importers");
+    const { closeParsePool } = await import("../importers/off-thread");
     await migrateToLatest(db().sequelize);
     const actor = { type: "system" as const, label: "bench", canCreateEnvironments: true as const };
     const t0 = performance.now();
@@ -83,6 +84,48 @@ async function benchPush(n: number): Promise<void> {
         `analysis to ranked results ${analyseMs} ms; push → ranked ${Math.round(pushMs + analyseMs)} ms; ` +
         `identical re-push ${againMs} ms (changed: ${again.changed})`,
     );
+    await Promise.all([closeDb(), closeParsePool()]);
+  });
+}
+
+async function benchResponsiveness(): Promise<void> {
+  const { inventoryYaml, withBenchDatabase } = await import("./bench/push");
+  const { badYamlFiles, measureWhilePushing } = await import("./bench/responsiveness");
+  await withBenchDatabase(async (url) => {
+    process.env.DATABASE_URL = url;
+    process.env.NEXTAUTH_SECRET ??= "bench-secret";
+    const { db, closeDb } = await import("../models");
+    const { migrateToLatest } = await import("../models/migrate");
+    const { pushInventory } = await import("../lib/data/push");
+    const { createToken } = await import("../lib/data/tokens");
+    const { closeParsePool } = await import("../importers/off-thread");
+    const { POST: push } = await import("../app/api/v1/environments/[env]/inventory/route");
+    // GET /api/health: three small queries, no sign-in; what a load balancer asks every few seconds.
+    const { GET: get } = await import("../app/api/health/route");
+    await migrateToLatest(db().sequelize);
+    // A fresh pool: the first one read PostgreSQL's type list before the migrations made the enums.
+    await closeDb();
+    const admin = await db().models.User.create({ email: "bench@bench.example", name: "bench", role: "admin", passwordHash: null, oidcSubject: null });
+    const { token } = await createToken({ name: "bench", scopes: ["inventory:write", "read"], environmentId: null, source: null, createdBy: admin.id });
+    const actor = { type: "system" as const, label: "bench", canCreateEnvironments: true as const };
+    await pushInventory({ environment: "bench", format: "pinchpoint", body: inventoryYaml(generateGraph({ n: 2000, seed: 42 }), "bench-repo"), contentType: "application/yaml", dryRun: false, actor });
+    const line = (label: string, r: Awaited<ReturnType<typeof measureWhilePushing>>) =>
+      console.log(
+        `${label.padEnd(58)} push ${r.push.status} after ${Math.round(r.push.ms)} ms; GET every 50 ms: ${r.gets} answered, ` +
+          `p50 ${Math.round(r.p50)} ms, p95 ${Math.round(r.p95)} ms, max ${Math.round(r.max)} ms`,
+      );
+    const files = badYamlFiles();
+    for (const f of files) {
+      line(`${f.name} (${(f.body.length / 1048576).toFixed(1)} MiB), worker threads`, await measureWhilePushing({ push, get, token, body: f.body }));
+    }
+    if (!flag("--skip-baseline")) {
+      // The same push parsed on the request thread, as before: what the worker threads are for.
+      process.env.PINCHPOINT_PARSE_THREADS = "0";
+      const f = files[0]!;
+      line(`${f.name}, on the request thread (before)`, await measureWhilePushing({ push, get, token, body: f.body }));
+      delete process.env.PINCHPOINT_PARSE_THREADS;
+    }
+    await closeParsePool();
     await closeDb();
   });
 }
@@ -98,6 +141,7 @@ async function benchKubernetes(workloads: number, services: number): Promise<voi
     const { migrateToLatest } = await import("../models/migrate");
     const { pushInventory } = await import("../lib/data/push");
     const { importInventory } = await import("../importers");
+    const { closeParsePool } = await import("../importers/off-thread");
     await migrateToLatest(db().sequelize);
     const actor = { type: "system" as const, label: "bench", canCreateEnvironments: true as const };
     const push = (dryRun: boolean) => pushInventory({ environment: "bench-k8s", format: "kubernetes", source: "cluster-dump", body, contentType: "application/yaml", dryRun, actor });
@@ -120,7 +164,7 @@ async function benchKubernetes(workloads: number, services: number): Promise<voi
         `parse+infer ${parseMs} ms; push to stored snapshot #${first.snapshot?.number} ${pushMs} ms (${pushMs < 5000 ? "under" : "OVER"} 5 s); ` +
         `dry run with ${preview.inferred?.total ?? 0} inferred reasons ${dryMs} ms; identical re-push ${againMs} ms (changed: ${again.changed}, snapshot: ${again.snapshot?.number ?? "none"})`,
     );
-    await closeDb();
+    await Promise.all([closeDb(), closeParsePool()]);
   });
 }
 
@@ -134,6 +178,7 @@ async function benchCompose(n: number): Promise<void> {
     const { migrateToLatest } = await import("../models/migrate");
     const { pushInventory } = await import("../lib/data/push");
     const { importInventory } = await import("../importers");
+    const { closeParsePool } = await import("../importers/off-thread");
     await migrateToLatest(db().sequelize);
     const actor = { type: "system" as const, label: "bench", canCreateEnvironments: true as const };
     // A server that has taken a push before: one dry run into another environment warms the code paths.
@@ -156,7 +201,7 @@ async function benchCompose(n: number): Promise<void> {
         `parse+merge+infer ${parseMs} ms; parse and push to stored snapshot #${first.snapshot?.number} ${pushMs} ms (target < 3000 ms); ` +
         `identical re-push ${againMs} ms (changed: ${again.changed})`,
     );
-    await closeDb();
+    await Promise.all([closeDb(), closeParsePool()]);
   });
 }
 
@@ -264,6 +309,14 @@ const sections: Section[] = [
       const { withBenchDatabase } = await import("./bench/push");
       const { benchTraces } = await import("./bench/traces");
       await withBenchDatabase(benchTraces);
+    },
+  },
+  {
+    name: "responsiveness",
+    byDefault: true,
+    run: async () => {
+      console.log(`# a GET's latency in the same process while a bad 20 MB push is parsed (budget ${process.env.PINCHPOINT_PARSE_BUDGET_MS ?? 30000} ms; --skip-baseline leaves out the request-thread run)`);
+      await benchResponsiveness();
     },
   },
   {

@@ -5,6 +5,7 @@ import { migrateToLatest } from "../models/migrate";
 import { db } from "../models";
 import { drainAnalysisQueue } from "../lib/data/analysis-jobs";
 import { seedDemo } from "../lib/data/seed";
+import { closeParsePool } from "../importers/off-thread";
 
 async function main() {
   if (process.env.PINCHPOINT_DEMO !== "1") {
@@ -18,7 +19,7 @@ async function main() {
 }
 
 main()
-  .then(() => closeDb())
+  .then(() => Promise.all([closeDb(), closeParsePool()]))
   .catch(async (error: unknown) => {
     console.error("[seed] failed:", error);
     await closeDb();

@@ -155,7 +155,11 @@ function loadYamlFast(text: string, limit: CountLimit | undefined): Loaded | nul
   if (limit !== undefined && isRecord(value)) {
     const coll = value[limit.key];
     const size = Array.isArray(coll) ? coll.length : isRecord(coll) ? Object.keys(coll).length : 0;
-    if (size > limit.max) return null;
+    // Refused here: handing an over-limit file on to the slow, located parser cost tens of seconds.
+    if (size > limit.max) {
+      const at = new RegExp(`^${limit.key}\\s*:`, "m").exec(text);
+      return { ok: false, status: 413, issues: [tooMany(limit, size, at ? lineIndex(text)(at.index) : {})] };
+    }
   }
   // Block-style positions from the indentation index; anything it cannot answer goes to the full parser.
   const fast = fastLocator(text);

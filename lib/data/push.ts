@@ -11,7 +11,7 @@ import { insertSnapshot, latestSnapshot } from "./snapshot-insert";
 import { pushTraceFile } from "./traces";
 import { checkMayReplaceSource } from "./source-ownership";
 import { AppError, notFound } from "@/lib/errors";
-import { importInventory } from "@/importers";
+import { importInventoryOffThread } from "@/importers/off-thread";
 import { mergeSources } from "@/lib/inventory/merge";
 import { diffSnapshots, snapshotHash, type SnapshotContent, type SnapshotDiff } from "@/lib/inventory/snapshot";
 import { inferredNeedsOf, type InferredNeed } from "@/lib/inventory/inferred";
@@ -92,7 +92,7 @@ function checkBinding(actor: PushActor, environmentId: string | null, source: st
   }
 }
 
-function parse(input: PushInput): NormalisedInventory {
+async function parse(input: PushInput): Promise<NormalisedInventory> {
   // A Compose file may name its source (x-pinchpoint.source); the importer says so when neither does.
   if (input.format !== "pinchpoint" && input.format !== "compose" && !input.source) {
     throw new AppError("invalid_request", `The ${input.format} format needs ?source=<name>: the file does not say who declared it`);
@@ -100,7 +100,8 @@ function parse(input: PushInput): NormalisedInventory {
   if (input.files && input.files.length > 1 && input.format !== "compose") {
     throw new AppError("invalid_request", `Only the compose format reads several files in one push; send one ${input.format} file`);
   }
-  const result = importInventory({
+  // On a worker thread with a time budget: a slow file must not hold up other requests.
+  const result = await importInventoryOffThread({
     format: input.format,
     body: input.files?.length === 1 && input.format !== "compose" ? (input.files[0]?.body ?? input.body) : input.body,
     ...(input.format === "compose" && input.files ? { files: input.files } : {}),
@@ -155,7 +156,7 @@ export async function pushInventory(input: PushInput): Promise<PushResult> {
       yield body;
     })() });
   }
-  const inventory = parse(input);
+  const inventory = await parse(input);
   const { sequelize } = db();
   try {
     return await sequelize.transaction(async (transaction) => {

@@ -1,14 +1,34 @@
 #!/usr/bin/env bash
-# npm run bench: the benchmark sections of scripts/bench.ts, with a local PostgreSQL for the push
-# section (the test cluster, never the demo's data). Arguments go to scripts/bench.ts.
+# npm run bench: the benchmark sections of scripts/bench.ts. Sections that need PostgreSQL (push,
+# responsiveness) get a cluster of their own (.data/pg-bench, never the demo's or the tests'), on
+# the first free port from 54349 up, stopped again when the run ends; `--edge-list FILE` and the
+# in-memory sections need none. Arguments go to scripts/bench.ts.
 set -euo pipefail
 source "$(dirname "${BASH_SOURCE[0]}")/lib.sh"
 cd "$root"
 ensure_node_modules
 ensure_apt "/usr/bin/python3 -c 'import igraph'" python3-igraph
-export PINCHPOINT_PG_PORT=${PINCHPOINT_TEST_PG_PORT:-54339} PINCHPOINT_PG_NAME=pg-test
-export PINCHPOINT_PG_OPTIONS="-c fsync=off -c synchronous_commit=off -c full_page_writes=off"
-eval "$(bash scripts/pg.sh start)"
-export PINCHPOINT_BENCH_ADMIN_URL=$DATABASE_URL
-unset DATABASE_URL
-exec npx tsx scripts/bench.ts "$@"
+
+needs_db=1
+args=" $* "
+only=""
+prev=""
+for a in "$@"; do
+  [ "$prev" = "--only" ] && only=$a
+  prev=$a
+done
+case "$args" in *" --edge-list "*) needs_db=0 ;; esac
+if [ -n "$only" ] && [ "$only" != push ] && [ "$only" != responsiveness ]; then needs_db=0; fi
+
+if [ "$needs_db" = 1 ]; then
+  export PINCHPOINT_PG_NAME=pg-bench
+  export PINCHPOINT_PG_OPTIONS="-c fsync=off -c synchronous_commit=off -c full_page_writes=off"
+  bash scripts/pg.sh stop 2>/dev/null || true   # a cluster an interrupted run of this checkout left behind
+  export PINCHPOINT_PG_PORT=${PINCHPOINT_BENCH_PG_PORT:-$(pick_port 54349)}
+  trap 'bash scripts/pg.sh stop || true' EXIT
+  trap 'exit 130' INT TERM
+  eval "$(bash scripts/pg.sh start)"
+  export PINCHPOINT_BENCH_ADMIN_URL=$DATABASE_URL
+  unset DATABASE_URL
+fi
+npx tsx scripts/bench.ts "$@"

@@ -3,51 +3,18 @@
 // the page policy with the map's worker and the mail frame working under it, the sign-in limit
 // per connection address, a malformed callbackUrl, a copied cookie after sign-out, and the
 // overview's notice when no analysis worker is running.
-import { createServer, request, type Server } from "node:http";
+import { createServer, type Server } from "node:http";
 import type { AddressInfo } from "node:net";
 import type { Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { baseUrl, browserForFile, screenshot } from "./browser";
+import { http as httpTo, signInOverHttp as signInTo } from "./http";
 import { DEMO_PASSWORD, signedInPage } from "./pages/signin";
 
 const browser = browserForFile();
 
-/** Raw HTTP from a chosen local address: 127.0.0.0/8 is all loopback on Linux, so each address is its own "client". */
-function http(
-  path: string,
-  { method = "GET", headers = {}, body, from }: { method?: string; headers?: Record<string, string>; body?: string; from: string },
-): Promise<{ status: number; headers: Record<string, string | string[] | undefined>; body: string }> {
-  const url = new URL(path, baseUrl());
-  return new Promise((resolve, reject) => {
-    const req = request({ host: url.hostname, port: url.port, path: url.pathname + url.search, method, headers, localAddress: from }, (res) => {
-      let text = "";
-      res.setEncoding("utf8");
-      res.on("data", (c: string) => (text += c));
-      res.on("end", () => resolve({ status: res.statusCode ?? 0, headers: res.headers, body: text }));
-    });
-    req.on("error", reject);
-    if (body) req.write(body);
-    req.end();
-  });
-}
-
-/** next-auth's credentials sign-in as a script does it: /api/auth/csrf, then the callback with the form fields. */
-async function signInOverHttp({ email, password, from, headers = {}, callbackUrl }: { email: string; password: string; from: string; headers?: Record<string, string>; callbackUrl?: string }) {
-  const csrf = await http("/api/auth/csrf", { from });
-  const cookie = ([] as string[]).concat(csrf.headers["set-cookie"] ?? []).map((c) => c.split(";")[0]).join("; ");
-  const { csrfToken } = JSON.parse(csrf.body) as { csrfToken: string };
-  const form = new URLSearchParams({ csrfToken, email, password, json: "true", ...(callbackUrl ? { callbackUrl } : {}) });
-  const res = await http("/api/auth/callback/credentials", {
-    method: "POST",
-    from,
-    body: form.toString(),
-    headers: { "content-type": "application/x-www-form-urlencoded", cookie, ...headers },
-  });
-  const url = res.status < 500 && res.body.startsWith("{") ? ((JSON.parse(res.body) as { url?: string }).url ?? "") : "";
-  const error = url ? new URL(url).searchParams.get("error") : null;
-  const session = ([] as string[]).concat(res.headers["set-cookie"] ?? []).find((c) => c.startsWith("next-auth.session-token="))?.split(";")[0] ?? null;
-  return { status: res.status, url, error, session };
-}
+const http = (path: string, opts: Parameters<typeof httpTo>[2] & { from: string }) => httpTo(baseUrl(), path, opts);
+const signInOverHttp = (opts: Parameters<typeof signInTo>[1]) => signInTo(baseUrl(), opts);
 
 describe("a foreign page's write with the admin's cookie", () => {
   let foreign: Server;

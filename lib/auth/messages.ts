@@ -4,6 +4,7 @@ export const SIGN_IN_ERRORS = {
   wrong: "That e-mail and password do not match an active account.",
   limited: "Too many failed attempts. Wait 15 minutes, or ask an admin to check the account.",
   ssoNoAccount: "Single sign-on worked, but this identity has no active Pinchpoint account. Ask an admin.",
+  unavailable: "Pinchpoint cannot reach its database right now. Try again in a few seconds.",
 } as const;
 
 const KNOWN = new Set<string>(Object.values(SIGN_IN_ERRORS));

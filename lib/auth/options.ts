@@ -8,6 +8,7 @@ import { isRole } from "./roles";
 import { SIGN_IN_ERRORS } from "./messages";
 import { safeRedirect } from "./callback";
 import { forbiddenCharacter } from "@/lib/forbidden-text";
+import { isDatabaseUnavailable } from "@/lib/errors";
 import { isSignInBlocked, reserveAttempt, signInSucceeded } from "@/lib/data/sign-in-attempts";
 import { endSessions, normaliseEmail, verifyPassword } from "@/lib/data/users";
 import { userForOidcIdentity } from "@/lib/data/sso-users";
@@ -59,6 +60,20 @@ function signInAddress(headers: Record<string, unknown> | undefined): string {
   return list[list.length - 1] ?? "unknown";
 }
 
+async function checkCredentials(raw: unknown, headers: Record<string, unknown> | undefined) {
+  const parsed = credentialsSchema.safeParse(raw);
+  if (!parsed.success) throw new Error(SIGN_IN_ERRORS.wrong);
+  const email = normaliseEmail(parsed.data.email);
+  const who = { email, address: signInAddress(headers) };
+  if (await isSignInBlocked(who)) throw new Error(SIGN_IN_ERRORS.limited);
+  const { status, reservation } = await reserveAttempt(who);
+  if (status === "limited") throw new Error(SIGN_IN_ERRORS.limited);
+  const user = await verifyPassword({ email, password: parsed.data.password });
+  if (!user) throw new Error(SIGN_IN_ERRORS.wrong);
+  await signInSucceeded({ email, reservation });
+  return { id: user.id, email: user.email, name: user.name, role: user.role, sessionVersion: user.sessionVersion };
+}
+
 export function authSecret(): string {
   const secret = process.env.NEXTAUTH_SECRET ?? process.env.AUTH_SECRET;
   if (!secret) throw new Error("NEXTAUTH_SECRET is not set (npm start generates one into .data/secret)");
@@ -79,17 +94,13 @@ export const authOptions: NextAuthOptions = {
         password: { label: "Password", type: "password" },
       },
       async authorize(raw, req) {
-        const parsed = credentialsSchema.safeParse(raw);
-        if (!parsed.success) throw new Error(SIGN_IN_ERRORS.wrong);
-        const email = normaliseEmail(parsed.data.email);
-        const who = { email, address: signInAddress(req?.headers) };
-        if (await isSignInBlocked(who)) throw new Error(SIGN_IN_ERRORS.limited);
-        const { status, reservation } = await reserveAttempt(who);
-        if (status === "limited") throw new Error(SIGN_IN_ERRORS.limited);
-        const user = await verifyPassword({ email, password: parsed.data.password });
-        if (!user) throw new Error(SIGN_IN_ERRORS.wrong);
-        await signInSucceeded({ email, reservation });
-        return { id: user.id, email: user.email, name: user.name, role: user.role, sessionVersion: user.sessionVersion };
+        try {
+          return await checkCredentials(raw, req?.headers);
+        } catch (error) {
+          // next-auth shows a thrown message on the sign-in page: say what is wrong, never the driver's words.
+          if (isDatabaseUnavailable(error)) throw new Error(SIGN_IN_ERRORS.unavailable);
+          throw error;
+        }
       },
     }),
   ],

@@ -13,6 +13,8 @@ import { recordWorkerHeartbeat } from "@/lib/data/worker-heartbeats";
 import { isDatabaseUnavailable } from "@/lib/errors";
 import { forgetDatabaseProbe } from "@/lib/outage";
 import { proxy } from "@/proxy";
+import { authOptions } from "@/lib/auth/options";
+import { SIGN_IN_ERRORS } from "@/lib/auth/messages";
 import { call, createApiToken, createUser, type TestUser } from "../support/api";
 
 let viewer: TestUser;
@@ -110,6 +112,14 @@ describe("while the database is unreachable", () => {
     expect(await res.text()).toContain("cannot reach its database");
     const signin = await withDatabaseGone(() => proxy(new NextRequest("http://127.0.0.1:3000/signin")));
     expect(signin.status).toBe(503);
+  });
+
+  it("a sign-in says the database is unreachable, not the driver's error", async () => {
+    const credentials = authOptions.providers.find((p) => p.id === "credentials") as unknown as {
+      options: { authorize: (raw: Record<string, string>, req: { headers: Record<string, string> }) => Promise<unknown> };
+    };
+    const attempt = withDatabaseGone(() => credentials.options.authorize({ email: viewer.email, password: "correct horse battery" }, { headers: { "x-forwarded-for": "127.0.0.9" } }));
+    await expect(attempt).rejects.toThrow(SIGN_IN_ERRORS.unavailable);
   });
 
   it("everything works again once it is back", async () => {

@@ -22,7 +22,7 @@ beforeAll(async () => {
   const res = await page.request.post(`${baseUrl()}/api/v1/tokens`, { data: { name: "e2e-ci-example", scopes: ["inventory:write"], environment: "production", source: "checkout-repo" }, headers: ownOrigin() });
   expect(res.status()).toBe(201);
   token = ((await res.json()) as { token: string }).token;
-  const k8s = await page.request.post(`${baseUrl()}/api/v1/tokens`, { data: { name: "e2e-ci-k8s", scopes: ["inventory:write"], environment: "production", source: "recipes-k8s" } });
+  const k8s = await page.request.post(`${baseUrl()}/api/v1/tokens`, { data: { name: "e2e-ci-k8s", scopes: ["inventory:write"], environment: "production", source: "recipes-k8s" }, headers: ownOrigin() });
   k8sToken = ((await k8s.json()) as { token: string }).token;
 });
 

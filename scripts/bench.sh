@@ -1,5 +1,5 @@
 #!/usr/bin/env bash
-# npm run bench: the benchmark sections of scripts/bench.ts. Sections that need PostgreSQL (push, kubernetes,
+# npm run bench: the benchmark sections of scripts/bench.ts. Sections that need PostgreSQL (push, kubernetes, compose,
 # responsiveness) get a cluster of their own (.data/pg-bench, never the demo's or the tests'), on
 # the first free port from 54349 up, stopped again when the run ends; `--edge-list FILE` and the
 # in-memory sections need none. Arguments go to scripts/bench.ts.
@@ -18,7 +18,7 @@ for a in "$@"; do
   prev=$a
 done
 case "$args" in *" --edge-list "*) needs_db=0 ;; esac
-if [ -n "$only" ] && [ "$only" != push ] && [ "$only" != kubernetes ] && [ "$only" != responsiveness ]; then needs_db=0; fi
+if [ -n "$only" ] && [ "$only" != push ] && [ "$only" != kubernetes ] && [ "$only" != compose ] && [ "$only" != responsiveness ]; then needs_db=0; fi
 
 if [ "$needs_db" = 1 ]; then
   export PINCHPOINT_PG_NAME=pg-bench

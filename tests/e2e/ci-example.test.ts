@@ -41,7 +41,7 @@ describe("examples/ci/push-inventory.sh", () => {
   });
 
   it("dry-runs the example Compose project, its files in one request, and prints what was inferred", async () => {
-    const res = await page.request.post(`${baseUrl()}/api/v1/tokens`, { data: { name: "e2e-ci-compose", scopes: ["inventory:write"], environment: "production" } });
+    const res = await page.request.post(`${baseUrl()}/api/v1/tokens`, { data: { name: "e2e-ci-compose", scopes: ["inventory:write"], environment: "production" }, headers: ownOrigin() });
     const composeToken = ((await res.json()) as { token: string }).token;
     const dir = path.join(root, "examples/compose/harbor-dispatch");
     const out = spawnSync(

@@ -27,7 +27,7 @@ if [ "$needs_db" = 1 ]; then
   export PINCHPOINT_PG_PORT=${PINCHPOINT_BENCH_PG_PORT:-$(pick_port 54349)}
   trap 'bash scripts/pg.sh stop || true' EXIT
   trap 'exit 130' INT TERM
-  eval "$(bash scripts/pg.sh start)"
+  start_local_pg "$([ -n "${PINCHPOINT_BENCH_PG_PORT:-}" ] && echo given || echo pick)"
   export PINCHPOINT_BENCH_ADMIN_URL=$DATABASE_URL
   unset DATABASE_URL
 fi

@@ -61,3 +61,27 @@ pick_port() {
   while ! port_free "$p"; do p=$((p + 1)); done
   echo "$p"
 }
+
+# Start the project-local cluster (scripts/pg.sh) and export DATABASE_URL. When the caller chose no
+# port ($1 is "pick"), another checkout can take the picked one between the pick and the start: then
+# the next free port is tried, twice at most. Any other failure, or a port the caller chose, stops
+# here with pg.sh's own message instead of running on without a database.
+start_local_pg() {
+  local choice=$1 out tries=0
+  while :; do
+    if out=$(bash "$root/scripts/pg.sh" start); then
+      eval "$out"
+      export DATABASE_URL
+      return 0
+    fi
+    tries=$((tries + 1))
+    if [ "$choice" = pick ] && [ $tries -lt 3 ] && ! port_free "$PINCHPOINT_PG_PORT"; then
+      log "port $PINCHPOINT_PG_PORT was taken by another process as the cluster started; trying the next free one"
+      PINCHPOINT_PG_PORT=$(pick_port $((PINCHPOINT_PG_PORT + 1)))
+      export PINCHPOINT_PG_PORT
+      continue
+    fi
+    log "could not start PostgreSQL on 127.0.0.1:$PINCHPOINT_PG_PORT (see the lines above)"
+    return 1
+  done
+}

@@ -29,7 +29,7 @@ export PINCHPOINT_E2E_SMTP_PORT=${PINCHPOINT_E2E_SMTP_PORT:-$(pick_port 2535)}
 # What the suite starts, it stops, whether it passes, fails or is interrupted.
 trap 'bash scripts/pg.sh stop || true' EXIT
 trap 'exit 130' INT TERM
-eval "$(bash scripts/pg.sh start)"
+start_local_pg "$([ -n "${PINCHPOINT_TEST_PG_PORT:-}" ] && echo given || echo pick)"
 export PINCHPOINT_TEST_ADMIN_URL=$DATABASE_URL
 export NEXTAUTH_SECRET=test-secret-not-for-production
 export PINCHPOINT_DEMO=1

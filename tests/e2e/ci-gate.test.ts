@@ -12,7 +12,7 @@ import type { Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { DEFAULT_POLICIES } from "@/lib/impact/policies";
 import type { SarifLog } from "@/lib/impact/sarif";
-import { baseUrl, browserForFile } from "./browser";
+import { baseUrl, browserForFile, ownOrigin } from "./browser";
 import { signedInPage } from "./pages/signin";
 
 const browser = browserForFile();
@@ -34,13 +34,13 @@ function withNeed(need: string): { text: string; line: number } {
 }
 
 const policies = async (body: unknown) => {
-  const res = await page.request.put(`${baseUrl()}/api/v1/environments/production/policies`, { data: body });
+  const res = await page.request.put(`${baseUrl()}/api/v1/environments/production/policies`, { data: body, headers: ownOrigin() });
   expect(res.status()).toBe(200);
 };
 
 beforeAll(async () => {
   page = await signedInPage(browser(), "admin");
-  const res = await page.request.post(`${baseUrl()}/api/v1/tokens`, { data: { name: "e2e-ci-gate", scopes: ["inventory:write"], environment: "production", source: "checkout-repo" } });
+  const res = await page.request.post(`${baseUrl()}/api/v1/tokens`, { data: { name: "e2e-ci-gate", scopes: ["inventory:write"], environment: "production", source: "checkout-repo" }, headers: ownOrigin() });
   expect(res.status()).toBe(201);
   token = ((await res.json()) as { token: string }).token;
   const p = structuredClone(DEFAULT_POLICIES);
@@ -91,7 +91,7 @@ describe("examples/ci/push-inventory.sh --gate", () => {
   });
 
   it("nothing was stored by either gate: the checkout file pushed as it is still changes nothing", async () => {
-    const res = await page.request.post(`${baseUrl()}/api/v1/environments/production/inventory?dry_run=true`, { data: seedFile, headers: { "content-type": "application/yaml" } });
+    const res = await page.request.post(`${baseUrl()}/api/v1/environments/production/inventory?dry_run=true`, { data: seedFile, headers: { "content-type": "application/yaml", ...ownOrigin() } });
     expect(((await res.json()) as { changed: boolean }).changed).toBe(false);
   });
 });

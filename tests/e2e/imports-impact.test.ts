@@ -5,7 +5,7 @@
 import type { Page } from "playwright-core";
 import { beforeAll, describe, expect, it } from "vitest";
 import { DEFAULT_POLICIES } from "@/lib/impact/policies";
-import { baseUrl, browserForFile, screenshot } from "./browser";
+import { baseUrl, browserForFile, ownOrigin, screenshot } from "./browser";
 import { signedInPage } from "./pages/signin";
 
 const browser = browserForFile();
@@ -46,10 +46,10 @@ async function upload(page: Page, text: string) {
 
 beforeAll(async () => {
   const admin = await signedIn("admin");
-  expect((await admin.request.post(`${baseUrl()}/api/v1/environments`, { data: { slug: ENV, name: "Impact checks" } })).status()).toBe(201);
+  expect((await admin.request.post(`${baseUrl()}/api/v1/environments`, { data: { slug: ENV, name: "Impact checks" }, headers: ownOrigin() })).status()).toBe(201);
   const p = structuredClone(DEFAULT_POLICIES);
   p.rules["tier1-single-point-need"].severity = "block";
-  expect((await admin.request.put(`${baseUrl()}/api/v1/environments/${ENV}/policies`, { data: p })).status()).toBe(200);
+  expect((await admin.request.put(`${baseUrl()}/api/v1/environments/${ENV}/policies`, { data: p, headers: ownOrigin() })).status()).toBe(200);
   await admin.context().close();
 });
 

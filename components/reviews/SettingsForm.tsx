@@ -1,6 +1,6 @@
 "use client";
 // How the analysis reads needs that no file declares (lib/inventory/settings.ts): inferred from
-// configuration, seen only in traces, and which graph it ranks.
+// configuration, seen only in traces, and which graph it ranks; and which alert labels name a component.
 import { useEffect, useState } from "react";
 import useSWR from "swr";
 import { Button } from "@/components/ui/Button";
@@ -23,8 +23,13 @@ export function SettingsForm({ env, canWrite }: { env: string; canWrite: boolean
   const [values, setValues] = useState<EnvironmentSettings | null>(null);
   const [message, setMessage] = useState<string | null>(null);
   const [saveError, setSaveError] = useState<string | null>(null);
+  // Typed as text so that a comma can be typed; split into the list on save.
+  const [labelsText, setLabelsText] = useState("");
   useEffect(() => {
-    if (data) setValues(data.settings);
+    if (data) {
+      setValues(data.settings);
+      setLabelsText(data.settings.alertLabels.join(", "));
+    }
   }, [data]);
 
   async function save(next: EnvironmentSettings) {
@@ -48,7 +53,7 @@ export function SettingsForm({ env, canWrite }: { env: string; canWrite: boolean
           className="space-y-3"
           onSubmit={(e) => {
             e.preventDefault();
-            void save(v);
+            void save({ ...v, alertLabels: labelsText.split(",").map((x) => x.trim()).filter(Boolean) });
           }}
         >
           <div className="grid gap-3 sm:grid-cols-2">
@@ -84,6 +89,12 @@ export function SettingsForm({ env, canWrite }: { env: string; canWrite: boolean
             <div>
               <Label htmlFor="s-window" hint="traffic older than this is forgotten">Trace window (days)</Label>
               <TextInput id="s-window" type="number" min={1} max={90} required value={v.traceWindowDays} disabled={!canWrite} onChange={(e) => setValues({ ...v, traceWindowDays: Number(e.target.value) })} className="font-mono" />
+            </div>
+            <div className="sm:col-span-2">
+              <Label htmlFor="s-alert-labels" hint="Alertmanager alerts: the first of these labels whose value is a component key or alias names the component">
+                Alert labels that name a component
+              </Label>
+              <TextInput id="s-alert-labels" required value={labelsText} disabled={!canWrite} onChange={(e) => setLabelsText(e.target.value)} placeholder="service, app, job" className="font-mono" />
             </div>
           </div>
           {canWrite ? (

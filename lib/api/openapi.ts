@@ -12,6 +12,7 @@ import { positionsSchema } from "./schemas/map";
 import { reviewBodySchema, reviewsQuerySchema, auditQuerySchema } from "./schemas/reviews";
 import { addMemberSchema, createTeamSchema, unownedQuerySchema, updateTeamSchema } from "./schemas/teams";
 import { createEnvironmentSchema, deleteEnvironmentQuerySchema, renameEnvironmentSchema, settingsPatchSchema } from "./schemas/environments";
+import { alertsBodySchema, alertsQuerySchema, resolveIncidentSchema } from "./schemas/incidents";
 import { createTokenSchema } from "./schemas/tokens";
 import { acceptInviteSchema, inviteUserSchema, updateUserSchema } from "./schemas/users";
 import { pinchWeightsSchema } from "@/lib/analysis/types";
@@ -58,6 +59,21 @@ export const OPERATIONS: Record<string, Partial<Record<Method, Operation>>> = {
   "/environments/{env}/rankings/export": { get: { summary: "The ranking as CSV", rule: "read", query: rankingsExportQuerySchema } },
   "/environments/{env}/rankings/history": { get: { summary: "Ranks of components over recent snapshots", rule: "read", query: rankHistoryQuerySchema } },
   "/environments/{env}/drills": { post: { summary: "Fail components and/or zones: down, degraded, teams to page", rule: "read", body: drillBodySchema } },
+  "/environments/{env}/alerts": {
+    post: {
+      summary:
+        "Alert webhook: Pinchpoint alerts ({ alerts: [{ component, status, severity, startsAt, endsAt, link, id, summary }] }) or the body Prometheus Alertmanager's webhook_config sends (labels named in the alertLabels setting name the component); firing alerts join the open incident, resolved ones close; alerts naming no known component are kept and listed; audited",
+      rule: "inventory:write",
+      query: alertsQuerySchema,
+      body: alertsBodySchema,
+    },
+  },
+  "/environments/{env}/incidents": { get: { summary: "Incidents newest first with their origin ranking, the components that caused them and the top pinch points beside them", rule: "read", query: pageQuerySchema } },
+  "/environments/{env}/incidents/current": {
+    get: { summary: "The open incident: firing alerts, probable origin(s) by set cover and personalised PageRank, silent suspects, what will likely fail next, who to page in order, a copyable summary", rule: "read" },
+  },
+  "/environments/{env}/incidents/{number}": { get: { summary: "One incident: its alerts with their lifetimes and the origin ranking from when the most components fired", rule: "read" } },
+  "/environments/{env}/incidents/{number}/resolve": { post: { summary: "Close an incident by hand (its firing alerts end now); audited", rule: "inventory:write", body: resolveIncidentSchema } },
   "/environments/{env}/drift": { get: { summary: "Traced calls against declared needs: seen but never declared, declared but never seen", rule: "read" } },
   "/environments/{env}/boot-order": { get: { summary: "Cold-start stages; cycles that cannot start unaided", rule: "read" } },
   "/environments/{env}/graph": { get: { summary: "Components, dependencies and measures for the map", rule: "read" } },

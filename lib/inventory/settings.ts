@@ -5,6 +5,18 @@ import { z } from "zod";
 export const ANALYSIS_VIEWS = ["declared", "observed", "both"] as const;
 export type AnalysisView = (typeof ANALYSIS_VIEWS)[number];
 
+export const DEFAULT_ALERT_LABELS = ["service", "app", "job"] as const;
+
+/**
+ * Label names as the Prometheus data model allows them (any UTF-8 since Prometheus 3; the classic
+ * [a-zA-Z_][a-zA-Z0-9_]* is one case), without spaces so that a list typed with commas reads back.
+ */
+export const alertLabelsSchema = z
+  .array(z.string().trim().min(1, "a label name cannot be empty").max(128, "at most 128 characters").regex(/^\S+$/, "a label name has no spaces"))
+  .min(1, "name at least one label")
+  .max(10, "at most 10 labels")
+  .refine((xs) => new Set(xs).size === xs.length, { message: "each label once" });
+
 export const EnvironmentSettingsSchema = z
   .object({
     /**
@@ -19,6 +31,12 @@ export const EnvironmentSettingsSchema = z
     analysisView: z.enum(ANALYSIS_VIEWS).nullable().default(null),
     /** Rolling window of trace aggregates, in days. */
     traceWindowDays: z.int().min(1).max(90).default(7),
+    /**
+     * Labels of an Alertmanager alert that may name the component it is about, tried in order: the
+     * first whose value is a component key or alias wins. `service`, `app` and `job` are the usual
+     * ones (common practice); an estate that labels alerts otherwise lists its own.
+     */
+    alertLabels: alertLabelsSchema.default([...DEFAULT_ALERT_LABELS]),
   })
   .strict();
 

@@ -10,6 +10,7 @@ import * as m0008 from "./0008-need-kinds";
 import * as m0009 from "./0009-change-policies";
 import * as m0010 from "./0010-traces";
 import * as m0011 from "./0011-sessions-and-workers";
+import * as m0012 from "./0012-incidents";
 
 export const MIGRATIONS = [
   { name: "0001-initial", ...m0001 },
@@ -23,4 +24,5 @@ export const MIGRATIONS = [
   { name: "0009-change-policies", ...m0009 },
   { name: "0010-traces", ...m0010 },
   { name: "0011-sessions-and-workers", ...m0011 },
+  { name: "0012-incidents", ...m0012 },
 ];

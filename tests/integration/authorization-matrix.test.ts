@@ -21,6 +21,11 @@ const MATRIX: Record<string, Partial<Record<"GET" | "POST" | "PUT" | "PATCH" | "
   "environments/[env]/components/[key]/history": { GET: "read" },
   "environments/[env]/drills": { POST: "read" },
   "environments/[env]/drift": { GET: "read" },
+  "environments/[env]/alerts": { POST: "inventory:write" },
+  "environments/[env]/incidents": { GET: "read" },
+  "environments/[env]/incidents/current": { GET: "read" },
+  "environments/[env]/incidents/[number]": { GET: "read" },
+  "environments/[env]/incidents/[number]/resolve": { POST: "inventory:write" },
   "environments/[env]/graph": { GET: "read" },
   "environments/[env]/imports": { GET: "read" },
   "environments/[env]/inventory": { POST: "inventory:write" },
@@ -73,6 +78,7 @@ const PARAM_VALUES: Record<string, string> = {
   userId: "00000000-0000-4000-8000-000000000000",
   slug: "checkout",
   token: "not-a-real-invite",
+  number: "1",
 };
 
 function paramsOf(route: string): Record<string, string> {

@@ -1,6 +1,6 @@
 // Requests of environment management (admin): create, rename, delete with a typed confirmation.
 import { z } from "zod";
-import { ANALYSIS_VIEWS } from "@/lib/inventory/settings";
+import { ANALYSIS_VIEWS, alertLabelsSchema } from "@/lib/inventory/settings";
 import { slugSchema } from "./common";
 
 const nameSchema = z.string().trim().min(1, "give the environment a name people will recognise").max(200, "at most 200 characters");
@@ -29,6 +29,7 @@ export const settingsPatchSchema = z
     observedNeeds: z.enum(["hard", "soft"]),
     analysisView: z.enum(ANALYSIS_VIEWS).nullable(),
     traceWindowDays: z.int().min(1).max(90),
+    alertLabels: alertLabelsSchema,
   })
   .partial()
   .strict()

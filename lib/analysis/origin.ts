@@ -86,8 +86,13 @@ export interface OriginResult {
   ranking: RankedFiring[];
   /** Components not firing (and zones) that alone explain more than any firing component does. */
   silent: SilentSuspect[];
-  /** Components ranked by personalised PageRank, highest first, with their scores (sum to 1 over the graph). */
-  pagerank: Array<{ key: string; score: number; firing: boolean }>;
+  /**
+   * Components ranked by personalised PageRank, highest first, with their scores (sum to 1 over the
+   * graph) and their share under plain PageRank (uniform teleport): shared infrastructure that every
+   * walk ends in (name resolution, the network) scores high in any incident, so the ratio of the two
+   * says what this incident adds.
+   */
+  pagerank: Array<{ key: string; score: number; usual: number; firing: boolean }>;
   /** What the origins' failures take down or degrade beyond what already fires, most critical tier first. */
   predicted: { down: string[]; degraded: string[] };
 }
@@ -308,9 +313,11 @@ export function probableOrigin(graph: CompactGraph, firingKeys: readonly string[
 
   const personalization = new Float64Array(graph.n);
   for (const v of firing) personalization[v] = 1;
-  const pr = firing.length > 0 ? pagerank(graph, { alpha: options.alpha ?? 0.85, personalization }).values : new Float64Array(graph.n);
+  const alpha = options.alpha ?? 0.85;
+  const pr = firing.length > 0 ? pagerank(graph, { alpha, personalization }).values : new Float64Array(graph.n);
   const top = options.pagerankTop ?? 20;
   const order = firing.length > 0 ? topIndices(pr, top, key) : [];
+  const usual = order.length > 0 ? pagerank(graph, { alpha }).values : new Float64Array(graph.n);
 
   return {
     firing: keys(firing),
@@ -321,7 +328,7 @@ export function probableOrigin(graph: CompactGraph, firingKeys: readonly string[
     unexplained: keys(unexplained),
     ranking,
     silent,
-    pagerank: order.map((v) => ({ key: key(v), score: pr[v]!, firing: isFiring[v] === 1 })),
+    pagerank: order.map((v) => ({ key: key(v), score: pr[v]!, usual: usual[v]!, firing: isFiring[v] === 1 })),
     predicted: { down: byTier(predictedDown), degraded: byTier(predictedDegraded) },
   };
 }

@@ -236,10 +236,15 @@ d = json.loads(sys.argv[1])
 G = nx.DiGraph(); G.add_nodes_from(range(d["n"])); G.add_edges_from(tuple(map(int, e)) for e in d["pairs"])
 p = {int(k): 1 for k in d["firing"]}
 pr = nx.pagerank(G, alpha=0.85, personalization=p, tol=1e-13, max_iter=100000)
-print(json.dumps({str(k): v for k, v in pr.items()}))`;
-    const ref = JSON.parse(execFileSync(PYTHON, ["-c", script, JSON.stringify({ n, pairs, firing })], { encoding: "utf8" })) as Record<string, number>;
+usual = nx.pagerank(G, alpha=0.85, tol=1e-13, max_iter=100000)
+print(json.dumps({"pr": {str(k): v for k, v in pr.items()}, "usual": {str(k): v for k, v in usual.items()}}))`;
+    const ref = JSON.parse(execFileSync(PYTHON, ["-c", script, JSON.stringify({ n, pairs, firing })], { encoding: "utf8" })) as { pr: Record<string, number>; usual: Record<string, number> };
     expect(r.pagerank).toHaveLength(n);
-    for (const { key, score } of r.pagerank) expect(Math.abs(score - ref[key]!)).toBeLessThan(1e-9);
+    for (const { key, score, usual } of r.pagerank) {
+      expect(Math.abs(score - ref.pr[key]!)).toBeLessThan(1e-9);
+      // The usual share: networkx.pagerank(G, alpha=0.85) with its uniform teleport.
+      expect(Math.abs(usual - ref.usual[key]!)).toBeLessThan(1e-9);
+    }
     // Highest first; the top 5 alone are the same entries.
     for (let i = 1; i < n; i++) expect(r.pagerank[i - 1]!.score).toBeGreaterThanOrEqual(r.pagerank[i]!.score);
     expect(probableOrigin(g, firing, { pagerankTop: 5 }).pagerank).toEqual(r.pagerank.slice(0, 5));

@@ -24,7 +24,7 @@ import { Inspector, inspectorLinks } from "./Inspector";
 import { arrowDir, nextSelection } from "./keyboard";
 import { toFlow, type Box, type MapFlowEdge, type MapFlowNode } from "./layout";
 import { PHASE_LABEL } from "./layout-protocol";
-import { edgeTypes, nodeTypes, DecorContext, type Decor } from "./nodes";
+import { edgeTypes, nodeTypes, DecorContext, type Decor, type IncidentMark } from "./nodes";
 import { KIND_LABEL, NODE_H, NODE_W, shapePaths } from "./shapes";
 import { COLOUR_MODES, type ColourMode, type MapGraph, type PinnedPositions, type Position } from "./types";
 import { useElkLayout } from "./useElkLayout";
@@ -52,6 +52,8 @@ export interface MapCanvasProps {
   onPinPositions?(positions: Record<string, { x: number; y: number }>): void;
   pinned?: Record<string, { x: number; y: number }>;
   renderInspector?(key: string): ReactNode;
+  /** An incident drawn over the map (components/incidents): each marked component's role. */
+  marks?: ReadonlyMap<string, IncidentMark>;
 }
 
 export function MapCanvas(props: MapCanvasProps) {
@@ -204,8 +206,8 @@ function MapCanvasInner(props: MapCanvasProps) {
   const palette = useMemo(() => buildPalette(graph.nodes, colourMode, slots), [graph.nodes, colourMode, slots]);
   const legend = useMemo(() => buildLegend(palette, teamNames), [palette, teamNames]);
   const decor: Decor = useMemo(
-    () => ({ palette, teamNames, selected, focus: selection.focus, onToggleTeam: toggleTeam }),
-    [palette, teamNames, selected, selection.focus, toggleTeam],
+    () => ({ palette, teamNames, selected, focus: selection.focus, onToggleTeam: toggleTeam, marks: props.marks }),
+    [palette, teamNames, selected, selection.focus, toggleTeam, props.marks],
   );
 
   // Absolute centres of navigable nodes, for keyboard movement and centring.

@@ -11,6 +11,7 @@ import { useReviews } from "@/components/reviews/useReviews";
 import { Inspector, inspectorLinks, type InspectorSave } from "./Inspector";
 import { MapCanvas } from "./MapCanvas";
 import { mapGraphSchema, type MapGraph, type PinnedPositions } from "./types";
+import { useIncidentOverlay } from "@/components/incidents/MapOverlay";
 
 async function fetchGraph(url: string): Promise<MapGraph> {
   return mapGraphSchema.parse(await fetchJson<unknown>(url));
@@ -50,7 +51,8 @@ function InspectorFor({ env, graph, nodeKey, canEdit, onSelect }: { env: string;
   );
 }
 
-export function MapScreen({ env, focus, canEdit }: { env: string; focus: string | null; canEdit: boolean }) {
+export function MapScreen({ env, focus, canEdit, incident = false }: { env: string; focus: string | null; canEdit: boolean; incident?: boolean }) {
+  const overlay = useIncidentOverlay(env, incident);
   const router = useRouter();
   const pathname = usePathname();
   const search = useSearchParams();
@@ -93,10 +95,12 @@ export function MapScreen({ env, focus, canEdit }: { env: string; focus: string 
         {data.snapshot ? `Snapshot #${data.snapshot.number}, pushed ${ageOf(data.snapshot.createdAt)} (${dateTime(data.snapshot.createdAt)}). ` : "No snapshot yet. "}
         The map is only as good as the inventory: it shows what was declared, nothing more; undeclared components (needed by something, declared by no source) are drawn dashed.
       </p>
+      {overlay.legend}
       <div className="min-h-0 flex-1 overflow-hidden rounded-lg border border-line">
         <MapCanvas
           graph={data}
-          focus={focus}
+          focus={focus ?? overlay.focus}
+          marks={overlay.marks}
           canEdit={canEdit}
           pinned={pinned}
           onPinPositions={onPinPositions}

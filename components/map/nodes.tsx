@@ -17,7 +17,12 @@ export interface Decor {
   /** components adjacent to the selection: their edges are drawn emphasised */
   focus: string | null;
   onToggleTeam(team: string): void;
+  /** An incident overlay: each marked component's role in it. */
+  marks?: ReadonlyMap<string, IncidentMark>;
 }
+
+export type IncidentMark = "origin" | "silent" | "firing" | "predicted";
+const MARK_LABEL: Record<IncidentMark, string> = { origin: "probable origin", silent: "silent suspect", firing: "firing", predicted: "likely next" };
 
 export const DecorContext = createContext<Decor | null>(null);
 
@@ -38,6 +43,7 @@ export const ComponentNode = memo(function ComponentNode(props: NodeProps<Compon
   const shape = shapePaths(node.kind, w, h);
   const inset = textInset(node.kind);
   const selected = decor.selected === node.key;
+  const mark = decor.marks?.get(node.key);
   const showTeam = decor.palette.mode === "team";
   const sub = showTeam ? `${KIND_LABEL[node.kind]} · ${decor.teamNames.get(teamSlotOf(node)) ?? ""}` : `${KIND_LABEL[node.kind]} · tier ${node.tier}`;
   return (
@@ -46,6 +52,7 @@ export const ComponentNode = memo(function ComponentNode(props: NodeProps<Compon
       data-kind={node.kind}
       data-selected={selected || undefined}
       data-focus={decor.focus === node.key || undefined}
+      data-incident={mark}
       style={{ width: w, height: h }}
       title={`${node.name} (${node.key})`}
     >
@@ -62,6 +69,7 @@ export const ComponentNode = memo(function ComponentNode(props: NodeProps<Compon
         <span className="pp-node-name">{node.undeclared ? `? ${node.key}` : node.name}</span>
         <span className="pp-node-kind">{sub}</span>
       </div>
+      {mark ? <span className="pp-incident">{MARK_LABEL[mark]}</span> : null}
       {node.metrics?.articulation ? (
         <span className="pp-badge" title="Removing it disconnects parts of the estate (an articulation point)">
           splits the graph

@@ -12,6 +12,7 @@ import type { EnvironmentCounts } from "@/lib/data/components";
 import type { EnvironmentSummary } from "@/lib/data/environments";
 import type { RankingItem, RankingsResponse } from "@/components/rankings/api-types";
 import type { HealthResponse } from "@/lib/api/schemas/health";
+import { IncidentBanner } from "@/components/incidents/IncidentBanner";
 
 /** GET /api/v1/environments/{env}: the summary plus component counts. */
 type EnvironmentResponse = EnvironmentSummary & { counts: EnvironmentCounts };
@@ -116,6 +117,7 @@ export function Overview({ env }: { env: string }) {
   const cycles = boot.data?.cycles ?? [];
   return (
     <div className="space-y-6">
+      <IncidentBanner env={env} />
       <div>
         <h1 className="text-2xl font-semibold tracking-tight">
           <span className="font-mono">{env}</span> at a glance

@@ -38,7 +38,7 @@ export interface StoredRanking {
   jointly: OriginResult["jointly"];
   unexplained: string[];
   silent: Array<{ kind: "component" | "zone"; key: string; explains: number }>;
-  pagerank: Array<{ key: string; score: number; firing: boolean }>;
+  pagerank: Array<{ key: string; score: number; usual: number; firing: boolean }>;
   ranking: Array<{ key: string; explains: number }>;
   predicted: { down: number; degraded: number; firstDown: string[] };
 }

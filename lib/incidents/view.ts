@@ -76,6 +76,12 @@ export const utc = (iso: string | Date): string => {
   return `${s.slice(0, 10)} ${s.slice(11, 16)} UTC`;
 };
 
+/** "×14": how many times its usual PageRank share this incident's walk gives a component. */
+export const lift = (p: { score: number; usual: number }): string => {
+  const x = p.score / p.usual;
+  return `×${x >= 10 ? Math.round(x) : x.toFixed(1)}`;
+};
+
 const list = (keys: readonly string[], max = 12) => `${keys.slice(0, max).join(", ")}${keys.length > max ? `, … (${keys.length - max} more)` : ""}`;
 
 export interface UnknownAlertGroup {
@@ -111,11 +117,11 @@ export function incidentSummaryText(input: SummaryInput): string {
     const deg = o.degraded.length ? ` (${o.degraded.length} only as degraded)` : "";
     lines.push(`${i === 0 ? "Probable origin" : "Also"}: ${o.key} — explains ${o.explains.length} of ${firing} firing${deg}.`);
   }
-  if (result.origins.length > 0) lines.push(`Together the origin${result.origins.length > 1 ? "s explain" : " explains"} ${result.explainedCount} of ${firing} firing.`);
+  if (result.origins.length > 1) lines.push(`Together the origins explain ${result.explainedCount} of ${firing} firing.`);
   if (result.jointly.length) lines.push(`Explained only together: ${result.jointly.map((j) => `${j.key} (by ${j.by.join(" + ")})`).join("; ")}.`);
   if (result.unexplained.length) lines.push(`Not explained by anything firing (a separate fault, or a need the inventory does not declare): ${list(result.unexplained)}.`);
   for (const s of result.silent.slice(0, 3)) lines.push(`Not alerting, yet its failure alone would explain ${s.explains.length} of ${firing}: ${s.kind === "zone" ? "zone " : ""}${s.key} — check it.`);
-  const walk = result.pagerank.slice(0, 5).map((p) => `${p.key} ${p.score.toFixed(3)}${p.firing ? "" : " (not alerting)"}`);
+  const walk = result.pagerank.slice(0, 5).map((p) => `${p.key} ${p.score.toFixed(3)}${p.usual > 0 ? ` (${lift(p)} its usual share${p.firing ? "" : ", not alerting"})` : ""}`);
   if (walk.length) lines.push(`Where a walk along needs from the firing components settles (personalised PageRank): ${walk.join(", ")}.`);
   const { down, degraded } = result.predicted;
   if (down.length + degraded.length) lines.push(`Likely to fail next (not firing yet): ${down.length} down${down.length ? ` — ${list(down, 8)}` : ""}; ${degraded.length} degraded.`);

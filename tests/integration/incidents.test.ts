@@ -60,7 +60,17 @@ const at = (minutes: number) => new Date(BASE + minutes * 60_000).toISOString();
 const T0 = at(0).replace(".000Z", ".123456789Z");
 const T1 = at(1.5);
 
-function amAlert(status: "firing" | "resolved", labels: Record<string, string>, fingerprint: string, startsAt = T0, endsAt = "0001-01-01T00:00:00Z") {
+interface AmAlert {
+  status: "firing" | "resolved";
+  labels: Record<string, string>;
+  annotations: Record<string, string>;
+  startsAt: string;
+  endsAt: string;
+  generatorURL: string;
+  fingerprint: string;
+}
+
+function amAlert(status: "firing" | "resolved", labels: Record<string, string>, fingerprint: string, startsAt = T0, endsAt = "0001-01-01T00:00:00Z"): AmAlert {
   return {
     status,
     labels: { alertname: "HighErrorRate", severity: "critical", ...labels },
@@ -72,7 +82,7 @@ function amAlert(status: "firing" | "resolved", labels: Record<string, string>, 
   };
 }
 
-function amBody(alerts: ReturnType<typeof amAlert>[], extra: Record<string, unknown> = {}) {
+function amBody(alerts: AmAlert[], extra: Record<string, unknown> = {}) {
   return {
     version: "4",
     groupKey: '{}:{alertname="HighErrorRate"}',
@@ -162,7 +172,7 @@ describe("alert webhook: an Alertmanager outage", () => {
     const badTime = await post("shop", amBody([{ ...OUTAGE[0]!, startsAt: "yesterday" }]));
     expect(badTime.status).toBe(422);
     expect((badTime.json as { issues: Array<{ path: string }> }).issues.map((i) => i.path)).toEqual(["alerts[0].startsAt"]);
-    const badLabels = await post("shop", amBody([{ ...OUTAGE[0]!, labels: { service: 42 } as unknown as Record<string, string> }]));
+    const badLabels = await post("shop", amBody([{ ...OUTAGE[0]!, labels: { ...OUTAGE[0]!.labels, service: 42 as unknown as string } }]));
     expect(badLabels.status).toBe(422);
     expect((badLabels.json as { issues: Array<{ path: string }> }).issues[0]!.path).toBe("alerts[0].labels.service");
     const unknownField = await post("shop", { alerts: [{ component: "web", colour: "red" }] });

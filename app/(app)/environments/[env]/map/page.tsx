@@ -6,8 +6,8 @@ import { SLUG_PATTERN } from "@/lib/inventory/types";
 
 export const metadata = { title: "Map" };
 
-export default async function MapPage({ params, searchParams }: { params: Promise<{ env: string }>; searchParams: Promise<{ focus?: string }> }) {
-  const [{ env }, { focus }, user] = await Promise.all([params, searchParams, requireUser()]);
+export default async function MapPage({ params, searchParams }: { params: Promise<{ env: string }>; searchParams: Promise<{ focus?: string; incident?: string }> }) {
+  const [{ env }, { focus, incident }, user] = await Promise.all([params, searchParams, requireUser()]);
   if (!SLUG_PATTERN.test(env)) notFound();
-  return <MapScreen env={env} focus={focus ?? null} canEdit={roleHas(user.role, "components:annotate")} />;
+  return <MapScreen env={env} focus={focus ?? null} canEdit={roleHas(user.role, "components:annotate")} incident={incident === "current"} />;
 }

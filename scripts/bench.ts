@@ -1,6 +1,6 @@
 // Benchmark of the analysis engine (npm run bench). Speed is measured here, never in tests.
 //   npx tsx scripts/bench.ts                     all sections
-//   npx tsx scripts/bench.ts --only measures     one section (push | impact | kubernetes | compose | traces | responsiveness | measures | igraph)
+//   npx tsx scripts/bench.ts --only measures     one section (push | impact | kubernetes | compose | traces | responsiveness | incidents | measures | igraph)
 //   npx tsx scripts/bench.ts --compare-igraph    also time python3-igraph on the 20k graph
 //   npx tsx scripts/bench.ts --edge-list FILE    one JSON line for a `from to` edge list
 //   --runs N                                     calls per side in the igraph comparison (default 3)
@@ -317,6 +317,15 @@ const sections: Section[] = [
     run: async () => {
       console.log(`# a GET's latency in the same process while a bad 20 MB push is parsed (budget ${process.env.PINCHPOINT_PARSE_BUDGET_MS ?? 30000} ms; --skip-baseline leaves out the request-thread run)`);
       await benchResponsiveness();
+    },
+  },
+  {
+    name: "incidents",
+    byDefault: true,
+    run: async () => {
+      console.log("# probable origin of an incident: 200 firing components on a generated 20,000-component estate (promise: under 1 s)");
+      const { benchIncidents } = await import("./bench/incidents");
+      benchIncidents(20_000, 200);
     },
   },
   {

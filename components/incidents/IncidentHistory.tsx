@@ -38,7 +38,7 @@ export function IncidentHistory({ env }: { env: string }) {
       {data && data.causes.length + data.predicted.length > 0 && (
         <div className="grid gap-4 lg:grid-cols-2">
           <Card title="What caused incidents">
-            <p className="mb-2 text-xs text-muted">The first probable origin of each incident, at its peak; with the component&apos;s rank among today&apos;s pinch points.</p>
+            <p className="mb-2 text-xs text-muted">The first probable origin of each incident, at its peak, with the component&apos;s rank among today&apos;s pinch points (betweenness first, as on the pinch-points screen).</p>
             {data.causes.length === 0 ? (
               <p className="text-sm text-muted">No incident had a probable origin yet.</p>
             ) : (
@@ -50,7 +50,7 @@ export function IncidentHistory({ env }: { env: string }) {
                       {c.incidents} incident{c.incidents === 1 ? "" : "s"}, last {dateTime(c.lastAt)}
                     </span>
                     <span className="ml-auto">
-                      {c.pinchRank !== null ? <Badge tone={c.pinchRank <= 10 ? "info" : "muted"}>pinch rank {c.pinchRank}</Badge> : <Badge tone="degraded">not ranked</Badge>}
+                      {c.pinchRank !== null ? <Badge tone={c.pinchRank <= 10 ? "info" : "muted"}>rank {c.pinchRank}</Badge> : <Badge tone="degraded">not in today&apos;s ranking</Badge>}
                     </span>
                   </li>
                 ))}
@@ -58,13 +58,13 @@ export function IncidentHistory({ env }: { env: string }) {
             )}
           </Card>
           <Card title="What the measures predict">
-            <p className="mb-2 text-xs text-muted">The top of the pinch-point ranking, and how many incidents each one caused.</p>
+            <p className="mb-2 text-xs text-muted">The top ten of the pinch-point ranking (betweenness first), and how many incidents each was the probable origin of.</p>
             <ol className="space-y-1 text-sm" data-testid="predicted-pinch-points">
               {data.predicted.map((p) => (
                 <li key={p.key} className="flex items-center gap-2">
                   <span className="w-5 text-right font-mono text-xs text-faint">{p.pinchRank}</span>
                   {link(p.key)}
-                  <span className="font-mono text-xs text-muted">score {pinchScore(p.pinchScore)}</span>
+                  <span className="font-mono text-xs text-muted">pinch score {pinchScore(p.pinchScore)}</span>
                   <span className="ml-auto">{p.incidents > 0 ? <Badge tone="down">caused {p.incidents}</Badge> : <span className="text-xs text-faint">no incident</span>}</span>
                 </li>
               ))}

@@ -129,6 +129,18 @@ describe("live incidents", () => {
     await screenshot(page, "incidents-map-overlay");
   });
 
+  it("lets an admin name the alert labels that name a component, in the environment's settings", async () => {
+    await page.goto(`${baseUrl()}/environments/production/reviews`);
+    const field = page.getByLabel(/Alert labels that name a component/);
+    await expect.poll(() => field.inputValue(), { timeout: 20_000 }).toBe("service, app, job");
+    await field.fill("service, app, job, k8s_app");
+    await page.getByRole("form", { name: "Analysis settings" }).getByRole("button", { name: "Save" }).click();
+    await expect.poll(() => page.getByRole("form", { name: "Analysis settings" }).getByRole("status").textContent()).toContain("Saved");
+    const res = await page.request.get(`${baseUrl()}/api/v1/environments/production/settings`);
+    expect(((await res.json()) as { settings: { alertLabels: string[] } }).settings.alertLabels).toEqual(["service", "app", "job", "k8s_app"]);
+    await screenshot(page, "incidents-settings");
+  });
+
   it("closes the incident when every alert resolves and keeps it in history with its origin", async () => {
     await page.goto(`${baseUrl()}/environments/production/incidents`);
     await expect.poll(() => page.getByTestId("origin").count(), { timeout: 20_000 }).toBeGreaterThan(0);

@@ -283,7 +283,7 @@ export function IncidentScreen({ env, canWrite }: { env: string; canWrite: boole
             <Stat label="Firing alerts" value={data.firingAlerts.length} tone="down" />
             <Stat label="Firing components" value={firingCount} tone="down" />
             <Stat label="Explained" value={<span data-testid="explained">{`${r.explainedCount} of ${firingCount}`}</span>} hint="by the probable origin(s)" />
-            <Stat label="Likely next" value={r.predicted.down.length} tone={r.predicted.down.length ? "degraded" : "ink"} hint={`down, not firing yet; ${r.predicted.degraded.length} degraded`} />
+            <Stat label="Likely next" value={data.predictedTotal.down} tone={data.predictedTotal.down ? "degraded" : "ink"} hint={`down, not firing yet; ${data.predictedTotal.degraded} degraded`} />
             <Stat label="Unknown" value={data.unknownAlerts.reduce((a, u) => a + u.alerts, 0) + r.unknown.length} tone={data.unknownAlerts.length ? "degraded" : "ink"} hint="alerts naming no known component" />
           </div>
 
@@ -395,11 +395,11 @@ export function IncidentScreen({ env, canWrite }: { env: string; canWrite: boole
             <Card title="Likely to fail next (not firing yet)">
               <div className="space-y-2 text-sm" data-testid="predicted">
                 <p>
-                  <span className="font-semibold text-down">{r.predicted.down.length} down</span> <span className="text-muted">— most critical tier first:</span>{" "}
+                  <span className="font-semibold text-down">{data.predictedTotal.down} down</span> <span className="text-muted">— most critical tier first:</span>{" "}
                   <KeyList env={env} keys={r.predicted.down} max={30} />
                 </p>
                 <p>
-                  <span className="font-semibold text-degraded">{r.predicted.degraded.length} degraded:</span> <KeyList env={env} keys={r.predicted.degraded} max={30} />
+                  <span className="font-semibold text-degraded">{data.predictedTotal.degraded} degraded:</span> <KeyList env={env} keys={r.predicted.degraded} max={30} />
                 </p>
                 <p className="text-xs text-muted">What the probable origins&apos; failure takes with it under the declared needs, beyond what already fires.</p>
               </div>

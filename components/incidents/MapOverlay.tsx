@@ -35,7 +35,7 @@ export function useIncidentOverlay(env: string, on: boolean): { marks: ReadonlyM
         "No incident is open: nothing to draw."
       ) : (
         <>
-          <span className="font-semibold text-down">Incident #{data.incident.number}</span> drawn over the map: probable origin{r!.origins.length === 1 ? "" : "s"} {r!.origins.map((o) => o.key).join(", ") || "none"} · {r!.firing.length} firing · {r!.predicted.down.length + r!.predicted.degraded.length} likely next
+          <span className="font-semibold text-down">Incident #{data.incident.number}</span> drawn over the map: probable origin{r!.origins.length === 1 ? "" : "s"} {r!.origins.map((o) => o.key).join(", ") || "none"} · {r!.firing.length} firing · {data.predictedTotal.down + data.predictedTotal.degraded} likely next
           {r!.silent.length > 0 && ` · ${r!.silent.length} silent suspect${r!.silent.length === 1 ? "" : "s"}`}. A probability from the declared graph, not a diagnosis.{" "}
           <Link href={`/environments/${env}/incidents`} className="text-brass hover:underline">
             Incident screen

@@ -25,7 +25,7 @@ import { readSettings, type EnvironmentSettings } from "@/lib/inventory/settings
 import { AppError, notFound } from "@/lib/errors";
 import type { ParsedAlerts, ReceivedAlert } from "@/lib/incidents/payload";
 import { nameIndex, resolveAlert, type NameIndex } from "@/lib/incidents/resolve";
-import type { CurrentIncidentResponse, IncidentAlert, IncidentDetailResponse, IncidentHistoryResponse, IncidentRow, ReceiveAlertsResponse, StoredRanking } from "@/lib/incidents/types";
+import { PREDICTED_LIST_CAP, type CurrentIncidentResponse, type IncidentAlert, type IncidentDetailResponse, type IncidentHistoryResponse, type IncidentRow, type ReceiveAlertsResponse, type StoredRanking } from "@/lib/incidents/types";
 import { INCIDENT_CAUTION, incidentSummaryText, pageOrder, type PageEntry, type UnknownAlertGroup } from "@/lib/incidents/view";
 import { recordAudit, type SystemActor } from "./audit";
 import { getEnvironmentOrThrow } from "./environments";
@@ -397,7 +397,8 @@ export async function getCurrentIncident({ slug, link }: { slug: string; link: s
       .sort((a, b) => b.ends_at!.getTime() - a.ends_at!.getTime())
       .slice(0, 50)
       .map((r) => toAlert(r, ctx)),
-    result: analysis.result,
+    result: capPredicted(analysis.result),
+    predictedTotal: { down: analysis.result.predicted.down.length, degraded: analysis.result.predicted.degraded.length },
     unknownAlerts: analysis.unknownAlerts,
     page: analysis.page,
     summary: incidentSummaryText({
@@ -414,6 +415,12 @@ export async function getCurrentIncident({ slug, link }: { slug: string; link: s
     caution: INCIDENT_CAUTION,
     computedAt: now.toISOString(),
   };
+}
+
+/** Predicted failures are listed most critical first, so the cut keeps what a responder reads first. */
+function capPredicted(r: OriginResult): OriginResult {
+  const cut = (p: { down: string[]; degraded: string[] }) => ({ down: p.down.slice(0, PREDICTED_LIST_CAP), degraded: p.degraded.slice(0, PREDICTED_LIST_CAP) });
+  return { ...r, predicted: cut(r.predicted), origins: r.origins.map((o) => ({ ...o, predicted: cut(o.predicted) })) };
 }
 
 export async function getIncident({ slug, number }: { slug: string; number: number }): Promise<IncidentDetailResponse> {

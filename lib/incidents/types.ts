@@ -56,6 +56,9 @@ export interface IncidentRow {
   ranking: StoredRanking | null;
 }
 
+/** Every screen polls the current incident: predicted failures on a large estate are cut to this many. */
+export const PREDICTED_LIST_CAP = 500;
+
 export interface CurrentIncidentResponse {
   environment: string;
   incident: IncidentRow | null;
@@ -63,7 +66,10 @@ export interface CurrentIncidentResponse {
   firingAlerts: IncidentAlert[];
   /** Alerts of the open incident that have resolved already, newest first. */
   resolvedAlerts: IncidentAlert[];
+  /** The origin result; lists of predicted failures are cut at PREDICTED_LIST_CAP (most critical first), see predictedTotal. */
   result: OriginResult;
+  /** How many components the origins' failure takes down or degrades beyond what fires, uncut. */
+  predictedTotal: { down: number; degraded: number };
   unknownAlerts: UnknownAlertGroup[];
   page: PageEntry[];
   summary: string;

@@ -138,6 +138,7 @@ describe("alert webhook: an Alertmanager outage", () => {
     expect(view.result.explainedCount).toBe(4);
     // web needs checkout: down once orders-db is, though it does not alert (yet).
     expect(view.result.predicted.down).toEqual(["web"]);
+    expect(view.predictedTotal).toEqual({ down: 1, degraded: 0 });
     expect(view.unknownAlerts).toEqual([{ value: "payments-gw", label: "service", alerts: 1 }]);
     // courier's alert carries app=courier and job=courier-scrape: app comes first in the setting.
     expect(view.firingAlerts.find((a) => a.fingerprint === "am:a4")).toMatchObject({ component: "courier", named: { label: "app", value: "courier" } });

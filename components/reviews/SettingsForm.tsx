@@ -45,7 +45,7 @@ export function SettingsForm({ env, canWrite }: { env: string; canWrite: boolean
 
   const v = values;
   return (
-    <Card title="How needs count in the analysis">
+    <Card title="How needs count, and how alerts name components">
       {error && <FormError message={`Could not load the settings: ${error.message}`} />}
       {v && (
         <form

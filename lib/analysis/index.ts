@@ -89,7 +89,7 @@ export async function analyse(
     }),
   );
   const pr = await phase("pagerank", () => pagerank(graph));
-  const ev = await phase("eigenvector", () => eigenvector(graph));
+  const ev = await phase("eigenvector", () => eigenvector(graph, opts.eigenvector));
   const cc = await phase("clustering", () => clustering(graph));
   const ap = await phase("articulation", () => articulation(graph));
   const comps = await phase("scc", () => scc(graph));
@@ -107,8 +107,8 @@ export async function analyse(
     nodes.push({
       key: key(v),
       betweenness: bc.values[v]!,
-      pagerank: pr.values[v]!,
-      eigenvector: ev.values[v]!,
+      pagerank: pr.converged ? pr.values[v]! : null,
+      eigenvector: ev.converged ? ev.values[v]! : null,
       clustering: cc[v]!,
       articulation: ap.articulation[v] === 1,
       inCycle: comps.inCycle[v] === 1,
@@ -143,8 +143,12 @@ export async function analyse(
       exact: bc.exact,
       sampleSize: bc.sampleSize,
       betweennessThreads: bc.threadsUsed,
-      pagerankConverged: pr.converged,
-      eigenvectorConverged: ev.converged,
+      pagerank: {
+        converged: pr.converged,
+        reason: pr.converged ? null : `did not converge: PageRank still moved after ${pr.iterations} iterations`,
+        iterations: pr.iterations,
+      },
+      eigenvector: { converged: ev.converged, reason: ev.reason, iterations: ev.iterations, method: ev.method, eigenvalue: ev.eigenvalue },
       dominatorRoots: dom.roots.map(key),
       dominatorTrees:
         dom.trees?.map((t) => {

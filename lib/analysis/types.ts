@@ -52,6 +52,15 @@ export const analysisOptionsSchema = z.strictObject({
     parallelThreshold: z.number().int().min(0).optional(),
     minParallelMs: z.number().min(0).optional(),
     maxDominatorTreeEntries: z.number().int().min(0).optional(),
+    /** Tuning of the eigenvector methods (tests force a non-converging run with these). */
+    eigenvector: z
+      .strictObject({
+        tol: z.number().positive().optional(),
+        lanczosSteps: z.number().int().min(1).optional(),
+        lanczosCycles: z.number().int().min(1).optional(),
+        fillLimit: z.number().int().min(0).optional(),
+      })
+      .optional(),
 });
 
 export type AnalysisOptions = z.infer<typeof analysisOptionsSchema>;
@@ -68,8 +77,10 @@ export interface DominatorInfo {
 export interface NodeMetrics {
   key: string;
   betweenness: number;
-  pagerank: number;
-  eigenvector: number;
+  /** null when the iteration did not converge (graph.pagerank says why): never a number then. */
+  pagerank: number | null;
+  /** null when no method converged (graph.eigenvector.reason says why). */
+  eigenvector: number | null;
   clustering: number;
   articulation: boolean;
   inCycle: boolean;
@@ -104,6 +115,14 @@ export type AnalysisPhase =
   | "pinch-score"
   | "done";
 
+/** Whether an iterative measure reached its tolerance; when not, its values are withheld. */
+export interface IterativeMeasureStatus {
+  converged: boolean;
+  /** "did not converge: …" when not converged, else null. */
+  reason: string | null;
+  iterations: number;
+}
+
 export interface AnalysisResult {
   nodes: NodeMetrics[];
   graph: {
@@ -117,8 +136,8 @@ export interface AnalysisResult {
     exact: boolean;
     sampleSize: number;
     betweennessThreads: number;
-    pagerankConverged: boolean;
-    eigenvectorConverged: boolean;
+    pagerank: IterativeMeasureStatus;
+    eigenvector: IterativeMeasureStatus & { method: "exact" | "lanczos" | "shift-invert"; eigenvalue: number };
     dominatorRoots: string[];
     /** null when the trees were larger than the configured cap (compute one on demand instead). */
     dominatorTrees: DominatorTreeResult[] | null;

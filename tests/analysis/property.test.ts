@@ -158,7 +158,7 @@ describe(`${GRAPHS} seeded random directed graphs against networkx`, () => {
     let checked = 0;
     each((c, g, r) => {
       if (!r.eigenvector) return;
-      const e = eigenvector(g, { maxIter: 100_000 });
+      const e = eigenvector(g);
       expect(e.converged).toBe(true);
       expect(maxDiff(e.values, r.eigenvector), `graph ${c.id}`).toBeLessThan(TOL.eigenvector);
       checked++;

@@ -12,6 +12,7 @@
 // Propagation is a worklist over typed arrays: each need group keeps a count of members still up
 // and fires when the count reaches 0, so the work is linear in the edges touched.
 import type { CompactGraph } from "./graph";
+import type { SingleFailureBlast } from "./single-failures";
 
 export interface FailedSet {
   components?: readonly number[];
@@ -76,15 +77,6 @@ export function blastRadius(graph: CompactGraph, fail: FailedSet): BlastRadius {
   return { down: downList, degraded, failed };
 }
 
-export interface SingleFailureBlast {
-  /** Components down when this one alone fails, itself excluded. */
-  down: Int32Array;
-  /** Components degraded (and not down) when this one alone fails. */
-  degraded: Int32Array;
-  /** Σ tier weight over the down set, itself excluded (the R term of the pinch score). */
-  downTierWeight: Float64Array;
-}
-
 export const TIER_WEIGHTS: Readonly<Record<1 | 2 | 3 | 4, number>> = { 1: 8, 2: 4, 3: 2, 4: 1 };
 
 export function tierWeight(tier: number): number {
@@ -92,16 +84,16 @@ export function tierWeight(tier: number): number {
 }
 
 /**
- * The blast radius of every component failing alone, for the rankings. Exactly the propagation
- * above run once per component, with epoch stamps instead of clearing arrays; any_of groups are
- * honoured (a group with a surviving alternative stays met), so this is more than hard-edge
- * reverse reachability.
+ * The blast radius of every component failing alone by running the propagation above once per
+ * component, with epoch stamps instead of clearing arrays. Quadratic on deep estates: the analysis
+ * uses single-failures.ts, and the tests hold it to this reference.
  */
-export function singleFailureBlast(
+export function singleFailureBlastByPropagation(
   graph: CompactGraph,
-  onProgress?: (fraction: number) => void,
+  options: { sources?: Int32Array; onProgress?: (fraction: number) => void } = {},
 ): SingleFailureBlast {
   const { n, needs } = graph;
+  const onProgress = options.onProgress;
   const weight = new Float64Array(n);
   for (let v = 0; v < n; v++) weight[v] = tierWeight(graph.tier[v]!);
   const downStamp = new Int32Array(n);
@@ -115,9 +107,12 @@ export function singleFailureBlast(
   const downTierWeight = new Float64Array(n);
   const { offsets, targets } = needs.memberOf;
   const { memberOfOwner, memberOfFlags, size } = needs;
-  const step = Math.max(1, Math.floor(n / 50));
-  for (let s = 0; s < n; s++) {
-    const epoch = s + 1;
+  const sources = options.sources;
+  const count = sources ? sources.length : n;
+  const step = Math.max(1, Math.floor(count / 50));
+  for (let i = 0; i < count; i++) {
+    const s = sources ? sources[i]! : i;
+    const epoch = i + 1;
     downStamp[s] = epoch;
     queue[0] = s;
     let tail = 1;
@@ -155,7 +150,7 @@ export function singleFailureBlast(
     downCount[s] = tail - 1;
     degradedCount[s] = degraded;
     downTierWeight[s] = w;
-    if (onProgress && (s + 1) % step === 0) onProgress((s + 1) / n);
+    if (onProgress && (i + 1) % step === 0) onProgress((i + 1) / count);
   }
   return { down: downCount, degraded: degradedCount, downTierWeight };
 }

@@ -71,7 +71,7 @@ export interface CompactGraph {
 }
 
 /** Counting-sort pairs into CSR, then sort and de-duplicate each row. */
-function toCsr(n: number, from: Int32Array, to: Int32Array, m: number): Csr {
+export function toCsr(n: number, from: Int32Array, to: Int32Array, m: number): Csr {
   const counts = new Int32Array(n + 1);
   for (let e = 0; e < m; e++) counts[from[e]! + 1]!++;
   for (let v = 0; v < n; v++) counts[v + 1]! += counts[v]!;

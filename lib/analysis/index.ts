@@ -2,7 +2,7 @@
 // Pure: no database, no framework. Long phases report progress through `onProgress`.
 import { articulation } from "./articulation";
 import { betweennessParallel } from "./betweenness";
-import { singleFailureBlast } from "./blast-radius";
+import { singleFailureBlast } from "./single-failures";
 import { bootOrder } from "./boot-order";
 import { clustering } from "./clustering";
 import { dominators } from "./dominators";
@@ -32,7 +32,8 @@ export { articulation } from "./articulation";
 export { scc } from "./scc";
 export { bootOrder } from "./boot-order";
 export { dominators, dominatorTree, entryRoots } from "./dominators";
-export { blastRadius, failedByZones, singleFailureBlast, TIER_WEIGHTS } from "./blast-radius";
+export { blastRadius, failedByZones, singleFailureBlastByPropagation, TIER_WEIGHTS } from "./blast-radius";
+export { singleFailureBlast } from "./single-failures";
 export { pinchScores, isSinglePoint } from "./pinch-score";
 export { drill, type DrillRequest, type DrillResult } from "./drill";
 export { probableOrigin, type OriginResult, type OriginCandidate } from "./origin";

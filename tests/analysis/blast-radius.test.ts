@@ -2,7 +2,8 @@
 // give "degraded" (which does not propagate), an any_of group is unmet only when every member is
 // down, and a zone fails the components whose declared zones have all failed.
 import { describe, expect, it } from "vitest";
-import { blastRadius, singleFailureBlast } from "@/lib/analysis/blast-radius";
+import { blastRadius } from "@/lib/analysis/blast-radius";
+import { singleFailureBlast } from "@/lib/analysis/single-failures";
 import { drill } from "@/lib/analysis/drill";
 import { buildGraph, type CompactGraph } from "@/lib/analysis/graph";
 import type { AnalysisInput } from "@/lib/analysis/types";

@@ -1,6 +1,6 @@
 // The pinch score of DESIGN §3, worked by hand.
 import { describe, expect, it } from "vitest";
-import { singleFailureBlast } from "@/lib/analysis/blast-radius";
+import { singleFailureBlast } from "@/lib/analysis/single-failures";
 import { buildGraph } from "@/lib/analysis/graph";
 import { isSinglePoint, pinchScores } from "@/lib/analysis/pinch-score";
 import { hard, node } from "./helpers";

@@ -59,6 +59,11 @@ export interface CompactGraph {
   out: Csr;
   /** Every need, start-up-only ones included: what a cold start must order. `out` itself when there are none. */
   boot: Csr;
+  /**
+   * Aligned with boot.targets: the strongest need on that pair for a cold start, 3 = hard,
+   * 2 = start-up only, 1 = soft (a soft need can be met later: the dependent starts degraded).
+   */
+  bootStrength: Uint8Array;
   /** The same edges reversed: need → dependents. */
   in: Csr;
   /** Undirected simple projection: u–v when u→v or v→u. */
@@ -69,6 +74,8 @@ export interface CompactGraph {
   implicitKeys: readonly string[];
   needs: NeedIndex;
 }
+
+const STRENGTH_CODE = { hard: 3, startup: 2, soft: 1 } as const;
 
 /** Counting-sort pairs into CSR, then sort and de-duplicate each row. */
 export function toCsr(n: number, from: Int32Array, to: Int32Array, m: number): Csr {
@@ -166,6 +173,22 @@ export function buildGraph(input: AnalysisInput): CompactGraph {
   }
   const out = toCsr(n, f, t, m);
   const boot = mb === m ? out : toCsr(n, bf, bt, mb);
+  const bootStrength = new Uint8Array(boot.targets.length);
+  for (let e = 0; e < m0; e++) {
+    const u = from[e]!;
+    const v = to[e]!;
+    if (u === v) continue;
+    const code = STRENGTH_CODE[edges[e]!.strength];
+    // Rows are sorted: binary search for the pair's slot.
+    let lo = boot.offsets[u]!;
+    let hi = boot.offsets[u + 1]! - 1;
+    while (lo < hi) {
+      const mid = (lo + hi) >> 1;
+      if (boot.targets[mid]! < v) lo = mid + 1;
+      else hi = mid;
+    }
+    if (code > bootStrength[lo]!) bootStrength[lo] = code;
+  }
   const inn = reverseCsr(n, out);
   const um = out.targets.length;
   const uf = new Int32Array(2 * um);
@@ -193,6 +216,7 @@ export function buildGraph(input: AnalysisInput): CompactGraph {
     selfLoop,
     out,
     boot,
+    bootStrength,
     in: inn,
     undirected,
     edgeCount: um,

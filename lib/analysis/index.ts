@@ -10,6 +10,7 @@ import { eigenvector } from "./eigenvector";
 import { buildGraph, type CompactGraph } from "./graph";
 import { pagerank } from "./pagerank";
 import { pinchScores } from "./pinch-score";
+import { competitionRanks } from "./ranks";
 import { scc } from "./scc";
 import {
   DEFAULT_PINCH_WEIGHTS,
@@ -20,7 +21,10 @@ import {
   type AnalysisResult,
   type NodeMetrics,
   type ProgressCallback,
+  type RankedMeasure,
+  RANKED_MEASURES,
 } from "./types";
+import type { Strength } from "../inventory/types";
 
 export * from "./types";
 export { buildGraph, type CompactGraph } from "./graph";
@@ -31,12 +35,15 @@ export { clustering } from "./clustering";
 export { articulation } from "./articulation";
 export { scc } from "./scc";
 export { bootOrder } from "./boot-order";
-export { dominators, dominatorTree, entryRoots } from "./dominators";
+export { dominators, dominatorTree, entryRoots, virtualRootDominators } from "./dominators";
+export { competitionRanks } from "./ranks";
 export { blastRadius, failedByZones, singleFailureBlastByPropagation, TIER_WEIGHTS } from "./blast-radius";
 export { singleFailureBlast } from "./single-failures";
 export { pinchScores, isSinglePoint } from "./pinch-score";
 export { drill, type DrillRequest, type DrillResult } from "./drill";
 export { probableOrigin, type OriginResult, type OriginCandidate } from "./origin";
+
+const STRENGTH_OF_CODE: Record<number, Strength> = { 3: "hard", 2: "startup", 1: "soft" };
 
 // Rough share of the total run time of each phase on dependency-shaped graphs, so that the
 // progress fraction moves evenly rather than jumping.
@@ -95,21 +102,32 @@ export async function analyse(
   const ap = await phase("articulation", () => articulation(graph));
   const comps = await phase("scc", () => scc(graph));
   const boot = await phase("boot-order", () => bootOrder(graph, graph.boot === graph.out ? comps : scc(graph, graph.boot)));
-  const dom = await phase("dominators", () =>
-    dominators(graph, { maxTreeEntries: opts.maxDominatorTreeEntries }),
-  );
+  const dom = await phase("dominators", () => dominators(graph, { workLimit: opts.dominatorWorkLimit }));
   const blast = await phase("blast-radius", (report) => singleFailureBlast(graph, report));
   const pinch = await phase("pinch-score", () => pinchScores(graph, bc.values, blast.downTierWeight, weights));
 
-  const { keys } = graph;
+  const { keys, n } = graph;
   const key = (v: number): string => keys[v]!;
+  const prValue = (v: number): number | null => (pr.converged ? pr.values[v]! : null);
+  const evValue = (v: number): number | null => (ev.converged ? ev.values[v]! : null);
+  const ranked: Record<RankedMeasure, ReturnType<typeof competitionRanks>> = {
+    betweenness: competitionRanks(bc.values),
+    pagerank: competitionRanks(Array.from({ length: n }, (_, v) => prValue(v))),
+    eigenvector: competitionRanks(Array.from({ length: n }, (_, v) => evValue(v))),
+    pinchScore: competitionRanks(pinch.score),
+    blastDown: competitionRanks(blast.down),
+  };
+  const ranksOf = (v: number): NodeMetrics["ranks"] =>
+    Object.fromEntries(RANKED_MEASURES.map((m) => [m, { rank: ranked[m].rank[v] ?? null, tied: ranked[m].tied[v]! }])) as NodeMetrics["ranks"];
+  const isEntry = new Uint8Array(n);
+  for (const r of dom.roots) isEntry[r] = 1;
   const nodes: NodeMetrics[] = [];
-  for (let v = 0; v < graph.n; v++) {
+  for (let v = 0; v < n; v++) {
     nodes.push({
       key: key(v),
       betweenness: bc.values[v]!,
-      pagerank: pr.converged ? pr.values[v]! : null,
-      eigenvector: ev.converged ? ev.values[v]! : null,
+      pagerank: prValue(v),
+      eigenvector: evValue(v),
       clustering: cc[v]!,
       articulation: ap.articulation[v] === 1,
       inCycle: comps.inCycle[v] === 1,
@@ -117,46 +135,56 @@ export async function analyse(
       blastDegraded: blast.degraded[v]!,
       pinchScore: pinch.score[v]!,
       singlePoint: pinch.s[v] === 1,
+      ranks: ranksOf(v),
       bootStage: boot.stageOf[v]!,
+      waitsOnCycle: boot.waitsOnCycle[v] === 1,
+      entry: isEntry[v] === 1,
       dominator: {
         reachedFrom: dom.reachedFrom[v]!,
         dominatesFrom: dom.dominatesFrom[v]!,
         maxDominated: dom.maxDominated[v]!,
+        allDominated: dom.allDominated[v]!,
+        allIdom: dom.allIdom[v]! >= 0 ? key(dom.allIdom[v]!) : null,
+        topEntries: dom.topEntries[v]!.map((t) => ({ entry: key(t.entry), dominated: t.dominated })),
       },
     });
   }
   const selfLoops: string[] = [];
-  for (let v = 0; v < graph.n; v++) if (graph.selfLoop[v]) selfLoops.push(key(v));
+  for (let v = 0; v < n; v++) if (graph.selfLoop[v]) selfLoops.push(key(v));
   const cycles = comps.cycles.map((c) => c.map(key));
   const waitingOnCycle: string[] = [];
-  for (let v = 0; v < graph.n; v++) if (boot.waitsOnCycle[v]) waitingOnCycle.push(key(v));
+  for (let v = 0; v < n; v++) if (boot.waitsOnCycle[v]) waitingOnCycle.push(key(v));
   onProgress?.(1, "done");
   return {
     nodes,
     graph: {
-      nodeCount: graph.n,
+      nodeCount: n,
       edgeCount: graph.edgeCount,
       selfLoops,
       implicitKeys: [...graph.implicitKeys],
       bridges: ap.bridges.map(([a, b]) => [key(a), key(b)]),
       cycles,
-      bootOrder: { stages: boot.stages.map((s) => s.map(key)), cycles: boot.cycles.map((c) => c.map(key)), waitingOnCycle },
+      bootOrder: {
+        stages: boot.stages.map((s) => s.map(key)),
+        cycles: boot.cycles.map((c) => c.map(key)),
+        waitingOnCycle,
+        plans: boot.plans.map((p) => ({
+          order: p.order.map(key),
+          breaks: p.breaks.map((b) => ({ from: key(b.from), to: key(b.to), strength: STRENGTH_OF_CODE[b.strength] ?? "hard" })),
+          breakCount: p.breakCount,
+        })),
+      },
       exact: bc.exact,
       sampleSize: bc.sampleSize,
       betweennessThreads: bc.threadsUsed,
+      betweennessMs: timings.betweenness ?? 0,
       pagerank: {
         converged: pr.converged,
         reason: pr.converged ? null : `did not converge: PageRank still moved after ${pr.iterations} iterations`,
         iterations: pr.iterations,
       },
       eigenvector: { converged: ev.converged, reason: ev.reason, iterations: ev.iterations, method: ev.method, eigenvalue: ev.eigenvalue },
-      dominatorRoots: dom.roots.map(key),
-      dominatorTrees:
-        dom.trees?.map((t) => {
-          const idom: Record<string, string> = {};
-          for (let i = 0; i < t.nodes.length; i++) idom[key(t.nodes[i]!)] = key(t.idom[i]!);
-          return { root: key(t.root), idom };
-        }) ?? null,
+      dominators: { roots: dom.roots.map(key), complete: dom.complete, entriesAnalysed: dom.entriesAnalysed },
       weights,
     },
     timings,

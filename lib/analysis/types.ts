@@ -51,7 +51,8 @@ export const analysisOptionsSchema = z.strictObject({
     threads: z.number().int().min(1).max(64).optional(),
     parallelThreshold: z.number().int().min(0).optional(),
     minParallelMs: z.number().min(0).optional(),
-    maxDominatorTreeEntries: z.number().int().min(0).optional(),
+    /** Most node and edge visits spent on per-entry dominator trees (the all-entries tree always runs). */
+    dominatorWorkLimit: z.number().int().min(0).optional(),
     /** Tuning of the eigenvector methods (tests force a non-converging run with these). */
     eigenvector: z
       .strictObject({
@@ -68,11 +69,29 @@ export type AnalysisOptions = z.infer<typeof analysisOptionsSchema>;
 export interface DominatorInfo {
   /** Entry components (tier 1, no dependents; not this one) that reach this component. */
   reachedFrom: number;
-  /** Of those, how many it strictly dominates at least one component from. */
+  /** Of those, how many it strictly dominates at least one component from: every path from that entry to something passes through it. */
   dominatesFrom: number;
   /** Most components it strictly dominates from any one entry. */
   maxDominated: number;
+  /** Components it strictly dominates from all entries together (the virtual root). */
+  allDominated: number;
+  /** Its immediate dominator from all entries together; null when that is the virtual root itself (or it is not reached). */
+  allIdom: string | null;
+  /** The entries it dominates the most from, most first (at most 20). */
+  topEntries: Array<{ entry: string; dominated: number }>;
 }
+
+/** The measures ranked with ties. */
+export const RANKED_MEASURES = ["betweenness", "pagerank", "eigenvector", "pinchScore", "blastDown"] as const;
+export type RankedMeasure = (typeof RANKED_MEASURES)[number];
+
+/** Competition rank (1, 2, 2, 4), rank 1 the highest value, and how many share it; rank null where the measure is withheld. */
+export interface RankWithTies {
+  rank: number | null;
+  tied: number;
+}
+
+export type NodeRanks = Record<RankedMeasure, RankWithTies>;
 
 export interface NodeMetrics {
   key: string;
@@ -90,15 +109,22 @@ export interface NodeMetrics {
   pinchScore: number;
   /** S of the pinch score: one replica, or fewer than two distinct zones (common practice). */
   singlePoint: boolean;
+  ranks: NodeRanks;
   /** Stage in the boot order (0 = needs nothing). */
   bootStage: number;
+  /** Not in a cycle itself, but needs (transitively) something that is: it waits on the cycle. */
+  waitsOnCycle: boolean;
+  /** An entry point: tier 1 and nothing depends on it. */
+  entry: boolean;
   dominator: DominatorInfo;
 }
 
-export interface DominatorTreeResult {
-  root: string;
-  /** Immediate dominator of every component reachable from the root (the root maps to itself). */
-  idom: Record<string, string>;
+export interface BootCycleResult {
+  /** Members in a suggested start order. */
+  order: string[];
+  /** Needs to break first: the dependent starts before what it needs (soft ones start degraded). */
+  breaks: Array<{ from: string; to: string; strength: Strength }>;
+  breakCount: number;
 }
 
 export type AnalysisPhase =
@@ -132,15 +158,15 @@ export interface AnalysisResult {
     implicitKeys: string[];
     bridges: Array<[string, string]>;
     cycles: string[][];
-    bootOrder: { stages: string[][]; cycles: string[][]; waitingOnCycle: string[] };
+    bootOrder: { stages: string[][]; cycles: string[][]; waitingOnCycle: string[]; plans: BootCycleResult[] };
     exact: boolean;
     sampleSize: number;
     betweennessThreads: number;
+    /** Milliseconds the betweenness phase actually spent, threads included. */
+    betweennessMs: number;
     pagerank: IterativeMeasureStatus;
     eigenvector: IterativeMeasureStatus & { method: "exact" | "lanczos" | "shift-invert"; eigenvalue: number };
-    dominatorRoots: string[];
-    /** null when the trees were larger than the configured cap (compute one on demand instead). */
-    dominatorTrees: DominatorTreeResult[] | null;
+    dominators: { roots: string[]; complete: boolean; entriesAnalysed: number };
     weights: PinchWeights;
   };
   /** Milliseconds per phase. */

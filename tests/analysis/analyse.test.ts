@@ -36,15 +36,17 @@ describe("analyse", () => {
     expect(api.betweenness).toBeCloseTo(1 / 12, 12); // web→db through api, over (5−1)(5−2)
     expect(api.blastDown).toBe(1);
     expect(api.articulation).toBe(true);
-    expect(api.dominator).toEqual({ reachedFrom: 1, dominatesFrom: 1, maxDominated: 1 });
+    expect(api.dominator).toEqual({ reachedFrom: 1, dominatesFrom: 1, maxDominated: 1, allDominated: 1, allIdom: "web", topEntries: [{ entry: "web", dominated: 1 }] });
+    expect(r.nodes.find((n) => n.key === "web")!.dominator.allDominated).toBe(4);
+    expect(r.nodes.find((n) => n.key === "web")!.entry).toBe(true);
     expect(r.nodes.find((n) => n.key === "web")!.blastDegraded).toBe(0);
     expect(r.nodes.find((n) => n.key === "a")!.inCycle).toBe(true);
     expect(r.graph.cycles).toEqual([["a", "b"]]);
     expect(r.graph.exact).toBe(true);
     expect(r.graph.sampleSize).toBe(5);
     expect(r.graph.edgeCount).toBe(5);
-    expect(r.graph.dominatorRoots).toEqual(["web"]);
-    expect(r.graph.dominatorTrees?.[0]?.idom).toEqual({ web: "web", api: "web", db: "api", a: "web", b: "a" });
+    expect(r.graph.dominators).toEqual({ roots: ["web"], complete: true, entriesAnalysed: 1 });
+    expect(Object.fromEntries(r.nodes.map((x) => [x.key, x.dominator.allIdom]))).toEqual({ web: null, api: "web", db: "api", a: "web", b: "a" });
     expect(r.graph.bootOrder.stages).toEqual([["db", "a", "b"], ["api"], ["web"]]);
     expect(Object.keys(r.timings)).toContain("blast-radius");
   });

@@ -21,7 +21,7 @@ export class AnalysisRun extends Model<InferAttributes<AnalysisRun>, InferCreati
   declare exact: boolean | null;
   declare sampleSize: number | null;
   declare timings: Record<string, number> | null;
-  /** graph-level results: cycles, bridges, boot order, dominator summary */
+  /** a small summary of graph-level results (counts, convergence, weights); the results themselves live in component_metrics, component_dominance and analysis_cycles */
   declare graph: unknown;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;

@@ -20,6 +20,8 @@ import { Team } from "./Team";
 import { User } from "./User";
 import { AnalysisRun } from "./AnalysisRun";
 import { ComponentMetric } from "./ComponentMetric";
+import { AnalysisCycle } from "./AnalysisCycle";
+import { ComponentDominance } from "./ComponentDominance";
 import { MapPosition } from "./MapPosition";
 // invites (admin users screen)
 import { Invite } from "./Invite";
@@ -44,6 +46,8 @@ function initModels(sequelize: Sequelize) {
     SignInAttempt: SignInAttempt.initModel(sequelize),
     AnalysisRun: AnalysisRun.initModel(sequelize),
     ComponentMetric: ComponentMetric.initModel(sequelize),
+    AnalysisCycle: AnalysisCycle.initModel(sequelize),
+    ComponentDominance: ComponentDominance.initModel(sequelize),
     MapPosition: MapPosition.initModel(sequelize),
     // invites (admin users screen)
     Invite: Invite.initModel(sequelize),

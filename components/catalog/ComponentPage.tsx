@@ -10,14 +10,21 @@ import { dependencyChangeLine, dependencyLine, fieldChanges } from "@/components
 import { MEASURE_HELP } from "@/components/rankings/measures";
 import { Badge } from "@/components/ui/Badge";
 import { Card } from "@/components/ui/Card";
-import { ageOf, betweennessPct, dateTime, measure, pinchScore, plural, safeHref, trafficLine } from "@/components/ui/format";
+import { ageOf, betweennessPct, convergedMeasure, dateTime, measure, NOT_CONVERGED, pinchScore, plural, safeHref, trafficLine } from "@/components/ui/format";
 import { Notice } from "@/components/ui/Notice";
 import { fetchJson, type ApiError } from "@/lib/client/fetcher";
 import type { ComponentHistoryEntry } from "@/lib/data/component-history";
 import type { ComponentDetail, ComponentEdge, getComponentMetrics } from "@/lib/data/component-detail";
 
 type Metrics = NonNullable<Awaited<ReturnType<typeof getComponentMetrics>>>;
-type DetailResponse = ComponentDetail & { metrics: Metrics | null; snapshot: { number: number; createdAt: string } | null };
+type Convergence = { converged: boolean; reason: string | null } | null;
+type DetailResponse = ComponentDetail & {
+  metrics: Metrics | null;
+  snapshot: { number: number; createdAt: string } | null;
+  /** for an entry point: what every path from it passes through */
+  fromHere: { reached: number; total: number; through: Array<{ key: string; dominated: number }> } | null;
+  measures: { pagerank: Convergence; eigenvector: Convergence; dominators: { entries: number; complete: boolean; entriesAnalysed: number } | null };
+};
 interface HistoryResponse {
   key: string;
   scanned: number;
@@ -179,12 +186,23 @@ export function ComponentPage({ env, componentKey }: { env: string; componentKey
       <Card title={d.snapshot ? `Measures (snapshot #${d.snapshot.number}, pushed ${ageOf(d.snapshot.createdAt)})` : "Measures"}>
         {m ? (
           <ul className="grid gap-2 text-sm md:grid-cols-2" data-testid="measures">
-            <li><span className="font-medium">Rank #{m.rank}</span> <span className="text-muted">by betweenness in this environment.</span></li>
+            <li>
+              <span className="font-medium">Rank #{m.rank}</span>{" "}
+              <span className="text-muted">
+                by betweenness in this environment{m.tied > 1 ? `, shared with ${plural(m.tied - 1, "other component")} of equal value (equal values share a rank: 1, 2, 2, 4)` : ""}.
+              </span>
+            </li>
             <li><span className="font-medium">Betweenness {betweennessPct(m.betweenness)}</span> <span className="text-muted">— that share of the shortest dependency paths between other components run through it.</span></li>
             <li><span className="font-medium">{MEASURE_HELP.blastDown.label}: {plural(m.blastRadius.down, "component")}</span> <span className="text-muted">— go down if it fails alone, itself not counted; {m.blastRadius.degraded} more degrade.</span></li>
             <li><span className="font-medium">Pinch score {pinchScore(m.pinchScore)}</span> <span className="text-muted">of 100 — {MEASURE_HELP.pinchScore.short}</span></li>
-            <li><span className="font-medium">PageRank {measure(m.pagerank)}</span> <span className="text-muted">— {MEASURE_HELP.pagerank.short}</span></li>
-            <li><span className="font-medium">Eigenvector {measure(m.eigenvector)}</span> <span className="text-muted">— {MEASURE_HELP.eigenvector.short}</span></li>
+            <li>
+              <span className="font-medium">PageRank {convergedMeasure(m.pagerank)}</span>{" "}
+              <span className="text-muted">— {m.pagerank === null ? (d.measures.pagerank?.reason ?? NOT_CONVERGED) : MEASURE_HELP.pagerank.short}</span>
+            </li>
+            <li>
+              <span className="font-medium">Eigenvector {convergedMeasure(m.eigenvector)}</span>{" "}
+              <span className="text-muted">— {m.eigenvector === null ? (d.measures.eigenvector?.reason ?? NOT_CONVERGED) : MEASURE_HELP.eigenvector.short}</span>
+            </li>
             <li><span className="font-medium">Clustering {measure(m.clustering)}</span> <span className="text-muted">— {MEASURE_HELP.clustering.short}</span></li>
             <li>
               <span className="font-medium">{m.articulation ? "Splits the graph" : "Does not split the graph"}</span>{" "}
@@ -201,6 +219,8 @@ export function ComponentPage({ env, componentKey }: { env: string; componentKey
         <p className="mt-3 text-xs text-muted">Measures are only as good as the inventory and the traces behind it: a dependency nobody declared and no trace caught is not counted.</p>
       </Card>
 
+      {m && <DominatorsCard env={env} d={d} m={m} />}
+
       <div className="grid gap-4 lg:grid-cols-2">
         <Card title={`Needs (${d.needs.length})`}>
           <EdgeList env={env} edges={d.needs} empty="Needs nothing that is declared." />
@@ -212,6 +232,98 @@ export function ComponentPage({ env, componentKey }: { env: string; componentKey
 
       {history.data ? <HistoryCard env={env} data={history.data} /> : history.error ? <Notice tone="error" title="Could not load the history">{history.error.message}</Notice> : null}
     </div>
+  );
+}
+
+function ComponentLink({ env, k }: { env: string; k: string }) {
+  return (
+    <Link href={`/environments/${env}/components/${encodeURIComponent(k)}`} className="font-mono text-ink underline decoration-line underline-offset-2 hover:decoration-brass">
+      {k}
+    </Link>
+  );
+}
+
+/** Dominators in words: which entry points' every path runs through this component, and from an entry, what they all run through. */
+function DominatorsCard({ env, d, m }: { env: string; d: DetailResponse; m: Metrics }) {
+  const dom = m.dominators;
+  const status = d.measures.dominators;
+  if (dom.entriesDominated === null) {
+    return (
+      <Card title="Every path passes through">
+        <p className="text-sm text-muted">This analysis predates dominators; the next push or re-analysis adds them.</p>
+      </Card>
+    );
+  }
+  const listed = dom.fromEntries;
+  const more = dom.entriesDominated - listed.length;
+  return (
+    <Card title="Every path passes through" action={<Link href={`/environments/${env}/map?focus=${encodeURIComponent(d.key)}&colour=entriesDominated`} className="text-xs text-brass hover:underline">Entry points on the map</Link>}>
+      <div className="space-y-3 text-sm" data-testid="dominators">
+        {d.fromHere && (
+          <div>
+            <p>
+              <Badge tone="info" title="Tier 1 and nothing depends on it: where requests come in">entry point</Badge>{" "}
+              {d.fromHere.total === 0 ? (
+                <span>No single component lies on every path from {d.key} to the {plural(d.fromHere.reached, "component")} it reaches.</span>
+              ) : (
+                <span>
+                  Every path from <span className="font-mono">{d.key}</span> to what follows passes through {plural(d.fromHere.total, "component")}; each one&apos;s loss cuts {d.key} off from the components listed with it.
+                </span>
+              )}
+            </p>
+            {d.fromHere.through.length > 0 && (
+              <ol className="mt-1 space-y-0.5" data-testid="passes-through">
+                {d.fromHere.through.map((t) => (
+                  <li key={t.key}>
+                    <ComponentLink env={env} k={t.key} /> <span className="text-muted">— every path from {d.key} to {plural(t.dominated, "component")} passes through it</span>
+                  </li>
+                ))}
+              </ol>
+            )}
+          </div>
+        )}
+        {listed.length > 0 ? (
+          <div>
+            <p>
+              For {dom.entriesDominated} of the {plural(dom.entriesReaching ?? 0, "entry point")} that reach it, every path to something beyond passes through <span className="font-mono">{d.key}</span>:
+            </p>
+            <ul className="mt-1 space-y-0.5" data-testid="dominated-from">
+              {listed.map((e) => (
+                <li key={e.entry}>
+                  every path from <ComponentLink env={env} k={e.entry} /> passes through this <span className="text-muted">to reach {plural(e.dominated, "component")}</span>
+                </li>
+              ))}
+              {more > 0 && <li className="text-muted">and from {plural(more, "more entry point")}.</li>}
+            </ul>
+          </div>
+        ) : (
+          !m.entry && (
+            <p className="text-muted">
+              {dom.entriesReaching ? `Reached from ${plural(dom.entriesReaching, "entry point")}, each of which has another way around it.` : "No entry point (tier 1, nothing depends on it) reaches it."}
+            </p>
+          )
+        )}
+        <p>
+          {dom.dominatedAll ? (
+            <span>
+              From all entry points together, every path to {plural(dom.dominatedAll, "component")} passes through it.
+            </span>
+          ) : (
+            <span className="text-muted">From all entry points together, nothing depends on it alone.</span>
+          )}{" "}
+          {dom.idomAll && (
+            <span className="text-muted">
+              Every path from any entry point to it passes through <ComponentLink env={env} k={dom.idomAll} />.
+            </span>
+          )}
+        </p>
+        {status && !status.complete && (
+          <Notice tone="info" title="Not every entry point was analysed">
+            Per-entry dominators cover {status.entriesAnalysed} of {status.entries} entry points (the analysis&apos; work limit); the counts above are at least these.
+          </Notice>
+        )}
+      </div>
+    </Card>
   );
 }
 

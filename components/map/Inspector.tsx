@@ -4,7 +4,7 @@
 import { useId, useState, type FormEvent, type ReactNode } from "react";
 import { z } from "zod";
 import { SLUG_PATTERN } from "@/lib/inventory/types";
-import { betweennessPct, measure, pinchScore } from "@/components/ui/format";
+import { betweennessPct, convergedMeasure, measure, pinchScore } from "@/components/ui/format";
 import { KIND_LABEL } from "./shapes";
 import type { MapGraph, MapMetrics, MapNode } from "./types";
 
@@ -40,6 +40,12 @@ export const MEASURE_ROWS: MeasureRow[] = [
     format: (m) => m.blastDown.toString(),
   },
   {
+    id: "entriesDominated",
+    label: "Entry points it dominates",
+    meaning: "Front doors (tier 1, nothing needs them) from which every path to something passes through it.",
+    format: (m) => (m.entriesDominated === null || m.entriesDominated === undefined ? "—" : m.entriesDominated.toString()),
+  },
+  {
     id: "blastDegraded",
     label: "Degraded with it",
     meaning: "Components that stay up but degrade when it fails, through soft needs.",
@@ -49,13 +55,13 @@ export const MEASURE_ROWS: MeasureRow[] = [
     id: "pagerank",
     label: "PageRank",
     meaning: "How much of the estate leans on it, directly or through the things that lean on it.",
-    format: (m) => measure(m.pagerank),
+    format: (m) => convergedMeasure(m.pagerank),
   },
   {
     id: "eigenvector",
     label: "Eigenvector",
     meaning: "High when its neighbours are themselves well connected: it sits in the dense core.",
-    format: (m) => measure(m.eigenvector),
+    format: (m) => convergedMeasure(m.eigenvector),
   },
   {
     id: "clustering",

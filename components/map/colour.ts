@@ -25,6 +25,7 @@ export const MODE_LABELS: Record<ColourMode, string> = {
   betweenness: "Betweenness",
   pinchScore: "Pinch score",
   blastDown: "Takes down",
+  entriesDominated: "Entry points it dominates",
   tier: "Tier",
   team: "Team",
 };
@@ -85,7 +86,7 @@ export interface MeasureScale {
 }
 
 export function measureValue(node: MapNode, mode: MeasureMode): number | null {
-  return node.metrics ? node.metrics[mode] : null;
+  return node.metrics ? (node.metrics[mode] ?? null) : null;
 }
 
 export function measureScale(nodes: readonly MapNode[], mode: MeasureMode): MeasureScale {

@@ -7,14 +7,19 @@ export const MAP_KINDS = [...COMPONENT_KINDS, "undeclared"] as const satisfies r
 
 const metricsSchema = z.object({
   betweenness: z.number(),
-  pagerank: z.number(),
-  eigenvector: z.number(),
+  /** null: the measure did not converge in this analysis */
+  pagerank: z.number().nullable(),
+  eigenvector: z.number().nullable(),
   clustering: z.number(),
   blastDown: z.number(),
   blastDegraded: z.number(),
   pinchScore: z.number(),
   articulation: z.boolean(),
   inCycle: z.boolean(),
+  /** entry points from which every path to something passes through it (null: not computed) */
+  entriesDominated: z.number().nullable().optional(),
+  /** components every path from any entry passes through it to reach */
+  dominatedAll: z.number().nullable().optional(),
 });
 
 export const mapNodeSchema = z.object({
@@ -68,5 +73,5 @@ export type Position = { x: number; y: number };
 export type PinnedPositions = Record<string, Position>;
 
 /** What the map colours nodes by. */
-export const COLOUR_MODES = ["betweenness", "pinchScore", "blastDown", "tier", "team"] as const;
+export const COLOUR_MODES = ["betweenness", "pinchScore", "blastDown", "entriesDominated", "tier", "team"] as const;
 export type ColourMode = (typeof COLOUR_MODES)[number];

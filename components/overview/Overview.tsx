@@ -18,9 +18,9 @@ import { IncidentBanner } from "@/components/incidents/IncidentBanner";
 type EnvironmentResponse = EnvironmentSummary & { counts: EnvironmentCounts };
 
 
-interface BootOrderResponse {
-  cycles: string[][];
-  stages: string[][];
+/** GET …/boot-order?stages=false: only the cycles that block a cold start. */
+interface BootCyclesResponse {
+  cycles: Array<{ members: string[]; breakCount: number | null }>;
 }
 
 interface ImportsResponse {
@@ -82,7 +82,7 @@ export function Overview({ env }: { env: string }) {
   const environments = useSWR<{ items: EnvironmentSummary[] }, ApiError>(missing ? "/api/v1/environments" : null, fetchJson);
   const byPinch = useSWR<RankingsResponse, ApiError>(`/api/v1/environments/${env}/rankings?sort=pinchScore&limit=5`, fetchJson, refresh);
   const byBetweenness = useSWR<RankingsResponse, ApiError>(`/api/v1/environments/${env}/rankings?sort=betweenness&limit=5`, fetchJson, refresh);
-  const boot = useSWR<BootOrderResponse, ApiError>(`/api/v1/environments/${env}/boot-order`, fetchJson, refresh);
+  const boot = useSWR<BootCyclesResponse, ApiError>(`/api/v1/environments/${env}/boot-order?stages=false`, fetchJson, refresh);
   const imports = useSWR<ImportsResponse, ApiError>(`/api/v1/environments/${env}/imports?limit=1`, fetchJson, refresh);
   const health = useSWR<HealthResponse, ApiError>("/api/health", fetchJson, refresh);
   const summary = environment.data;
@@ -156,15 +156,16 @@ export function Overview({ env }: { env: string }) {
         <TopList env={env} title="Top 5 by betweenness (most paths through it)" items={byBetweenness.data?.items} error={byBetweenness.error} value={(i) => betweennessPct(i.betweenness)} />
       </div>
       {cycles.length > 0 && (
-        <Card title="Dependency cycles">
+        <Card title="Dependency cycles" action={<Link className="text-xs text-brass hover:underline" href={`/environments/${env}/boot-order`}>Cold start</Link>}>
           <ul className="space-y-1 text-sm">
-            {cycles.map((c) => (
+            {cycles.slice(0, 10).map(({ members: c }) => (
               <li key={c.join(">")} className="font-mono">
-                {c.length === 2 ? c.join(" ⇄ ") : `${c.length} components: ${c.join(", ")}`}
+                {c.length === 2 ? c.join(" ⇄ ") : c.length <= 6 ? `${c.length} components: ${c.join(", ")}` : `${c.length} components: ${c.slice(0, 5).join(", ")}, …`}
               </li>
             ))}
+            {cycles.length > 10 && <li className="text-muted">and {cycles.length - 10} more</li>}
           </ul>
-          <p className="mt-2 text-xs text-muted">Each member waits on another: after a full outage none of them can start without manual help.</p>
+          <p className="mt-2 text-xs text-muted">Each member waits on another: after a full outage none of them can start without manual help. The cold-start screen says which needs to break first.</p>
         </Card>
       )}
       <p className="text-xs text-muted">

@@ -12,7 +12,7 @@ import { Badge } from "@/components/ui/Badge";
 import { Button } from "@/components/ui/Button";
 import { Card } from "@/components/ui/Card";
 import { SelectField, TextField } from "@/components/ui/LabelledField";
-import { betweennessPct, measure, pinchScore } from "@/components/ui/format";
+import { betweennessPct, measure, NOT_CONVERGED, pinchScore, plural, rankLabel } from "@/components/ui/format";
 import { Notice } from "@/components/ui/Notice";
 import { useUrlState } from "@/components/ui/url-state";
 import { fetchJson, type ApiError } from "@/lib/client/fetcher";
@@ -33,6 +33,13 @@ interface Row extends RankingItem {
 
 const col = createColumnHelper<Row>();
 const num = "text-right font-mono tabular-nums";
+
+const filtered = (f: Record<string, string>): boolean => Object.values(f).some(Boolean);
+
+/** A measure value, or the words saying it was withheld. */
+function Converged({ value }: { value: number | null }) {
+  return value === null ? <span className="text-xs text-degraded">{NOT_CONVERGED}</span> : <>{measure(value)}</>;
+}
 
 export function PinchPoints({ env }: { env: string }) {
   const url = useUrlState();
@@ -67,7 +74,19 @@ export function PinchPoints({ env }: { env: string }) {
 
   const columns = useMemo(
     () => [
-      col.accessor("rank", { header: "#", meta: { className: `${num} w-10` } }),
+      col.accessor((r) => r.position, {
+        id: "rank",
+        header: "#",
+        cell: (i) => {
+          const p = i.getValue();
+          return (
+            <span title={p.tied > 1 ? `Shares rank ${p.rank} with ${p.tied - 1} other component${p.tied > 2 ? "s" : ""} of equal value` : undefined} data-testid="rank">
+              {rankLabel(p)}
+            </span>
+          );
+        },
+        meta: { className: `${num} w-10` },
+      }),
       col.accessor("key", {
         header: "Component",
         cell: (info) => {
@@ -98,11 +117,16 @@ export function PinchPoints({ env }: { env: string }) {
       col.accessor("tier", { header: "Tier", meta: { className: num } }),
       col.accessor("kind", { header: "Kind", cell: (i) => <span className="text-muted">{i.getValue()}</span> }),
       col.accessor("betweenness", { header: "Betweenness", cell: (i) => betweennessPct(i.getValue()), meta: { className: num, help: MEASURE_HELP.betweenness.short } }),
-      col.accessor("pagerank", { header: "PageRank", cell: (i) => measure(i.getValue()), meta: { className: num, help: MEASURE_HELP.pagerank.short } }),
-      col.accessor("eigenvector", { header: "Eigenvector", cell: (i) => measure(i.getValue()), meta: { className: num, help: MEASURE_HELP.eigenvector.short } }),
+      col.accessor("pagerank", { header: "PageRank", cell: (i) => <Converged value={i.getValue()} />, meta: { className: num, help: MEASURE_HELP.pagerank.short } }),
+      col.accessor("eigenvector", { header: "Eigenvector", cell: (i) => <Converged value={i.getValue()} />, meta: { className: num, help: MEASURE_HELP.eigenvector.short } }),
       col.accessor("clustering", { header: "Clustering", cell: (i) => measure(i.getValue()), meta: { className: num, help: MEASURE_HELP.clustering.short } }),
       col.accessor((r) => r.blastRadius.down, { id: "blastDown", header: MEASURE_HELP.blastDown.label, meta: { className: num, help: MEASURE_HELP.blastDown.short } }),
       col.accessor((r) => r.blastRadius.degraded, { id: "blastDegraded", header: "Degraded", meta: { className: num, help: MEASURE_HELP.blastDegraded.short } }),
+      col.accessor("entriesDominated", {
+        header: MEASURE_HELP.entriesDominated.label,
+        cell: (i) => i.getValue() ?? "—",
+        meta: { className: num, help: MEASURE_HELP.entriesDominated.short },
+      }),
       col.accessor("pinchScore", { header: MEASURE_HELP.pinchScore.label, cell: (i) => pinchScore(i.getValue()), meta: { className: num, help: MEASURE_HELP.pinchScore.short } }),
       col.accessor("articulation", { header: MEASURE_HELP.articulation.label, cell: (i) => (i.getValue() ? <Badge tone="info">splits the graph</Badge> : null), meta: { help: MEASURE_HELP.articulation.short } }),
       col.accessor("inCycle", { header: "Cycle", cell: (i) => (i.getValue() ? <Badge tone="cycle">in a cycle</Badge> : null), meta: { help: MEASURE_HELP.inCycle.short } }),
@@ -123,6 +147,13 @@ export function PinchPoints({ env }: { env: string }) {
   const total = rankings.data?.total ?? 0;
   const pages = Math.max(1, Math.ceil(total / PAGE_SIZE));
   const error = rankings.error;
+  const measures = rankings.data?.analysis.measures;
+  const items = rankings.data?.items ?? [];
+  const anyTie = items.some((i) => i.position.tied > 1);
+  // Every component equal in the measure ranked by (an estate where nothing lies between two others):
+  // all share rank 1, and the order shown is only by key.
+  const allTied = items.length > 0 && items[0]!.position.rank === 1 && items[0]!.position.tied >= total && !filtered(filters);
+  const rankByLabel = rankings.data ? (MEASURE_HELP[rankings.data.rankBy as keyof typeof MEASURE_HELP]?.label ?? rankings.data.rankBy) : "";
 
   return (
     <div className="space-y-4">
@@ -136,6 +167,28 @@ export function PinchPoints({ env }: { env: string }) {
         </a>
       </div>
       {rankings.data && <SnapshotMeta meta={rankings.data} />}
+      {measures?.eigenvector?.converged === false && (
+        <Notice tone="caution" title="Eigenvector centrality did not converge in this analysis">
+          {measures.eigenvector.reason ?? NOT_CONVERGED}. The column says “{NOT_CONVERGED}” instead of showing a number that would be wrong.
+        </Notice>
+      )}
+      {measures?.pagerank?.converged === false && (
+        <Notice tone="caution" title="PageRank did not converge in this analysis">
+          {measures.pagerank.reason ?? NOT_CONVERGED}. The column says “{NOT_CONVERGED}” instead of a number.
+        </Notice>
+      )}
+      {measures?.dominators && !measures.dominators.complete && (
+        <Notice tone="info" title="Entry points: not every one was analysed">
+          Per-entry dominators cover {measures.dominators.entriesAnalysed} of {measures.dominators.entries} entry points (the analysis&apos; work limit): the “{MEASURE_HELP.entriesDominated.label}” counts are at least these.
+        </Notice>
+      )}
+      {allTied && (
+        <div data-testid="all-tied">
+        <Notice tone="info" title={`Every component shares rank 1 by ${rankByLabel.toLowerCase()}`}>
+          All {plural(items[0]!.position.tied, "component")} have the same {rankByLabel.toLowerCase()} ({rankings.data?.rankBy === "betweenness" ? betweennessPct(items[0]!.betweenness) : "equal values"}), so they share rank 1 and the order below is by key only. Sort by another column to tell them apart.
+        </Notice>
+        </div>
+      )}
       {error && (
         <Notice tone={error.status === 404 ? "info" : "error"} title={error.status === 404 ? "No ranking to show yet" : "Could not load the ranking"}>
           {error.message}
@@ -226,6 +279,11 @@ export function PinchPoints({ env }: { env: string }) {
         </table>
       </div>
 
+      {anyTie && !allTied && (
+        <p className="text-xs text-muted" data-testid="ties-note">
+          Equal values share a rank (standard competition ranking: 1, 2, 2, 4); “=4” marks a rank shared with others. The # column ranks by {rankByLabel.toLowerCase()}.
+        </p>
+      )}
       <nav aria-label="Pages" className="flex items-center justify-between gap-3 text-sm text-muted">
         <span data-testid="page-status">
           {total ? `${(page - 1) * PAGE_SIZE + 1}–${Math.min(page * PAGE_SIZE, total)} of ${total}` : "0 components"} · page {page} of {pages}

@@ -8,6 +8,8 @@ export type AnalysisMetaBlock = ReturnType<typeof analysisMeta>;
 
 export interface RankingsResponse extends AnalysisMetaBlock {
   sort: string;
+  /** the measure the # column (each item's `position`) ranks by */
+  rankBy: string;
   order: "asc" | "desc";
   limit: number;
   offset: number;

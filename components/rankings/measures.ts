@@ -24,6 +24,10 @@ export const MEASURE_HELP = {
     label: "Degraded",
     short: "Components that keep running but degraded if it fails (soft needs).",
   },
+  entriesDominated: {
+    label: "Entry points",
+    short: "Entry points (tier 1, nothing depends on them) from which every path to some components passes through it: lose it and those entry points lose them.",
+  },
   pinchScore: {
     label: "Pinch score",
     short: "0–100 blend of betweenness, tier-weighted blast radius and single-instance risk; weights set per environment.",

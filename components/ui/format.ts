@@ -16,6 +16,15 @@ export const percent = (share: number, digits = 1): string => `${(share * 100).t
 /** Measures in [0,1] shown with four decimals: enough to tell neighbours apart, short enough for a column. */
 export const measure = (v: number): string => v.toFixed(4);
 
+/** What screens show for an iterative measure that did not converge: never a number. */
+export const NOT_CONVERGED = "did not converge";
+
+/** A measure that may have been withheld because its iteration did not converge. */
+export const convergedMeasure = (v: number | null): string => (v === null ? NOT_CONVERGED : measure(v));
+
+/** A competition rank with its tie shown: "=4" when others share rank 4 (1, 2, 2, 4). */
+export const rankLabel = (p: { rank: number | null; tied: number }): string => (p.rank === null ? "—" : p.tied > 1 ? `=${p.rank}` : String(p.rank));
+
 /** Betweenness as a share of shortest paths, two decimals everywhere so "0.41%" and "0.00%" line up across screens. */
 export const betweennessPct = (v: number): string => `${(v * 100).toFixed(2)}%`;
 

@@ -300,3 +300,25 @@ export function dominators(graph: CompactGraph, options: DominatorOptions = {}):
   );
   return { roots, reachedFrom, dominatesFrom, maxDominated, topEntries, allIdom, allDominated, complete: analysed === roots.length, entriesAnalysed: analysed };
 }
+
+/**
+ * What every path from `root` passes through: the components that strictly dominate at least one
+ * other from it, with how many each dominates, most first; and how many components the root reaches.
+ */
+export function passesThrough(graph: CompactGraph, root: number): { reached: number; through: EntryDominanceOf[] } {
+  const t = dominatorTree(graph, root);
+  const pos = new Map<number, number>();
+  t.nodes.forEach((v, i) => pos.set(v, i));
+  const size = new Int32Array(t.nodes.length).fill(1);
+  // Preorder: an idom comes before the nodes it dominates.
+  for (let i = t.nodes.length - 1; i >= 1; i--) size[pos.get(t.idom[i]!)!]! += size[i]!;
+  const through: EntryDominanceOf[] = [];
+  for (let i = 1; i < t.nodes.length; i++) if (size[i]! > 1) through.push({ node: t.nodes[i]!, dominated: size[i]! - 1 });
+  through.sort((a, b) => b.dominated - a.dominated || a.node - b.node);
+  return { reached: t.nodes.length - 1, through };
+}
+
+export interface EntryDominanceOf {
+  node: number;
+  dominated: number;
+}

@@ -35,7 +35,7 @@ export { clustering } from "./clustering";
 export { articulation } from "./articulation";
 export { scc } from "./scc";
 export { bootOrder } from "./boot-order";
-export { dominators, dominatorTree, entryRoots, virtualRootDominators } from "./dominators";
+export { dominators, dominatorTree, entryRoots, passesThrough, virtualRootDominators } from "./dominators";
 export { competitionRanks } from "./ranks";
 export { blastRadius, failedByZones, singleFailureBlastByPropagation, TIER_WEIGHTS } from "./blast-radius";
 export { singleFailureBlast } from "./single-failures";

@@ -5,7 +5,7 @@ import { z } from "zod";
 import type { RouteRule } from "@/lib/auth/with-permission";
 import { kubernetesJsonSchema } from "@/importers/kubernetes/schema";
 import { inventoryJsonSchema } from "@/lib/inventory/schema";
-import { annotateBodySchema, drillBodySchema, rankHistoryQuerySchema, rankingsExportQuerySchema, rankingsQuerySchema } from "./schemas/analysis";
+import { annotateBodySchema, bootOrderQuerySchema, drillBodySchema, rankHistoryQuerySchema, rankingsExportQuerySchema, rankingsQuerySchema } from "./schemas/analysis";
 import { pageQuerySchema } from "./schemas/history";
 import { componentsQuerySchema, pushQuerySchema } from "./schemas/inventory";
 import { positionsSchema } from "./schemas/map";
@@ -55,7 +55,7 @@ export const OPERATIONS: Record<string, Partial<Record<Method, Operation>>> = {
   },
   "/environments/{env}/components/{key}/blast-radius": { get: { summary: "What goes down or degraded when this component fails", rule: "read" } },
   "/environments/{env}/components/{key}/history": { get: { summary: "Snapshots that added, changed or removed this component", rule: "read" } },
-  "/environments/{env}/rankings": { get: { summary: "Ranked pinch points of the newest analysed snapshot", rule: "read", query: rankingsQuerySchema } },
+  "/environments/{env}/rankings": { get: { summary: "Ranked pinch points of the newest analysed snapshot; equal values share a rank (1, 2, 2, 4); a measure that did not converge is null with the reason in analysis.measures; ETag per snapshot, analysis and owners", rule: "read", query: rankingsQuerySchema } },
   "/environments/{env}/rankings/export": { get: { summary: "The ranking as CSV", rule: "read", query: rankingsExportQuerySchema } },
   "/environments/{env}/rankings/history": { get: { summary: "Ranks of components over recent snapshots", rule: "read", query: rankHistoryQuerySchema } },
   "/environments/{env}/drills": { post: { summary: "Fail components and/or zones: down, degraded, teams to page", rule: "read", body: drillBodySchema } },
@@ -75,7 +75,7 @@ export const OPERATIONS: Record<string, Partial<Record<Method, Operation>>> = {
   "/environments/{env}/incidents/{number}": { get: { summary: "One incident: its alerts with their lifetimes and the origin ranking from when the most components fired", rule: "read" } },
   "/environments/{env}/incidents/{number}/resolve": { post: { summary: "Close an incident by hand (its firing alerts end now); audited", rule: "inventory:write", body: resolveIncidentSchema } },
   "/environments/{env}/drift": { get: { summary: "Traced calls against declared needs: seen but never declared, declared but never seen", rule: "read" } },
-  "/environments/{env}/boot-order": { get: { summary: "Cold-start stages; cycles that cannot start unaided", rule: "read" } },
+  "/environments/{env}/boot-order": { get: { summary: "Cold-start stages (start-up-only needs included); cycles that cannot start unaided, each with a start order and the needs to break first", rule: "read", query: bootOrderQuerySchema } },
   "/environments/{env}/graph": { get: { summary: "Components, dependencies and measures for the map", rule: "read" } },
   "/environments/{env}/map/positions": {
     get: { summary: "Pinned map positions", rule: "read" },

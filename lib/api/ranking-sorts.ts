@@ -8,6 +8,7 @@ export const RANKING_SORT_KEYS = [
   "blastDown",
   "blastDegraded",
   "pinchScore",
+  "entriesDominated",
   "tier",
   "key",
   "name",
@@ -24,3 +25,14 @@ export const isRankingSort = (s: string | null): s is RankingSort => (RANKING_SO
 /** Text columns read naturally A→Z; measures read biggest first. */
 const ASCENDING_FIRST: ReadonlySet<RankingSort> = new Set(["key", "name", "team", "kind", "tier", "rank"]);
 export const defaultRankingOrder = (sort: RankingSort): "asc" | "desc" => (ASCENDING_FIRST.has(sort) ? "asc" : "desc");
+
+/** Sorts by a measure that has stored competition ranks; the betweenness rank (`rank`) is one. */
+const RANKED: Partial<Record<RankingSort, "betweenness" | "pagerank" | "eigenvector" | "pinchScore" | "blastDown">> = {
+  betweenness: "betweenness",
+  rank: "betweenness",
+  pagerank: "pagerank",
+  eigenvector: "eigenvector",
+  pinchScore: "pinchScore",
+  blastDown: "blastDown",
+};
+export const rankedMeasureOf = (sort: RankingSort) => RANKED[sort] ?? null;

@@ -4,16 +4,19 @@
 import { hostname } from "node:os";
 import { QueryTypes, type Transaction } from "sequelize";
 import { db } from "@/models";
-import { analyse, type AnalysisResult } from "@/lib/analysis";
+import type { AnalysisResult } from "@/lib/analysis";
+import { analyseInThread } from "@/lib/analysis/thread";
 import { analysisInputFromContent } from "@/lib/analysis/input";
-import { rankedByBetweenness } from "@/lib/analysis/rank";
 import { readSettings } from "@/lib/inventory/settings";
-import type { PinchWeights } from "@/lib/analysis/types";
+import type { AnalysisOptions, PinchWeights } from "@/lib/analysis/types";
 import type { SnapshotContent } from "@/lib/inventory/snapshot";
 import { noticeTopTenChanges } from "@/lib/mail";
 
-/** A running job with no heartbeat for this long is taken to be orphaned. */
+/** A running job with no heartbeat for this long is taken to be orphaned (PINCHPOINT_ANALYSIS_STALE_S overrides it). */
 export const STALE_AFTER_S = 60;
+const staleAfterS = (): number => Number(process.env.PINCHPOINT_ANALYSIS_STALE_S ?? STALE_AFTER_S);
+/** Heartbeats come several times per stale period, so one late beat never orphans a job. */
+const beatMs = (): number => Math.max(250, Math.min(10_000, (staleAfterS() * 1000) / 4));
 export const MAX_ATTEMPTS = 3;
 
 export async function queueAnalysis({ environmentId, snapshotId }: { environmentId: string; snapshotId: string }, transaction?: Transaction): Promise<void> {
@@ -76,7 +79,7 @@ export async function claimNextJob(worker = workerId()): Promise<ClaimedJob | nu
   await sequelize.query(
     `UPDATE analysis_runs SET status = 'failed', error = 'gave up after ' || attempts || ' attempts', finished_at = now(), updated_at = now()
       WHERE status = 'running' AND heartbeat_at < now() - make_interval(secs => :stale) AND attempts >= :max`,
-    { replacements: { stale: STALE_AFTER_S, max: MAX_ATTEMPTS } },
+    { replacements: { stale: staleAfterS(), max: MAX_ATTEMPTS } },
   );
   const rows = await sequelize.query<ClaimedJob>(
     `UPDATE analysis_runs r
@@ -90,13 +93,16 @@ export async function claimNextJob(worker = workerId()): Promise<ClaimedJob | nu
          FOR UPDATE SKIP LOCKED
          LIMIT 1)
       RETURNING r.id, r.snapshot_id, r.environment_id, r.attempts`,
-    { type: QueryTypes.SELECT, replacements: { worker, stale: STALE_AFTER_S } },
+    { type: QueryTypes.SELECT, replacements: { worker, stale: staleAfterS() } },
   );
   return rows[0] ?? null;
 }
 
-/** Run one claimed job to the end, storing results or the error. */
-export async function runJob(job: ClaimedJob, worker = workerId()): Promise<"done" | "failed" | "lost"> {
+/**
+ * Run one claimed job to the end, storing results or the error. `options` tune the analysis
+ * (tests use them to force, say, a measure that does not converge); the worker passes none.
+ */
+export async function runJob(job: ClaimedJob, worker = workerId(), options: AnalysisOptions = {}): Promise<"done" | "failed" | "lost"> {
   const { models, sequelize } = db();
   let snapshot: InstanceType<typeof models.Snapshot> | null;
   let env: InstanceType<typeof models.Environment> | null;
@@ -121,13 +127,13 @@ export async function runJob(job: ClaimedJob, worker = workerId()): Promise<"don
       models.AnalysisRun.update({ progress: fraction, phase, heartbeatAt: new Date() }, { where: { id: job.id, lockedBy: worker } }),
     );
   };
-  // The analysis yields between its phases (each well under the stale limit, see npm run bench), and
-  // this timer beats then; progress reports beat too.
+  // The analysis runs on its own thread (lib/analysis/thread.ts), so this timer beats however long a
+  // phase takes; progress reports beat too.
   const beat = setInterval(() => {
     void models.AnalysisRun.update({ heartbeatAt: new Date() }, { where: { id: job.id, lockedBy: worker } });
-  }, 10_000);
+  }, beatMs());
   try {
-    const result = await analyse(analysisInputFromContent(snapshot.content, readSettings(env.settings)), { weights: env.pinchWeights ?? undefined }, onProgress);
+    const result = await analyseInThread(analysisInputFromContent(snapshot.content, readSettings(env.settings)), { ...options, weights: env.pinchWeights ?? undefined }, onProgress);
     await pending;
     const outcome = await storeResult({ jobId: job.id, worker, snapshotId: snapshot.id, content: snapshot.content, result });
     // Tell owners and architects about components new to the top ten (compared with the previous analysed snapshot).
@@ -149,6 +155,33 @@ export async function runJob(job: ClaimedJob, worker = workerId()): Promise<"don
   }
 }
 
+/** Most entry rows (component, entry it dominates from) kept per snapshot; each component keeps its strongest entries. */
+const MAX_DOMINANCE_ROWS = 200_000;
+/** Rows per INSERT statement, so that no single bind parameter grows without bound. */
+const INSERT_CHUNK = 20_000;
+
+/** The small summary kept in analysis_runs.graph: what the screens say about the analysis as a whole. */
+export interface AnalysisSummary {
+  nodeCount: number;
+  edgeCount: number;
+  selfLoops: string[];
+  implicitKeyCount: number;
+  bridgeCount: number;
+  cycleCount: number;
+  bootCycleCount: number;
+  bootStageCount: number;
+  exact: boolean;
+  sampleSize: number;
+  betweennessThreads: number;
+  betweennessMs: number;
+  pagerank: AnalysisResult["graph"]["pagerank"];
+  eigenvector: AnalysisResult["graph"]["eigenvector"];
+  dominators: { entries: number; complete: boolean; entriesAnalysed: number };
+  weights: AnalysisResult["graph"]["weights"];
+  /** whether the analysis ran on its worker thread */
+  thread: boolean;
+}
+
 async function storeResult({
   jobId,
   worker,
@@ -160,12 +193,11 @@ async function storeResult({
   worker: string;
   snapshotId: string;
   content: SnapshotContent;
-  result: AnalysisResult;
+  result: AnalysisResult & { thread?: boolean };
 }): Promise<"done" | "lost"> {
   const { sequelize } = db();
   const byKey = new Map(content.components.map((c) => [c.key, c]));
-  const ranked = rankedByBetweenness(result.nodes);
-  const rows = ranked.map((n, i) => {
+  const rows = result.nodes.map((n) => {
     const c = byKey.get(n.key);
     return {
       key: n.key,
@@ -183,9 +215,58 @@ async function storeResult({
       blast_degraded: n.blastDegraded,
       pinch_score: n.pinchScore,
       single_point: n.singlePoint,
-      rank: i + 1,
+      rank: n.ranks.betweenness.rank,
+      tied: n.ranks.betweenness.tied,
+      rank_pagerank: n.ranks.pagerank.rank,
+      tied_pagerank: n.ranks.pagerank.tied,
+      rank_eigenvector: n.ranks.eigenvector.rank,
+      tied_eigenvector: n.ranks.eigenvector.tied,
+      rank_pinch: n.ranks.pinchScore.rank,
+      tied_pinch: n.ranks.pinchScore.tied,
+      rank_blast: n.ranks.blastDown.rank,
+      tied_blast: n.ranks.blastDown.tied,
+      boot_stage: n.bootStage,
+      waits_on_cycle: n.waitsOnCycle,
+      entry: n.entry,
+      entries_reaching: n.dominator.reachedFrom,
+      entries_dominated: n.dominator.dominatesFrom,
+      max_dominated: n.dominator.maxDominated,
+      dominated_all: n.dominator.allDominated,
+      idom_all: n.dominator.allIdom,
     };
   });
+  // Each component's strongest entries, fewer per component when an estate has thousands of entries.
+  const listed = result.nodes.filter((n) => n.dominator.topEntries.length > 0);
+  const perComponent = Math.max(1, Math.floor(MAX_DOMINANCE_ROWS / Math.max(1, listed.length)));
+  const dominance = listed.flatMap((n) => n.dominator.topEntries.slice(0, perComponent).map((t) => ({ key: n.key, entry: t.entry, dominated: t.dominated })));
+  const g = result.graph;
+  const cycles = [
+    ...g.cycles.map((members, position) => ({ kind: "runtime", position, members, start_order: null, breaks: null, break_count: null })),
+    ...g.bootOrder.cycles.map((members, position) => {
+      const plan = g.bootOrder.plans[position];
+      return { kind: "boot", position, members, start_order: plan?.order ?? null, breaks: plan?.breaks ?? null, break_count: plan?.breakCount ?? null };
+    }),
+  ];
+  const summary: AnalysisSummary = {
+    nodeCount: g.nodeCount,
+    edgeCount: g.edgeCount,
+    selfLoops: g.selfLoops.slice(0, 100),
+    implicitKeyCount: g.implicitKeys.length,
+    bridgeCount: g.bridges.length,
+    cycleCount: g.cycles.length,
+    bootCycleCount: g.bootOrder.cycles.length,
+    bootStageCount: g.bootOrder.stages.length,
+    exact: g.exact,
+    sampleSize: g.sampleSize,
+    betweennessThreads: g.betweennessThreads,
+    betweennessMs: g.betweennessMs,
+    pagerank: g.pagerank,
+    eigenvector: g.eigenvector,
+    dominators: { entries: g.dominators.roots.length, complete: g.dominators.complete, entriesAnalysed: g.dominators.entriesAnalysed },
+    weights: g.weights,
+    thread: result.thread ?? false,
+  };
+  const chunks = <T>(xs: T[]): T[][] => Array.from({ length: Math.ceil(xs.length / INSERT_CHUNK) }, (_, i) => xs.slice(i * INSERT_CHUNK, (i + 1) * INSERT_CHUNK));
   return sequelize.transaction(async (transaction) => {
     // Still ours? A worker that was presumed dead must not overwrite the one that took over.
     const [owned] = await sequelize.query<{ id: string }>(
@@ -193,18 +274,45 @@ async function storeResult({
       { type: QueryTypes.SELECT, replacements: { id: jobId, worker }, transaction },
     );
     if (!owned) return "lost" as const;
-    await sequelize.query("DELETE FROM component_metrics WHERE snapshot_id = $1", { bind: [snapshotId], transaction });
-    await sequelize.query(
-      `INSERT INTO component_metrics (snapshot_id, key, name, kind, team, tier, betweenness, pagerank, eigenvector, clustering,
-              articulation, in_cycle, blast_down, blast_degraded, pinch_score, single_point, rank)
-       SELECT $1, t.key, t.name, t.kind, t.team, t.tier, t.betweenness, t.pagerank, t.eigenvector, t.clustering,
-              t.articulation, t.in_cycle, t.blast_down, t.blast_degraded, t.pinch_score, t.single_point, t.rank
-         FROM jsonb_to_recordset($2::jsonb) AS t(key text, name text, kind text, team text, tier smallint,
-              betweenness float8, pagerank float8, eigenvector float8, clustering float8, articulation boolean,
-              in_cycle boolean, blast_down integer, blast_degraded integer, pinch_score float8, single_point boolean, rank integer)`,
-      { bind: [snapshotId, JSON.stringify(rows)], transaction },
-    );
-    const extra = new Map(result.nodes.map((n) => [n.key, { bootStage: n.bootStage, dominator: n.dominator }]));
+    for (const table of ["component_metrics", "component_dominance", "analysis_cycles"]) {
+      await sequelize.query(`DELETE FROM ${table} WHERE snapshot_id = $1`, { bind: [snapshotId], transaction });
+    }
+    for (const chunk of chunks(rows)) {
+      await sequelize.query(
+        `INSERT INTO component_metrics (snapshot_id, key, name, kind, team, tier, betweenness, pagerank, eigenvector, clustering,
+                articulation, in_cycle, blast_down, blast_degraded, pinch_score, single_point, rank, tied, rank_pagerank, tied_pagerank,
+                rank_eigenvector, tied_eigenvector, rank_pinch, tied_pinch, rank_blast, tied_blast, boot_stage, waits_on_cycle, entry,
+                entries_reaching, entries_dominated, max_dominated, dominated_all, idom_all)
+         SELECT $1, t.key, t.name, t.kind, t.team, t.tier, t.betweenness, t.pagerank, t.eigenvector, t.clustering,
+                t.articulation, t.in_cycle, t.blast_down, t.blast_degraded, t.pinch_score, t.single_point, t.rank, t.tied, t.rank_pagerank,
+                t.tied_pagerank, t.rank_eigenvector, t.tied_eigenvector, t.rank_pinch, t.tied_pinch, t.rank_blast, t.tied_blast,
+                t.boot_stage, t.waits_on_cycle, t.entry, t.entries_reaching, t.entries_dominated, t.max_dominated, t.dominated_all, t.idom_all
+           FROM jsonb_to_recordset($2::jsonb) AS t(key text, name text, kind text, team text, tier smallint,
+                betweenness float8, pagerank float8, eigenvector float8, clustering float8, articulation boolean,
+                in_cycle boolean, blast_down integer, blast_degraded integer, pinch_score float8, single_point boolean, rank integer,
+                tied integer, rank_pagerank integer, tied_pagerank integer, rank_eigenvector integer, tied_eigenvector integer,
+                rank_pinch integer, tied_pinch integer, rank_blast integer, tied_blast integer, boot_stage integer, waits_on_cycle boolean,
+                entry boolean, entries_reaching integer, entries_dominated integer, max_dominated integer, dominated_all integer, idom_all text)`,
+        { bind: [snapshotId, JSON.stringify(chunk)], transaction },
+      );
+    }
+    for (const chunk of chunks(dominance)) {
+      await sequelize.query(
+        `INSERT INTO component_dominance (snapshot_id, key, entry, dominated)
+         SELECT $1, t.key, t.entry, t.dominated FROM jsonb_to_recordset($2::jsonb) AS t(key text, entry text, dominated integer)`,
+        { bind: [snapshotId, JSON.stringify(chunk)], transaction },
+      );
+    }
+    for (const chunk of chunks(cycles)) {
+      await sequelize.query(
+        `INSERT INTO analysis_cycles (snapshot_id, kind, position, members, start_order, breaks, break_count)
+         SELECT $1, t.kind, t.position, ARRAY(SELECT jsonb_array_elements_text(t.members)),
+                CASE WHEN t.start_order IS NULL THEN NULL ELSE ARRAY(SELECT jsonb_array_elements_text(t.start_order)) END,
+                t.breaks, t.break_count
+           FROM jsonb_to_recordset($2::jsonb) AS t(kind text, position integer, members jsonb, start_order jsonb, breaks jsonb, break_count integer)`,
+        { bind: [snapshotId, JSON.stringify(chunk)], transaction },
+      );
+    }
     await sequelize.query(
       `UPDATE analysis_runs SET status = 'done', progress = 1, phase = 'done', finished_at = now(), updated_at = now(),
               exact = :exact, sample_size = :sampleSize, timings = :timings::jsonb, graph = :graph::jsonb, locked_by = NULL
@@ -212,10 +320,10 @@ async function storeResult({
       {
         replacements: {
           id: jobId,
-          exact: result.graph.exact,
-          sampleSize: result.graph.sampleSize,
+          exact: g.exact,
+          sampleSize: g.sampleSize,
           timings: JSON.stringify(result.timings),
-          graph: JSON.stringify({ ...result.graph, perNode: Object.fromEntries(extra) }),
+          graph: JSON.stringify(summary),
         },
         transaction,
       },
@@ -225,10 +333,10 @@ async function storeResult({
 }
 
 /** Work through the queue until it is empty (tests, the seed, and each worker loop turn). */
-export async function drainAnalysisQueue(worker = workerId()): Promise<number> {
+export async function drainAnalysisQueue(worker = workerId(), options: AnalysisOptions = {}): Promise<number> {
   let count = 0;
   for (let job = await claimNextJob(worker); job; job = await claimNextJob(worker)) {
-    await runJob(job, worker);
+    await runJob(job, worker, options);
     count++;
   }
   return count;

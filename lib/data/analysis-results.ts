@@ -1,8 +1,11 @@
-// Reading stored analysis: which snapshot the rankings come from, its status, and the rankings.
+// Reading stored analysis: which snapshot the rankings come from, its status, and each result
+// where it is stored (component_metrics, component_dominance, analysis_cycles); analysis_runs.graph
+// is only a small summary.
 import { QueryTypes } from "sequelize";
 import { db } from "@/models";
-import type { ComponentKind, Tier } from "@/lib/inventory/types";
-import type { RankingSort } from "@/lib/api/ranking-sorts";
+import type { ComponentKind, Strength, Tier } from "@/lib/inventory/types";
+import { rankedMeasureOf, type RankingSort } from "@/lib/api/ranking-sorts";
+import type { AnalysisSummary } from "./analysis-jobs";
 
 export interface AnalysisStatusInfo {
   status: "queued" | "running" | "done" | "failed" | "none";
@@ -28,17 +31,8 @@ export interface AnalysisView {
   latestAnalysis: AnalysisStatusInfo;
   served: SnapshotRef | null;
   servedAnalysis: AnalysisStatusInfo | null;
-  /** graph-level results of the served analysis (cycles, bridges, boot order, …) */
-  graph: ServedGraph | null;
-}
-
-export interface ServedGraph {
-  cycles: string[][];
-  bridges: Array<[string, string]>;
-  bootOrder: { stages: string[][]; cycles: string[][]; waitingOnCycle: string[] };
-  dominatorRoots: string[];
-  perNode: Record<string, { bootStage: number; dominator: { reachedFrom: number; dominatesFrom: number; maxDominated: number } }>;
-  weights: { betweenness: number; reach: number; single: number };
+  /** the served analysis' summary (counts, convergence of iterative measures, dominators); null for none */
+  summary: Partial<AnalysisSummary> | null;
 }
 
 interface RunRow {
@@ -78,14 +72,58 @@ const RUN_SELECT = `SELECT s.id AS snapshot_id, s.number, s.created_at, s.compon
                            a.status, a.progress, a.phase, a.finished_at, a.exact, a.sample_size, a.error
                       FROM snapshots s LEFT JOIN analysis_runs a ON a.snapshot_id = s.id`;
 
-export async function getAnalysisView({ environmentId, withGraph = false }: { environmentId: string; withGraph?: boolean }): Promise<AnalysisView> {
+/**
+ * An environment, its newest snapshot and newest analysed snapshot, and a version of its owner
+ * annotations (rankings show effective owners), in one round trip: every analysis read starts here.
+ */
+export async function getServedState({ slug }: { slug: string }): Promise<{
+  environment: { id: string; slug: string; name: string; pinchWeights: unknown; settings: unknown };
+  view: AnalysisView;
+  /** changes whenever the served analysis, the analysis in progress or an owner annotation changes */
+  version: string;
+} | null> {
+  const cols = (p: string) =>
+    `${p}.snapshot_id AS ${p}_snapshot_id, ${p}.number AS ${p}_number, ${p}.created_at AS ${p}_created_at, ${p}.component_count AS ${p}_component_count,
+     ${p}.undeclared_count AS ${p}_undeclared_count, ${p}.status AS ${p}_status, ${p}.progress AS ${p}_progress, ${p}.phase AS ${p}_phase,
+     ${p}.finished_at AS ${p}_finished_at, ${p}.exact AS ${p}_exact, ${p}.sample_size AS ${p}_sample_size, ${p}.error AS ${p}_error`;
+  const [row] = await db().sequelize.query<Record<string, unknown>>(
+    `SELECT e.id, e.slug, e.name, e.pinch_weights, e.settings, ${cols("l")}, ${cols("v")}, v.graph AS v_graph, v.run_id AS v_run_id,
+            (SELECT count(*) || '.' || COALESCE(extract(epoch FROM max(updated_at))::text, '') FROM component_annotations x WHERE x.environment_id = e.id) AS annotations
+       FROM environments e
+       LEFT JOIN LATERAL (${RUN_SELECT} WHERE s.environment_id = e.id ORDER BY s.number DESC LIMIT 1) l ON true
+       LEFT JOIN LATERAL (${RUN_SELECT.replace("a.error", "a.error, a.graph, a.id AS run_id")} WHERE s.environment_id = e.id AND a.status = 'done'
+                          ORDER BY s.number DESC LIMIT 1) v ON true
+      WHERE e.slug = :slug`,
+    { type: QueryTypes.SELECT, replacements: { slug } },
+  );
+  if (!row) return null;
+  const pick = (p: string): RunRow | null =>
+    row[`${p}_snapshot_id`]
+      ? (Object.fromEntries(
+          ["snapshot_id", "number", "created_at", "component_count", "undeclared_count", "status", "progress", "phase", "finished_at", "exact", "sample_size", "error"].map((k) => [k, row[`${p}_${k}`]]),
+        ) as unknown as RunRow)
+      : null;
+  const latest = pick("l");
+  const served = pick("v");
+  const view: AnalysisView = {
+    latest: latest ? toRef(latest) : null,
+    latestAnalysis: latest ? toStatus(latest) : { status: "none", progress: 0, phase: null, computedAt: null, exact: null, sampleSize: null, error: null },
+    served: served ? toRef(served) : null,
+    servedAnalysis: served ? toStatus(served) : null,
+    summary: (row.v_graph as Partial<AnalysisSummary> | null) ?? null,
+  };
+  const version = [row.v_run_id, served?.finished_at?.toISOString(), latest?.snapshot_id, latest?.status, latest?.progress, latest?.phase, row.annotations].join("|");
+  return { environment: { id: row.id as string, slug: row.slug as string, name: row.name as string, pinchWeights: row.pinch_weights, settings: row.settings }, view, version };
+}
+
+export async function getAnalysisView({ environmentId }: { environmentId: string }): Promise<AnalysisView> {
   const { sequelize } = db();
   const [latest] = await sequelize.query<RunRow>(`${RUN_SELECT} WHERE s.environment_id = :environmentId ORDER BY s.number DESC LIMIT 1`, {
     type: QueryTypes.SELECT,
     replacements: { environmentId },
   });
-  const [served] = await sequelize.query<RunRow & { graph?: ServedGraph }>(
-    `${RUN_SELECT.replace("a.error", withGraph ? "a.error, a.graph" : "a.error")} WHERE s.environment_id = :environmentId AND a.status = 'done' ORDER BY s.number DESC LIMIT 1`,
+  const [served] = await sequelize.query<RunRow & { graph: Partial<AnalysisSummary> | null }>(
+    `${RUN_SELECT.replace("a.error", "a.error, a.graph")} WHERE s.environment_id = :environmentId AND a.status = 'done' ORDER BY s.number DESC LIMIT 1`,
     { type: QueryTypes.SELECT, replacements: { environmentId } },
   );
   return {
@@ -93,15 +131,15 @@ export async function getAnalysisView({ environmentId, withGraph = false }: { en
     latestAnalysis: latest ? toStatus(latest) : { status: "none", progress: 0, phase: null, computedAt: null, exact: null, sampleSize: null, error: null },
     served: served ? toRef(served) : null,
     servedAnalysis: served ? toStatus(served) : null,
-    graph: served?.graph ?? null,
+    summary: served?.graph ?? null,
   };
 }
 
 /** The measure columns of component_metrics, as rows come back from SQL. */
 export interface MetricColumns {
   betweenness: number;
-  pagerank: number;
-  eigenvector: number;
+  pagerank: number | null;
+  eigenvector: number | null;
   clustering: number;
   blast_down: number;
   blast_degraded: number;
@@ -109,8 +147,11 @@ export interface MetricColumns {
   articulation: boolean;
   in_cycle: boolean;
   single_point: boolean;
+  entries_dominated: number | null;
+  dominated_all: number | null;
 }
-export const METRIC_COLUMNS = "betweenness, pagerank, eigenvector, clustering, blast_down, blast_degraded, pinch_score, articulation, in_cycle, single_point";
+export const METRIC_COLUMNS =
+  "betweenness, pagerank, eigenvector, clustering, blast_down, blast_degraded, pinch_score, articulation, in_cycle, single_point, entries_dominated, dominated_all";
 
 /** Sort key → the SQL column it orders by (the keys are lib/api/ranking-sorts.ts). */
 export const RANKING_SORTS: Record<RankingSort, string> = {
@@ -121,6 +162,7 @@ export const RANKING_SORTS: Record<RankingSort, string> = {
   blastDown: "m.blast_down",
   blastDegraded: "m.blast_degraded",
   pinchScore: "m.pinch_score",
+  entriesDominated: "m.entries_dominated",
   tier: "m.tier",
   key: "m.key",
   name: "m.name",
@@ -131,16 +173,42 @@ export const RANKING_SORTS: Record<RankingSort, string> = {
   rank: "m.rank",
 };
 
+/** The stored competition rank and tie count of each ranked measure. */
+const RANK_COLUMNS = {
+  betweenness: ["m.rank", "m.tied"],
+  pagerank: ["m.rank_pagerank", "m.tied_pagerank"],
+  eigenvector: ["m.rank_eigenvector", "m.tied_eigenvector"],
+  pinchScore: ["m.rank_pinch", "m.tied_pinch"],
+  blastDown: ["m.rank_blast", "m.tied_blast"],
+} as const;
+
+/** ORDER BY for a sort: ranked measures walk their rank index (ties by key); others by value, then betweenness rank. */
+function orderBy(sort: RankingSort, order: "asc" | "desc"): string {
+  const measure = rankedMeasureOf(sort);
+  if (measure && sort !== "rank") {
+    const [rank] = RANK_COLUMNS[measure];
+    return `${rank} ${order === "desc" ? "ASC" : "DESC"} NULLS LAST, m.key ASC`;
+  }
+  return `${RANKING_SORTS[sort]} ${order === "asc" ? "ASC" : "DESC"} NULLS LAST, m.rank ASC, m.key ASC`;
+}
+
 export interface RankingItem {
   key: string;
   name: string;
   kind: ComponentKind;
   team: string | null;
   tier: Tier;
+  /** competition rank by betweenness: equal values share a rank (1, 2, 2, 4) */
   rank: number;
+  /** how many components share that rank (1 = none) */
+  tied: number;
+  /** rank and ties in the measure the list is ranked by (`rankBy` of the response) */
+  position: { rank: number | null; tied: number };
   betweenness: number;
-  pagerank: number;
-  eigenvector: number;
+  /** null when PageRank did not converge (the response's analysis block says why) */
+  pagerank: number | null;
+  /** null when eigenvector centrality did not converge */
+  eigenvector: number | null;
   clustering: number;
   blastRadius: { down: number; degraded: number };
   pinchScore: number;
@@ -148,6 +216,10 @@ export interface RankingItem {
   inCycle: boolean;
   /** one replica or fewer than two zones: the S of the pinch score, as the analysis saw it */
   singlePoint: boolean;
+  /** entry points (tier 1, nothing depends on them) from which every path to something passes through it; null when not computed */
+  entriesDominated: number | null;
+  /** components that every path from any entry passes through it to reach */
+  dominatedAll: number | null;
 }
 
 export interface RankingQuery {
@@ -163,7 +235,7 @@ export interface RankingQuery {
   q?: string;
 }
 
-export async function getRankings(query: RankingQuery): Promise<{ total: number; items: RankingItem[] }> {
+export async function getRankings(query: RankingQuery): Promise<{ total: number; rankBy: RankingSort; items: RankingItem[] }> {
   const where = ["m.snapshot_id = :snapshotId"];
   const replacements: Record<string, unknown> = { snapshotId: query.snapshotId, environmentId: query.environmentId, limit: query.limit, offset: query.offset };
   if (query.team) {
@@ -182,31 +254,30 @@ export async function getRankings(query: RankingQuery): Promise<{ total: number;
     where.push("(m.key ILIKE :q OR m.name ILIKE :q)");
     replacements.q = `%${query.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
   }
-  const column = RANKING_SORTS[query.sort];
-  const direction = query.order === "asc" ? "ASC" : "DESC";
-  const rows = await db().sequelize.query<
-    MetricColumns & {
-      key: string;
-      name: string;
-      kind: ComponentKind;
-      team: string | null;
-      tier: number;
-      rank: number;
-      total: string;
-    }
-  >(
-    `SELECT m.key, m.name, m.kind, COALESCE(a.owner_team, m.team) AS team, m.tier, m.rank, m.betweenness, m.pagerank,
-            m.eigenvector, m.clustering, m.blast_down, m.blast_degraded, m.pinch_score, m.articulation, m.in_cycle, m.single_point,
-            count(*) OVER () AS total
-       FROM component_metrics m
+  const rankBy = rankedMeasureOf(query.sort) ?? "betweenness";
+  const [rankCol, tiedCol] = RANK_COLUMNS[rankBy];
+  const from = `FROM component_metrics m
        LEFT JOIN component_annotations a ON a.environment_id = :environmentId AND a.key = m.key
-      WHERE ${where.join(" AND ")}
-      ORDER BY ${column} ${direction} NULLS LAST, m.rank ASC
-      LIMIT :limit OFFSET :offset`,
-    { type: QueryTypes.SELECT, replacements },
-  );
+      WHERE ${where.join(" AND ")}`;
+  const { sequelize } = db();
+  // The page and the count apart: a count window over the whole result would defeat the index walk.
+  const [rows, [count]] = await Promise.all([
+    sequelize.query<
+      MetricColumns & { key: string; name: string; kind: ComponentKind; team: string | null; tier: number; rank: number; tied: number; pos_rank: number | null; pos_tied: number }
+    >(
+      `SELECT m.key, m.name, m.kind, COALESCE(a.owner_team, m.team) AS team, m.tier, m.rank, m.tied, ${rankCol} AS pos_rank, ${tiedCol} AS pos_tied,
+              m.betweenness, m.pagerank, m.eigenvector, m.clustering, m.blast_down, m.blast_degraded, m.pinch_score, m.articulation,
+              m.in_cycle, m.single_point, m.entries_dominated, m.dominated_all
+         ${from}
+        ORDER BY ${orderBy(query.sort, query.order)}
+        LIMIT :limit OFFSET :offset`,
+      { type: QueryTypes.SELECT, replacements },
+    ),
+    sequelize.query<{ total: string }>(`SELECT count(*) AS total ${from}`, { type: QueryTypes.SELECT, replacements }),
+  ]);
   return {
-    total: Number(rows[0]?.total ?? 0),
+    total: Number(count?.total ?? 0),
+    rankBy: rankBy as RankingSort,
     items: rows.map((r) => ({
       key: r.key,
       name: r.name,
@@ -214,6 +285,8 @@ export async function getRankings(query: RankingQuery): Promise<{ total: number;
       team: r.team,
       tier: r.tier as Tier,
       rank: r.rank,
+      tied: r.tied,
+      position: { rank: r.pos_rank, tied: r.pos_tied },
       betweenness: r.betweenness,
       pagerank: r.pagerank,
       eigenvector: r.eigenvector,
@@ -223,6 +296,8 @@ export async function getRankings(query: RankingQuery): Promise<{ total: number;
       articulation: r.articulation,
       inCycle: r.in_cycle,
       singlePoint: r.single_point,
+      entriesDominated: r.entries_dominated,
+      dominatedAll: r.dominated_all,
     })),
   };
 }
@@ -245,4 +320,50 @@ export async function getRankHistory({ environmentId, keys, count }: { environme
     out[key] = numbers.map((n) => ({ snapshot: n, rank: byNumber.get(n) ?? null }));
   }
   return out;
+}
+
+export interface StoredCycle {
+  members: string[];
+  /** boot cycles: a suggested start order and the needs to break first */
+  startOrder: string[] | null;
+  breaks: Array<{ from: string; to: string; strength: Strength }> | null;
+  breakCount: number | null;
+}
+
+/** Dependency cycles of a snapshot: among runtime needs, or (boot) among all needs of a cold start. */
+export async function getCycles({ snapshotId, kind }: { snapshotId: string; kind: "runtime" | "boot" }): Promise<StoredCycle[]> {
+  const rows = await db().sequelize.query<{ members: string[]; start_order: string[] | null; breaks: StoredCycle["breaks"]; break_count: number | null }>(
+    "SELECT members, start_order, breaks, break_count FROM analysis_cycles WHERE snapshot_id = :snapshotId AND kind = :kind ORDER BY position",
+    { type: QueryTypes.SELECT, replacements: { snapshotId, kind } },
+  );
+  return rows.map((r) => ({ members: r.members, startOrder: r.start_order, breaks: r.breaks, breakCount: r.break_count }));
+}
+
+export interface BootOrderView {
+  stages: string[][];
+  cycles: StoredCycle[];
+  waitingOnCycle: string[];
+  /** components in each stage with their name, kind, team and tier, for the runbook */
+  components: Record<string, { name: string; kind: ComponentKind; team: string | null; tier: Tier }>;
+}
+
+/** Cold start from the stored stages and boot cycles (null stage: an analysis from before stages were stored). */
+export async function getBootOrder({ snapshotId, environmentId, withComponents = false }: { snapshotId: string; environmentId: string; withComponents?: boolean }): Promise<BootOrderView> {
+  const [rows, cycles] = await Promise.all([
+    db().sequelize.query<{ key: string; name: string; kind: ComponentKind; team: string | null; tier: number; boot_stage: number | null; waits_on_cycle: boolean }>(
+      `SELECT m.key, m.name, m.kind, COALESCE(a.owner_team, m.team) AS team, m.tier, m.boot_stage, m.waits_on_cycle
+         FROM component_metrics m LEFT JOIN component_annotations a ON a.environment_id = :environmentId AND a.key = m.key
+        WHERE m.snapshot_id = :snapshotId ORDER BY m.boot_stage, m.key`,
+      { type: QueryTypes.SELECT, replacements: { snapshotId, environmentId } },
+    ),
+    getCycles({ snapshotId, kind: "boot" }),
+  ]);
+  const stages: string[][] = [];
+  const components: BootOrderView["components"] = {};
+  for (const r of rows) {
+    if (r.boot_stage === null) continue;
+    (stages[r.boot_stage] ??= []).push(r.key);
+    if (withComponents) components[r.key] = { name: r.name, kind: r.kind, team: r.team, tier: r.tier as Tier };
+  }
+  return { stages: Array.from(stages, (s) => s ?? []), cycles, waitingOnCycle: rows.filter((r) => r.waits_on_cycle).map((r) => r.key), components };
 }

@@ -61,10 +61,23 @@ export async function getComponentDetail({ environmentId, key }: { environmentId
 }
 
 export async function getComponentMetrics({ snapshotId, key }: { snapshotId: string; key: string }) {
-  const row = await db().models.ComponentMetric.findOne({ where: { snapshotId, key } });
+  const { models } = db();
+  const [row, dominance] = await Promise.all([
+    models.ComponentMetric.findOne({ where: { snapshotId, key } }),
+    models.ComponentDominance.findAll({ where: { snapshotId, key }, order: [["dominated", "DESC"], ["entry", "ASC"]], limit: 20 }),
+  ]);
   if (!row) return null;
+  const rankOf = (rank: number | null, tied: number) => ({ rank, tied });
   return {
     rank: row.rank,
+    tied: row.tied,
+    ranks: {
+      betweenness: rankOf(row.rank, row.tied),
+      pagerank: rankOf(row.rankPagerank, row.tiedPagerank),
+      eigenvector: rankOf(row.rankEigenvector, row.tiedEigenvector),
+      pinchScore: rankOf(row.rankPinch, row.tiedPinch),
+      blastDown: rankOf(row.rankBlast, row.tiedBlast),
+    },
     betweenness: row.betweenness,
     pagerank: row.pagerank,
     eigenvector: row.eigenvector,
@@ -73,5 +86,18 @@ export async function getComponentMetrics({ snapshotId, key }: { snapshotId: str
     inCycle: row.inCycle,
     blastRadius: { down: row.blastDown, degraded: row.blastDegraded },
     pinchScore: row.pinchScore,
+    bootStage: row.bootStage,
+    waitsOnCycle: row.waitsOnCycle,
+    entry: row.entry,
+    /** null fields: an analysis from before dominators were stored */
+    dominators: {
+      entriesReaching: row.entriesReaching,
+      entriesDominated: row.entriesDominated,
+      maxDominated: row.maxDominated,
+      dominatedAll: row.dominatedAll,
+      idomAll: row.idomAll,
+      /** the entries it dominates the most from (stored for at most 20, fewer on estates with very many entries) */
+      fromEntries: dominance.map((d) => ({ entry: d.entry, dominated: d.dominated })),
+    },
   };
 }

@@ -19,9 +19,10 @@ export interface GraphView {
 const holder = globalThis as unknown as { __pinchpointSnapshotParts?: Map<string, { declared: boolean; observedOnlyComponents: number; observedNeeds: number }> };
 const parts = (holder.__pinchpointSnapshotParts ??= new Map());
 
-export async function graphViewOf({ environmentId, snapshotId }: { environmentId: string; snapshotId: string }): Promise<GraphView> {
-  const env = await db().models.Environment.findByPk(environmentId, { attributes: ["settings"] });
-  const setting = readSettings(env?.settings).analysisView;
+/** `settings`: the environment's, when the caller has read them already (the served-state query has). */
+export async function graphViewOf({ environmentId, snapshotId, settings }: { environmentId: string; snapshotId: string; settings?: unknown }): Promise<GraphView> {
+  const raw = settings !== undefined ? settings : (await db().models.Environment.findByPk(environmentId, { attributes: ["settings"] }))?.settings;
+  const setting = readSettings(raw).analysisView;
   let p = parts.get(snapshotId);
   if (!p) {
     const [row] = await db().sequelize.query<{ declared: boolean; observed_only: number; observed_needs: number }>(

@@ -3,18 +3,18 @@
 import { QueryTypes } from "sequelize";
 import { db } from "@/models";
 import type { MapGraph } from "@/components/map/types";
-import { METRIC_COLUMNS, getAnalysisView, type MetricColumns } from "./analysis-results";
+import { METRIC_COLUMNS, getAnalysisView, getCycles, type MetricColumns } from "./analysis-results";
 import { listTeams } from "./teams";
 import { effectiveOwners, getSnapshotGraph } from "./snapshot-graph";
 import { graphViewOf } from "./graph-view";
 import { trafficByPair } from "./trace-traffic";
 
 export async function getMapGraph({ environmentId, slug }: { environmentId: string; slug: string }): Promise<MapGraph> {
-  const view = await getAnalysisView({ environmentId, withGraph: true });
+  const view = await getAnalysisView({ environmentId });
   const snapshot = view.served ?? view.latest;
   const teams = (await listTeams()).map((t) => ({ slug: t.slug, name: t.name }));
   if (!snapshot) return { environment: slug, snapshot: null, nodes: [], edges: [], teams };
-  const [{ content }, owners, metrics, traffic, graphView] = await Promise.all([
+  const [{ content }, owners, metrics, traffic, graphView, cycles] = await Promise.all([
     getSnapshotGraph({ snapshotId: snapshot.id }),
     effectiveOwners({ environmentId }),
     view.served
@@ -25,10 +25,11 @@ export async function getMapGraph({ environmentId, slug }: { environmentId: stri
       : Promise.resolve([]),
     trafficByPair({ environmentId }),
     view.served ? graphViewOf({ environmentId, snapshotId: view.served.id }) : Promise.resolve(null),
+    view.served ? getCycles({ snapshotId: view.served.id, kind: "runtime" }) : Promise.resolve([]),
   ]);
   const byKey = new Map(metrics.map((m) => [m.key, m]));
   const cycleOf = new Map<string, number>();
-  (view.graph?.cycles ?? []).forEach((cycle, i) => cycle.forEach((k) => cycleOf.set(k, i)));
+  cycles.forEach((cycle, i) => cycle.members.forEach((k) => cycleOf.set(k, i)));
   return {
     environment: slug,
     snapshot: { number: snapshot.number, createdAt: snapshot.createdAt },
@@ -56,6 +57,8 @@ export async function getMapGraph({ environmentId, slug }: { environmentId: stri
               pinchScore: m.pinch_score,
               articulation: m.articulation,
               inCycle: m.in_cycle,
+              entriesDominated: m.entries_dominated,
+              dominatedAll: m.dominated_all,
             }
           : null,
       };

@@ -18,6 +18,7 @@ export const RANKINGS_CSV_COLUMNS = [
   "articulation",
   "in_cycle",
   "single_point",
+  "entries_dominated",
   "snapshot",
 ] as const;
 
@@ -33,7 +34,7 @@ export function rankingsCsv({ items, snapshot }: { items: RankingItem[]; snapsho
   const lines = [RANKINGS_CSV_COLUMNS.join(",")];
   for (const i of items) {
     lines.push(
-      [i.rank, i.key, i.name, i.kind, i.team, i.tier, i.betweenness, i.pagerank, i.eigenvector, i.clustering, i.blastRadius.down, i.blastRadius.degraded, i.pinchScore, i.articulation, i.inCycle, i.singlePoint, snapshot]
+      [i.rank, i.key, i.name, i.kind, i.team, i.tier, i.betweenness, i.pagerank, i.eigenvector, i.clustering, i.blastRadius.down, i.blastRadius.degraded, i.pinchScore, i.articulation, i.inCycle, i.singlePoint, i.entriesDominated, snapshot]
         .map(csvField)
         .join(","),
     );

@@ -2,7 +2,7 @@
 // snapshot id is a perfect cache key). Drills and the map read from here, never from the tables.
 import { QueryTypes } from "sequelize";
 import { db } from "@/models";
-import { buildGraph, drill, type CompactGraph, type DrillRequest } from "@/lib/analysis";
+import { buildGraph, drill, passesThrough, type CompactGraph, type DrillRequest } from "@/lib/analysis";
 import type { SnapshotContent } from "@/lib/inventory/snapshot";
 import { AppError } from "@/lib/errors";
 import { analysisInputFromContent, analysisSettingsKey } from "@/lib/analysis/input";
@@ -109,4 +109,16 @@ export async function runDrill({
     teams,
     byTier: result.byTier,
   };
+}
+
+/**
+ * For an entry point: the components every path from it passes through (to the components each
+ * dominates), computed on demand from the cached graph — one dominator tree is milliseconds.
+ */
+export async function entryDominators({ snapshotId, entry, limit = 50 }: { snapshotId: string; entry: string; limit?: number }): Promise<{ reached: number; through: Array<{ key: string; dominated: number }>; total: number } | null> {
+  const { graph } = await getSnapshotGraph({ snapshotId });
+  const root = graph.indexOf.get(entry);
+  if (root === undefined) return null;
+  const { reached, through } = passesThrough(graph, root);
+  return { reached, total: through.length, through: through.slice(0, limit).map((t) => ({ key: graph.keys[t.node]!, dominated: t.dominated })) };
 }

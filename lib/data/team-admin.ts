@@ -67,8 +67,7 @@ const SCORED_CTE = `
       FROM snapshots s JOIN analysis_runs r ON r.snapshot_id = s.id AND r.status = 'done'
      ORDER BY s.environment_id, s.number DESC),
   scored AS (
-    SELECT sv.environment_id, m.key, m.pinch_score, m.rank,
-           row_number() OVER (PARTITION BY sv.environment_id ORDER BY m.pinch_score DESC, m.key) AS pinch_rank
+    SELECT sv.environment_id, m.key, m.pinch_score, m.rank, m.rank_pinch AS pinch_rank
       FROM served sv JOIN component_metrics m ON m.snapshot_id = sv.snapshot_id)`;
 
 interface ComponentRow {

@@ -11,6 +11,7 @@ import * as m0009 from "./0009-change-policies";
 import * as m0010 from "./0010-traces";
 import * as m0011 from "./0011-sessions-and-workers";
 import * as m0012 from "./0012-incidents";
+import * as m0013 from "./0013-analysis-results";
 
 export const MIGRATIONS = [
   { name: "0001-initial", ...m0001 },
@@ -25,4 +26,5 @@ export const MIGRATIONS = [
   { name: "0010-traces", ...m0010 },
   { name: "0011-sessions-and-workers", ...m0011 },
   { name: "0012-incidents", ...m0012 },
+  { name: "0013-analysis-results", ...m0013 },
 ];

@@ -95,16 +95,32 @@ describe("analysis jobs", () => {
     expect(empty.status).toBe(422);
   });
 
-  it("reports boot order with the cycle that cannot cold-start", async () => {
-    const res = await call(bootOrder, { url: "/api/v1/environments/prod/boot-order", params: { env: "prod" }, as: viewer });
-    const body = res.json as { stages: string[][]; cycles: string[][] };
-    expect(body.cycles.map((c) => [...c].sort())).toEqual([["a", "b"]]);
+  it("reports boot order with the cycle that cannot cold-start and the need to break first", async () => {
+    const res = await call(bootOrder, { url: "/api/v1/environments/prod/boot-order?components=true", params: { env: "prod" }, as: viewer });
+    const body = res.json as { stages: string[][]; cycles: Array<{ members: string[]; startOrder: string[]; breaks: Array<{ strength: string }>; breakCount: number }>; components: Record<string, { team: string | null }> };
+    expect(body.cycles.map((c) => [...c.members].sort())).toEqual([["a", "b"]]);
+    // a ⇄ b by hard needs: whichever starts first, one hard need must be broken by hand.
+    expect(body.cycles[0]).toMatchObject({ breakCount: 1, breaks: [{ strength: "hard" }] });
+    expect([...body.cycles[0]!.startOrder].sort()).toEqual(["a", "b"]);
     expect(body.stages[0]).toEqual(expect.arrayContaining(["auth", "db"]));
+    expect(body.components.web).toMatchObject({ team: "shop" });
+    // The overview asks for the cycles only.
+    const light = await call(bootOrder, { url: "/api/v1/environments/prod/boot-order?stages=false", params: { env: "prod" }, as: viewer });
+    expect(light.json).not.toHaveProperty("stages");
+    expect((light.json as { cycles: unknown[] }).cycles).toHaveLength(1);
   });
 
-  it("gives the component page its measures", async () => {
+  it("gives the component page its measures, ranks with ties and dominators", async () => {
     const res = await call(component, { url: "/api/v1/environments/prod/components/gateway", params: { env: "prod", key: "gateway" }, as: viewer });
-    expect(res.json).toMatchObject({ key: "gateway", needs: [{ key: "auth" }, { key: "db" }], dependents: [{ key: "app" }, { key: "web" }], metrics: { rank: 1, articulation: true } });
+    expect(res.json).toMatchObject({ key: "gateway", needs: [{ key: "auth" }, { key: "db" }], dependents: [{ key: "app" }, { key: "web" }], metrics: { rank: 1, tied: 1, articulation: true } });
+    // Entries are web and app (tier 1, nothing needs them). Every path from each to auth and db
+    // passes through gateway; from both together too, while gateway itself is reached two ways.
+    expect((res.json as { metrics: unknown }).metrics).toMatchObject({
+      entry: false,
+      dominators: { entriesReaching: 2, entriesDominated: 2, maxDominated: 2, dominatedAll: 2, idomAll: null, fromEntries: [{ entry: "app", dominated: 2 }, { entry: "web", dominated: 2 }] },
+    });
+    const web = await call(component, { url: "/api/v1/environments/prod/components/web", params: { env: "prod", key: "web" }, as: viewer });
+    expect(web.json).toMatchObject({ metrics: { entry: true }, fromHere: { reached: 3, through: [{ key: "gateway", dominated: 2 }] } });
   });
 
   it("a new snapshot is analysed in turn and the old results stay until then", async () => {

@@ -103,7 +103,7 @@ describe("GET …/rankings/export", () => {
     expect(res.headers.get("content-type")).toContain("text/csv");
     expect(res.headers.get("content-disposition")).toContain("snapshot-3.csv");
     const lines = String(res.json).trimEnd().split("\r\n");
-    expect(lines[0]).toBe("rank,key,name,kind,team,tier,betweenness,pagerank,eigenvector,clustering,blast_down,blast_degraded,pinch_score,articulation,in_cycle,single_point,snapshot");
+    expect(lines[0]).toBe("rank,key,name,kind,team,tier,betweenness,pagerank,eigenvector,clustering,blast_down,blast_degraded,pinch_score,articulation,in_cycle,single_point,entries_dominated,snapshot");
     expect(lines).toHaveLength(1 + 4);
     const api = await call(rankings, { url: `/api/v1/environments/${ENV}/rankings?sort=pagerank&order=desc&limit=1000`, params, as: users.viewer });
     const apiKeys = (api.json as { items: Array<{ key: string }> }).items.map((i) => i.key);

@@ -16,6 +16,14 @@ export const rankingsQuerySchema = z
   })
   .strict();
 
+/** Boot order: the stages can be left out (the overview only counts cycles); the runbook wants each component's name and owner. */
+export const bootOrderQuerySchema = z
+  .object({
+    stages: z.enum(["true", "false"]).default("true").transform((v) => v === "true"),
+    components: z.enum(["true", "false"]).default("false").transform((v) => v === "true"),
+  })
+  .strict();
+
 /** The CSV export: the same filters and sort as the rankings, every row. */
 export const rankingsExportQuerySchema = rankingsQuerySchema.omit({ limit: true, offset: true });
 

@@ -1,13 +1,22 @@
-// GET /api/v1/environments/{env}/boot-order — cold-start stages; cycles cannot start unaided.
+// GET /api/v1/environments/{env}/boot-order[?stages=false] — cold-start stages (start-up-only needs
+// included); cycles cannot start unaided, each with a suggested start order and the needs to break
+// first. `stages=false` leaves the stages out (the overview only counts cycles).
 import { NextResponse } from "next/server";
-import { parseParams } from "@/lib/api/query";
+import { parseParams, parseQuery } from "@/lib/api/query";
+import { bootOrderQuerySchema } from "@/lib/api/schemas/analysis";
 import { envParamsSchema } from "@/lib/api/schemas/common";
 import { withPermission } from "@/lib/auth/with-permission";
+import { getBootOrder, getCycles } from "@/lib/data/analysis-results";
 import { analysisMeta, getServedAnalysis } from "@/lib/data/environment-analysis";
 
-export const GET = withPermission<{ env: string }>("read", async ({ params }) => {
+export const GET = withPermission<{ env: string }>("read", async ({ req, params }) => {
   const { env } = parseParams(params, envParamsSchema);
-  const served = await getServedAnalysis({ slug: env, withGraph: true });
-  const boot = served.view.graph?.bootOrder ?? { stages: [], cycles: [], waitingOnCycle: [] };
-  return NextResponse.json({ ...analysisMeta(served), stages: boot.stages, cycles: boot.cycles, waitingOnCycle: boot.waitingOnCycle });
+  const query = parseQuery(req.url, bootOrderQuerySchema);
+  const served = await getServedAnalysis({ slug: env });
+  const ids = { snapshotId: served.snapshot.id, environmentId: served.environment.id };
+  if (!query.stages) {
+    return NextResponse.json({ ...analysisMeta(served), cycles: await getCycles({ snapshotId: ids.snapshotId, kind: "boot" }) });
+  }
+  const boot = await getBootOrder({ ...ids, withComponents: query.components });
+  return NextResponse.json({ ...analysisMeta(served), ...boot });
 });

@@ -9,6 +9,7 @@ import { getAnalysisView } from "@/lib/data/analysis-results";
 import { annotateComponent } from "@/lib/data/annotations";
 import { getComponentDetail, getComponentMetrics } from "@/lib/data/component-detail";
 import { getEnvironmentOrThrow } from "@/lib/data/environments";
+import { entryDominators } from "@/lib/data/snapshot-graph";
 import { parseOrThrow } from "@/lib/errors";
 
 export const GET = withPermission<{ env: string; key: string }>("read", async ({ params }) => {
@@ -16,7 +17,20 @@ export const GET = withPermission<{ env: string; key: string }>("read", async ({
   const environment = await getEnvironmentOrThrow({ slug: env });
   const [detail, view] = await Promise.all([getComponentDetail({ environmentId: environment.id, key }), getAnalysisView({ environmentId: environment.id })]);
   const metrics = view.served ? await getComponentMetrics({ snapshotId: view.served.id, key }) : null;
-  return NextResponse.json({ ...detail, metrics, snapshot: view.served ? { number: view.served.number, createdAt: view.served.createdAt } : null });
+  // An entry point also shows what every path from it passes through (one dominator tree, on demand).
+  const fromHere = view.served && metrics?.entry ? await entryDominators({ snapshotId: view.served.id, entry: key }) : null;
+  const summary = view.summary;
+  return NextResponse.json({
+    ...detail,
+    metrics,
+    fromHere,
+    snapshot: view.served ? { number: view.served.number, createdAt: view.served.createdAt } : null,
+    measures: {
+      pagerank: summary?.pagerank ? { converged: summary.pagerank.converged, reason: summary.pagerank.reason } : null,
+      eigenvector: summary?.eigenvector ? { converged: summary.eigenvector.converged, reason: summary.eigenvector.reason } : null,
+      dominators: summary?.dominators ?? null,
+    },
+  });
 });
 
 export const PATCH = withPermission<{ env: string; key: string }>("components:annotate", async ({ req, params, actor }) => {

@@ -47,6 +47,8 @@ import {
 export interface MapCanvasProps {
   graph: MapGraph;
   focus?: string | null;
+  /** colour mode to open with (`?colour=` in the URL) */
+  colour?: ColourMode | null;
   canEdit: boolean;
   onSelect?(key: string | null): void;
   onPinPositions?(positions: Record<string, { x: number; y: number }>): void;
@@ -108,7 +110,7 @@ function MapCanvasInner(props: MapCanvasProps) {
   const theme = useDataTheme();
   const ids = useId();
 
-  const [colourMode, setColourMode] = useState<ColourMode>("betweenness");
+  const [colourMode, setColourMode] = useState<ColourMode>(props.colour ?? "betweenness");
   const [filters, setFilters] = useState<MapFilters>(NO_FILTERS);
   const [focusKey, setFocusKey] = useState<string | null>(props.focus ?? null);
   const [focusProp, setFocusProp] = useState<string | null>(props.focus ?? null);

@@ -10,7 +10,7 @@ import { ReviewBadge } from "@/components/reviews/ReviewBadge";
 import { useReviews } from "@/components/reviews/useReviews";
 import { Inspector, inspectorLinks, type InspectorSave } from "./Inspector";
 import { MapCanvas } from "./MapCanvas";
-import { mapGraphSchema, type MapGraph, type PinnedPositions } from "./types";
+import { mapGraphSchema, type ColourMode, type MapGraph, type PinnedPositions } from "./types";
 import { useIncidentOverlay } from "@/components/incidents/MapOverlay";
 
 async function fetchGraph(url: string): Promise<MapGraph> {
@@ -51,7 +51,7 @@ function InspectorFor({ env, graph, nodeKey, canEdit, onSelect }: { env: string;
   );
 }
 
-export function MapScreen({ env, focus, canEdit, incident = false }: { env: string; focus: string | null; canEdit: boolean; incident?: boolean }) {
+export function MapScreen({ env, focus, colour, canEdit, incident = false }: { env: string; focus: string | null; colour?: ColourMode | null; canEdit: boolean; incident?: boolean }) {
   const overlay = useIncidentOverlay(env, incident);
   const router = useRouter();
   const pathname = usePathname();
@@ -101,6 +101,7 @@ export function MapScreen({ env, focus, canEdit, incident = false }: { env: stri
           graph={data}
           focus={focus ?? overlay.focus}
           marks={overlay.marks}
+          colour={colour ?? null}
           canEdit={canEdit}
           pinned={pinned}
           onPinPositions={onPinPositions}

@@ -91,6 +91,12 @@ export function measureValue(node: MapNode, mode: MeasureMode): number | null {
 
 export function measureScale(nodes: readonly MapNode[], mode: MeasureMode): MeasureScale {
   if (mode === "pinchScore") return { mode, max: 100, transform: "linear" };
+  // A count of entry points: few distinct values, read directly.
+  if (mode === "entriesDominated") {
+    let max = 0;
+    for (const n of nodes) max = Math.max(max, measureValue(n, mode) ?? 0);
+    return { mode, max, transform: "linear" };
+  }
   let max = 0;
   for (const n of nodes) max = Math.max(max, measureValue(n, mode) ?? 0);
   return { mode, max, transform: "sqrt" };
@@ -178,6 +184,11 @@ export function buildLegend(palette: Palette, teamNames: ReadonlyMap<string, str
     title: MODE_LABELS[palette.mode],
     stops: [...RAMP],
     ticks,
-    note: scale.transform === "sqrt" ? "Square-root scale: small differences at the low end stay visible." : "Linear scale 0–100.",
+    note:
+      scale.transform === "sqrt"
+        ? "Square-root scale: small differences at the low end stay visible."
+        : palette.mode === "entriesDominated"
+          ? "Entry points (tier 1, nothing depends on them) from which every path to something passes through the component."
+          : "Linear scale 0–100.",
   };
 }

@@ -7,7 +7,7 @@ import useSWR from "swr";
 import { Badge } from "@/components/ui/Badge";
 import { Card, Stat } from "@/components/ui/Card";
 import { fetchJson, type ApiError } from "@/lib/client/fetcher";
-import { ageOf, betweennessPct, percent, pinchScore } from "@/components/ui/format";
+import { ageOf, betweennessPct, percent, pinchScore, rankLabel } from "@/components/ui/format";
 import type { EnvironmentCounts } from "@/lib/data/components";
 import type { EnvironmentSummary } from "@/lib/data/environments";
 import type { RankingItem, RankingsResponse } from "@/components/rankings/api-types";
@@ -54,9 +54,11 @@ function TopList({ env, title, items, error, value }: { env: string; title: stri
         <p className="text-sm text-muted">Waiting for the first analysis…</p>
       ) : (
         <ol className="space-y-1.5">
-          {items.map((i, n) => (
+          {items.map((i) => (
             <li key={i.key} className="flex items-center gap-2 text-sm">
-              <span className="w-5 text-right font-mono text-xs text-faint">{n + 1}</span>
+              <span className="w-7 text-right font-mono text-xs text-faint" title={i.position.tied > 1 ? `shares this rank with ${i.position.tied - 1} other(s)` : undefined}>
+                {rankLabel(i.position)}
+              </span>
               <Link href={`/environments/${env}/components/${i.key}`} className="font-mono text-ink hover:text-brass">
                 {i.key}
               </Link>

@@ -15,7 +15,7 @@ export function AppShell({ user, defaultEnv, children }: { user: { name: string;
   const items = NAV.filter((item) => !item.permission || roleHas(user.role, item.permission));
   return (
     <div className="flex min-h-screen flex-col">
-      <header className="sticky top-0 z-30 flex h-12 items-center gap-4 border-b border-line bg-surface/95 px-4 backdrop-blur">
+      <header className="sticky top-0 z-30 flex h-12 print:hidden items-center gap-4 border-b border-line bg-surface/95 px-4 backdrop-blur">
         <Link href="/" aria-label="Pinchpoint home">
           <Logo size={22} />
         </Link>

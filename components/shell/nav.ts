@@ -18,6 +18,7 @@ export const NAV: NavItem[] = [
   { label: "Pinch points", href: (env) => envPath(env, "/pinch-points"), match: under("/pinch-points") },
   { label: "Drills", href: (env) => envPath(env, "/drills"), match: under("/drills") },
   { label: "Incidents", href: (env) => envPath(env, "/incidents"), match: under("/incidents") },
+  { label: "Cold start", href: (env) => envPath(env, "/boot-order"), match: under("/boot-order") },
   { label: "Components", href: (env) => envPath(env, "/components"), match: under("/components") },
   { label: "Imports", href: (env) => envPath(env, "/imports"), match: under("/imports") },
   { label: "History", href: (env) => envPath(env, "/history"), match: under("/history") },

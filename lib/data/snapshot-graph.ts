@@ -122,3 +122,17 @@ export async function entryDominators({ snapshotId, entry, limit = 50 }: { snaps
   const { reached, through } = passesThrough(graph, root);
   return { reached, total: through.length, through: through.slice(0, limit).map((t) => ({ key: graph.keys[t.node]!, dominated: t.dominated })) };
 }
+
+/** Start-up-only needs of a snapshot (the strongest need on the pair is start-up only), by dependent, for the cold-start runbook. */
+export async function startupNeeds({ snapshotId }: { snapshotId: string }): Promise<Record<string, string[]>> {
+  const { graph } = await getSnapshotGraph({ snapshotId });
+  const out: Record<string, string[]> = {};
+  const { offsets, targets } = graph.boot;
+  for (let u = 0; u < graph.n; u++) {
+    for (let e = offsets[u]!; e < offsets[u + 1]!; e++) {
+      if (graph.bootStrength[e] !== 2) continue;
+      (out[graph.keys[u]!] ??= []).push(graph.keys[targets[e]!]!);
+    }
+  }
+  return out;
+}

@@ -1,6 +1,7 @@
 // GET /api/v1/environments/{env}/boot-order[?stages=false] — cold-start stages (start-up-only needs
 // included); cycles cannot start unaided, each with a suggested start order and the needs to break
-// first. `stages=false` leaves the stages out (the overview only counts cycles).
+// first. `stages=false` leaves the stages out (the overview only counts cycles); `components=true`
+// adds each component's name, owner and tier and its start-up-only needs (the runbook).
 import { NextResponse } from "next/server";
 import { parseParams, parseQuery } from "@/lib/api/query";
 import { bootOrderQuerySchema } from "@/lib/api/schemas/analysis";
@@ -8,6 +9,7 @@ import { envParamsSchema } from "@/lib/api/schemas/common";
 import { withPermission } from "@/lib/auth/with-permission";
 import { getBootOrder, getCycles } from "@/lib/data/analysis-results";
 import { analysisMeta, getServedAnalysis } from "@/lib/data/environment-analysis";
+import { startupNeeds } from "@/lib/data/snapshot-graph";
 
 export const GET = withPermission<{ env: string }>("read", async ({ req, params }) => {
   const { env } = parseParams(params, envParamsSchema);
@@ -17,6 +19,6 @@ export const GET = withPermission<{ env: string }>("read", async ({ req, params 
   if (!query.stages) {
     return NextResponse.json({ ...analysisMeta(served), cycles: await getCycles({ snapshotId: ids.snapshotId, kind: "boot" }) });
   }
-  const boot = await getBootOrder({ ...ids, withComponents: query.components });
-  return NextResponse.json({ ...analysisMeta(served), ...boot });
+  const [boot, startup] = await Promise.all([getBootOrder({ ...ids, withComponents: query.components }), query.components ? startupNeeds({ snapshotId: ids.snapshotId }) : null]);
+  return NextResponse.json({ ...analysisMeta(served), ...boot, ...(startup ? { startupNeeds: startup } : {}) });
 });

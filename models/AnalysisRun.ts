@@ -23,6 +23,8 @@ export class AnalysisRun extends Model<InferAttributes<AnalysisRun>, InferCreati
   declare timings: Record<string, number> | null;
   /** a small summary of graph-level results (counts, convergence, weights); the results themselves live in component_metrics, component_dominance and analysis_cycles */
   declare graph: unknown;
+  /** bridges of the undirected projection, as [key, key] pairs (the impact of a push compares them) */
+  declare bridges: Array<[string, string]> | null;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 
@@ -45,6 +47,7 @@ export class AnalysisRun extends Model<InferAttributes<AnalysisRun>, InferCreati
         sampleSize: { type: DataTypes.INTEGER, allowNull: true },
         timings: { type: DataTypes.JSONB, allowNull: true },
         graph: { type: DataTypes.JSONB, allowNull: true },
+        bridges: { type: DataTypes.JSONB, allowNull: true },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

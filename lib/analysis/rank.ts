@@ -1,6 +1,8 @@
-// The order of the pinch-point list (DESIGN §3: "Rankings default to betweenness"): betweenness,
-// then pinch score, then key. Stored ranks and the ranks of a change's impact come from this one
-// function, so a proposed graph is ranked exactly as the worker would rank it.
+// A strict order of components (DESIGN §3: "Rankings default to betweenness"): betweenness, then
+// pinch score, then key — the positions a change's impact compares. The ranks the worker stores
+// and the API serves are competition ranks in which equal values share a rank (DESIGN §10,
+// lib/analysis/ranks.ts); both compare values at the same 12 significant digits.
+import { significant } from "./ranks";
 import type { NodeMetrics } from "./types";
 
 type Ranked = Pick<NodeMetrics, "key" | "betweenness" | "pinchScore">;
@@ -10,7 +12,7 @@ type Ranked = Pick<NodeMetrics, "key" | "betweenness" | "pinchScore">;
  * of Brandes' accumulation a unit in the last place apart (sums taken in another order), and the
  * ranking must not turn on that noise.
  */
-const settle = (x: number): number => (x === 0 ? 0 : Number(x.toPrecision(12)));
+const settle = significant;
 
 export function rankedByBetweenness<T extends Ranked>(nodes: readonly T[]): T[] {
   return nodes

@@ -315,7 +315,7 @@ async function storeResult({
     }
     await sequelize.query(
       `UPDATE analysis_runs SET status = 'done', progress = 1, phase = 'done', finished_at = now(), updated_at = now(),
-              exact = :exact, sample_size = :sampleSize, timings = :timings::jsonb, graph = :graph::jsonb, locked_by = NULL
+              exact = :exact, sample_size = :sampleSize, timings = :timings::jsonb, graph = :graph::jsonb, bridges = :bridges::jsonb, locked_by = NULL
         WHERE id = :id`,
       {
         replacements: {
@@ -324,6 +324,7 @@ async function storeResult({
           sampleSize: g.sampleSize,
           timings: JSON.stringify(result.timings),
           graph: JSON.stringify(summary),
+          bridges: JSON.stringify(g.bridges),
         },
         transaction,
       },

@@ -8,6 +8,7 @@ import type { Actor } from "@/lib/auth/actor";
 import { roleHas } from "@/lib/auth/roles";
 import { appUrl } from "@/lib/config";
 import { AppError, forbidden } from "@/lib/errors";
+import { ranksByKey } from "@/lib/analysis/rank";
 import { DEFAULT_PINCH_WEIGHTS, pinchWeightsSchema, type PinchWeights } from "@/lib/analysis/types";
 import { impactOf, type ImpactReport, type StoredAnalysis } from "@/lib/impact";
 import type { MeasureFacts } from "@/lib/impact/compare";
@@ -28,7 +29,7 @@ import { readEnvironmentPolicies } from "./change-policies";
 async function freshStoredAnalysis({ environmentId, weights }: { environmentId: string; weights: PinchWeights }, transaction: Transaction): Promise<StoredAnalysis | null> {
   const { sequelize } = db();
   const [latest] = await sequelize.query<{ id: string; number: number; status: string | null; exact: boolean | null; bridges: Array<[string, string]> | null; weights: unknown }>(
-    `SELECT s.id, s.number, a.status, a.exact, a.graph->'bridges' AS bridges, a.graph->'weights' AS weights
+    `SELECT s.id, s.number, a.status, a.exact, a.bridges, a.graph->'weights' AS weights
        FROM snapshots s LEFT JOIN analysis_runs a ON a.snapshot_id = s.id
       WHERE s.environment_id = :environmentId ORDER BY s.number DESC LIMIT 1`,
     { type: QueryTypes.SELECT, replacements: { environmentId }, transaction },
@@ -36,12 +37,15 @@ async function freshStoredAnalysis({ environmentId, weights }: { environmentId: 
   if (!latest || latest.status !== "done" || !latest.bridges) return null;
   const stored = pinchWeightsSchema.safeParse(latest.weights);
   if (!stored.success || stored.data.betweenness !== weights.betweenness || stored.data.reach !== weights.reach || stored.data.single !== weights.single) return null;
-  const rows = await sequelize.query<{ key: string; pinch_score: number; rank: number; blast_down: number; blast_degraded: number; articulation: boolean }>(
-    "SELECT key, pinch_score, rank, blast_down, blast_degraded, articulation FROM component_metrics WHERE snapshot_id = :id",
+  const rows = await sequelize.query<{ key: string; betweenness: number; pinch_score: number; blast_down: number; blast_degraded: number; articulation: boolean }>(
+    "SELECT key, betweenness, pinch_score, blast_down, blast_degraded, articulation FROM component_metrics WHERE snapshot_id = :id",
     { type: QueryTypes.SELECT, replacements: { id: latest.id }, transaction },
   );
+  // The stored ranks share ties (DESIGN §10); the comparison needs positions, ordered exactly as
+  // the fresh side orders them (lib/analysis/rank.ts).
+  const ranks = ranksByKey(rows.map((r) => ({ key: r.key, betweenness: r.betweenness, pinchScore: r.pinch_score })));
   const measures = new Map<string, MeasureFacts>();
-  for (const r of rows) measures.set(r.key, { pinchScore: r.pinch_score, rank: r.rank, blastDown: r.blast_down, blastDegraded: r.blast_degraded, articulation: r.articulation });
+  for (const r of rows) measures.set(r.key, { pinchScore: r.pinch_score, rank: ranks.get(r.key)!, blastDown: r.blast_down, blastDegraded: r.blast_degraded, articulation: r.articulation });
   return { snapshot: latest.number, measures, bridges: latest.bridges, exact: latest.exact ?? true };
 }
 

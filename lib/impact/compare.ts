@@ -5,7 +5,7 @@
 // (who exactly goes down, cycles of hard needs, dominators per entry) for the part of the graph
 // the change can reach, so that a 50-component change to a 20,000-component estate costs little
 // beyond analysing the proposed graph once.
-import { dominators, entryRoots } from "@/lib/analysis/dominators";
+import { entryRoots, passesThrough } from "@/lib/analysis/dominators";
 import type { CompactGraph, Csr } from "@/lib/analysis/graph";
 import { isSinglePoint } from "@/lib/analysis/pinch-score";
 import { ranksByKey } from "@/lib/analysis/rank";
@@ -307,25 +307,14 @@ function withDownSets(change: BlastChange, downBefore: DownSets, downAfter: Down
 
 /**
  * Components each entry point cannot avoid: those that strictly dominate at least one component
- * from it (Cooper–Harvey–Kennedy, lib/analysis/dominators.ts), with how many they dominate.
+ * from it (semi-NCA, lib/analysis/dominators.ts), with how many they dominate.
  */
 function chokepoints(graph: CompactGraph, entries: readonly string[]): Map<string, Map<string, number>> {
   const out = new Map<string, Map<string, number>>();
-  const roots = entries.map((k) => graph.indexOf.get(k)).filter((v): v is number => v !== undefined);
-  // In batches, so the trees of a few thousand entries never have to be held at once.
-  for (let i = 0; i < roots.length; i += 64) {
-    const batch = roots.slice(i, i + 64);
-    const { trees } = dominators(graph, { roots: batch, maxTreeEntries: Number.MAX_SAFE_INTEGER });
-    for (const tree of trees ?? []) {
-      const pos = new Map<number, number>();
-      tree.nodes.forEach((v, j) => pos.set(v, j));
-      const size = new Int32Array(tree.nodes.length).fill(1);
-      // Nodes come in reverse postorder (an idom before the nodes it dominates): sum sizes backwards.
-      for (let j = tree.nodes.length - 1; j >= 1; j--) size[pos.get(tree.idom[j]!)!]! += size[j]!;
-      const map = new Map<string, number>();
-      for (let j = 1; j < tree.nodes.length; j++) if (size[j]! > 1) map.set(graph.keys[tree.nodes[j]!]!, size[j]! - 1);
-      out.set(graph.keys[tree.root]!, map);
-    }
+  for (const entry of entries) {
+    const root = graph.indexOf.get(entry);
+    if (root === undefined) continue;
+    out.set(entry, new Map(passesThrough(graph, root).through.map((t) => [graph.keys[t.node]!, t.dominated])));
   }
   return out;
 }

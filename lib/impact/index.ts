@@ -61,7 +61,7 @@ export async function impactOf(req: ImpactRequest): Promise<ImpactReport> {
     before = { input: inputB, graph: graphB, measures: req.stored.measures, bridges: req.stored.bridges, components: componentsB };
     exact = req.stored.exact;
   } else {
-    const resultB = await analyse(graphB, { weights: req.weights, maxDominatorTreeEntries: 0 });
+    const resultB = await analyse(graphB, { weights: req.weights });
     before = sideFromAnalysis({ input: inputB, graph: graphB, result: resultB, components: componentsB });
     exact = resultB.graph.exact;
   }
@@ -74,7 +74,7 @@ export async function impactOf(req: ImpactRequest): Promise<ImpactReport> {
     const inputA = analysisInputFromContent(req.after, req.settings);
     const graphA = buildGraph(inputA);
     // The dominator trees of every entry are not read here (compare.ts works out the few it needs).
-    const resultA = await analyse(graphA, { weights: req.weights, maxDominatorTreeEntries: 0 });
+    const resultA = await analyse(graphA, { weights: req.weights });
     after = sideFromAnalysis({ input: inputA, graph: graphA, result: resultA, components: componentFacts(req.after) });
     exact &&= resultA.graph.exact;
   }

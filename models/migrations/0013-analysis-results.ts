@@ -74,6 +74,9 @@ export const up: MigrationFn = async ({ context: sequelize }) => {
                    rank() OVER (PARTITION BY snapshot_id ORDER BY blast_down DESC) AS rank_blast
               FROM component_metrics) r
      WHERE r.id = m.id;
+    -- Bridges are read by the impact of a push (lib/data/impact.ts): a column of their own.
+    ALTER TABLE analysis_runs ADD COLUMN bridges jsonb;
+    UPDATE analysis_runs SET bridges = graph -> 'bridges' WHERE graph ? 'bridges';
     UPDATE analysis_runs SET graph = graph - 'perNode' - 'dominatorTrees' - 'dominatorRoots' - 'cycles' - 'bootOrder' - 'bridges' - 'implicitKeys'
      WHERE graph IS NOT NULL;
 
@@ -93,6 +96,7 @@ export const down: MigrationFn = async ({ context: sequelize }) => {
     DROP INDEX IF EXISTS component_metrics_rank_pagerank, component_metrics_rank_eigenvector, component_metrics_rank_pinch,
       component_metrics_rank_blast, component_metrics_entries_dominated;
     DROP TABLE IF EXISTS component_dominance, analysis_cycles;
+    ALTER TABLE analysis_runs DROP COLUMN bridges;
     ALTER TABLE component_metrics
       DROP COLUMN tied, DROP COLUMN rank_pagerank, DROP COLUMN tied_pagerank, DROP COLUMN rank_eigenvector, DROP COLUMN tied_eigenvector,
       DROP COLUMN rank_pinch, DROP COLUMN tied_pinch, DROP COLUMN rank_blast, DROP COLUMN tied_blast, DROP COLUMN boot_stage,

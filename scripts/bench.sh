@@ -1,6 +1,6 @@
 #!/usr/bin/env bash
 # npm run bench: the benchmark sections of scripts/bench.ts. Sections that need PostgreSQL (push, kubernetes, compose,
-# responsiveness) get a cluster of their own (.data/pg-bench, never the demo's or the tests'), on
+# responsiveness, scale, http) get a cluster of their own (.data/pg-bench, never the demo's or the tests'), on
 # the first free port from 54349 up, stopped again when the run ends; `--edge-list FILE` and the
 # in-memory sections need none. Arguments go to scripts/bench.ts.
 set -euo pipefail
@@ -18,7 +18,7 @@ for a in "$@"; do
   prev=$a
 done
 case "$args" in *" --edge-list "*) needs_db=0 ;; esac
-if [ -n "$only" ] && [ "$only" != push ] && [ "$only" != kubernetes ] && [ "$only" != compose ] && [ "$only" != responsiveness ]; then needs_db=0; fi
+case " $only " in "  " | " push " | " impact " | " kubernetes " | " compose " | " traces " | " responsiveness " | " scale " | " http ") ;; *) needs_db=0 ;; esac
 
 if [ "$needs_db" = 1 ]; then
   export PINCHPOINT_PG_NAME=pg-bench
@@ -31,4 +31,6 @@ if [ "$needs_db" = 1 ]; then
   export PINCHPOINT_BENCH_ADMIN_URL=$DATABASE_URL
   unset DATABASE_URL
 fi
+# The HTTP section serves the production build.
+if [ "$needs_db" = 1 ] && { [ -z "$only" ] || [ "$only" = http ]; } && needs_build; then log "building the app for the HTTP section"; npx next build >/dev/null; fi
 npx tsx scripts/bench.ts "$@"

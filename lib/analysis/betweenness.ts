@@ -7,6 +7,7 @@
 // separate paths, keeps 32-bit path counts that wrap on layered graphs, and is ~8× slower on 20k
 // components (NOTES-stack "Graph libraries"). Path counts here are Float64 (exact up to 2^53 and
 // then a faithful float, never a wrap).
+import { availableParallelism } from "node:os";
 import type { Worker as WorkerThread } from "node:worker_threads";
 import type { CompactGraph } from "./graph";
 import { sampleWithoutReplacement } from "./random";
@@ -19,11 +20,11 @@ export interface BetweennessOptions {
   seed?: number;
   /** Explicit sources (distinct node indices), overriding the exact/sampled choice. */
   sources?: Int32Array;
-  /** Worker threads in total (the calling thread counts as one). */
+  /** Threads in total (the calling thread counts as one); default 2, at most the cores available. */
   threads?: number;
-  /** Below this size a second thread costs more to start (~100 ms) than it saves. */
+  /** Below this many sources one thread always does it (default 2,000). */
   parallelThreshold?: number;
-  /** Split over threads only when the single-thread estimate exceeds this (worker start-up cost). */
+  /** Split over threads only when the single-thread estimate exceeds this (default 25 ms: the pool is warm). */
   minParallelMs?: number;
   onProgress?: (fraction: number) => void;
 }
@@ -154,72 +155,123 @@ export function betweenness(graph: CompactGraph, options: BetweennessOptions = {
   return { values: normalise(bc, n, Math.max(1, sources.length)), exact, sampleSize: sources.length, threadsUsed: 1 };
 }
 
-// The worker receives the kernel's own compiled source text, so it needs no module resolution:
-// this is what lets it run the same way under tsx, vitest (whose transformed modules a plain
-// worker could not import) and compiled code.
+// Pool workers receive the kernel's own compiled source text, so they need no module resolution:
+// this is what lets them run the same way under tsx, vitest (whose transformed modules a plain
+// worker could not import) and compiled code. They stay alive between calls (a worker costs
+// ~100 ms to start, more than the whole computation on a sparse 20,000-component estate) and keep
+// their scratch arrays while the graph size allows.
 function workerSource(): string {
   return `
-const { parentPort, workerData } = require("node:worker_threads");
+const { parentPort } = require("node:worker_threads");
 const brandesAccumulate = (${brandesAccumulate.toString()});
-const { n, offsets, targets, sources } = workerData;
-const bc = new Float64Array(n);
-const work = {
-  dist: new Int32Array(n).fill(-1),
-  sigma: new Float64Array(n),
-  coef: new Float64Array(n),
-  order: new Int32Array(n),
-  succ: new Int32Array(targets.length),
-  succStart: new Int32Array(n + 1),
-};
-const chunk = 128;
-for (let i = 0; i < sources.length; i += chunk) {
-  const end = Math.min(sources.length, i + chunk);
-  brandesAccumulate(offsets, targets, sources, i, end, bc, work);
-  parentPort.postMessage({ type: "progress", done: end });
-}
-parentPort.postMessage({ type: "done", bc }, [bc.buffer]);
+let work = null;
+parentPort.on("message", ({ id, n, offsets, targets, sources }) => {
+  if (!work || work.dist.length !== n || work.succ.length < targets.length) {
+    work = {
+      dist: new Int32Array(n).fill(-1),
+      sigma: new Float64Array(n),
+      coef: new Float64Array(n),
+      order: new Int32Array(n),
+      succ: new Int32Array(targets.length),
+      succStart: new Int32Array(n + 1),
+    };
+  }
+  const bc = new Float64Array(n);
+  const chunk = 128;
+  for (let i = 0; i < sources.length; i += chunk) {
+    const end = Math.min(sources.length, i + chunk);
+    brandesAccumulate(offsets, targets, sources, i, end, bc, work);
+    parentPort.postMessage({ id, type: "progress", done: end });
+  }
+  parentPort.postMessage({ id, type: "done", bc }, [bc.buffer]);
+});
+parentPort.postMessage({ type: "ready" });
 `;
 }
 
-type WorkerMessage = { type: "progress"; done: number } | { type: "done"; bc: Float64Array };
+type WorkerMessage = { type: "ready" } | { id: number; type: "progress"; done: number } | { id: number; type: "done"; bc: Float64Array };
 
-async function runWorker(
-  n: number,
-  graph: CompactGraph,
-  sources: Int32Array,
-  onDone: (count: number) => void,
-): Promise<Float64Array | null> {
-  let Worker: typeof WorkerThread;
+/** The warm pool: started once, kept (unreferenced, so it never holds a process open), refilled when a worker dies. */
+const pool: WorkerThread[] = [];
+let poolStarting: Promise<void> | null = null;
+let nextCallId = 1;
+
+async function startPoolWorker(): Promise<WorkerThread | null> {
   try {
-    ({ Worker } = await import("node:worker_threads"));
+    const { Worker } = await import("node:worker_threads");
+    const worker = new Worker(workerSource(), { eval: true });
+    await new Promise<void>((resolve, reject) => {
+      worker.once("message", (m: WorkerMessage) => (m.type === "ready" ? resolve() : reject(new Error("unexpected first message"))));
+      worker.once("error", reject);
+      worker.once("exit", () => reject(new Error("betweenness worker exited while starting")));
+    });
+    const forget = (): void => {
+      const i = pool.indexOf(worker);
+      if (i >= 0) pool.splice(i, 1);
+    };
+    worker.on("error", forget);
+    worker.on("exit", forget);
+    worker.unref();
+    return worker;
   } catch {
     return null;
   }
+}
+
+/**
+ * Starts (or tops up) the pool to `size` workers; returns how many are ready. The analysis thread
+ * calls this when it starts, so the first job finds the pool warm.
+ */
+export async function warmBetweennessPool(size = defaultThreads() - 1): Promise<number> {
+  while (poolStarting) await poolStarting;
+  if (pool.length < size) {
+    poolStarting = (async () => {
+      const started = await Promise.all(Array.from({ length: size - pool.length }, () => startPoolWorker()));
+      for (const w of started) if (w) pool.push(w);
+    })();
+    await poolStarting;
+    poolStarting = null;
+  }
+  return Math.min(size, pool.length);
+}
+
+/** Stops the pool (tests, shutdown). */
+export async function stopBetweennessPool(): Promise<void> {
+  await Promise.all(pool.splice(0).map((w) => w.terminate()));
+}
+
+function defaultThreads(): number {
+  // Two on this machine class; never more than the cores the process may use.
+  const cores = typeof availableParallelism === "function" ? availableParallelism() : 2;
+  return Math.max(1, Math.min(2, cores));
+}
+
+function runOnPool(worker: WorkerThread, n: number, graph: CompactGraph, sources: Int32Array, onDone: (count: number) => void): Promise<Float64Array | null> {
+  const id = nextCallId++;
   return new Promise((resolve) => {
-    let settled = false;
-    const finish = (value: Float64Array | null): void => {
-      if (!settled) {
-        settled = true;
-        resolve(value);
+    const cleanup = (): void => {
+      worker.off("message", onMessage);
+      worker.off("exit", onExit);
+      worker.off("error", onExit);
+      worker.unref();
+    };
+    const onMessage = (msg: WorkerMessage): void => {
+      if (msg.type === "ready" || msg.id !== id) return;
+      if (msg.type === "progress") onDone(msg.done);
+      else {
+        cleanup();
+        resolve(msg.bc);
       }
     };
-    try {
-      const worker = new Worker(workerSource(), {
-        eval: true,
-        workerData: { n, offsets: graph.out.offsets, targets: graph.out.targets, sources },
-      });
-      worker.on("message", (msg: WorkerMessage) => {
-        if (msg.type === "progress") onDone(msg.done);
-        else {
-          finish(msg.bc);
-          void worker.terminate();
-        }
-      });
-      worker.on("error", () => finish(null));
-      worker.on("exit", () => finish(null));
-    } catch {
-      finish(null);
-    }
+    const onExit = (): void => {
+      cleanup();
+      resolve(null);
+    };
+    worker.on("message", onMessage);
+    worker.once("exit", onExit);
+    worker.once("error", onExit);
+    worker.ref();
+    worker.postMessage({ id, n, offsets: graph.out.offsets, targets: graph.out.targets, sources });
   });
 }
 
@@ -227,19 +279,20 @@ const yieldToEventLoop = (): Promise<void> => new Promise((r) => setImmediate(r)
 
 /**
  * Betweenness split over `threads` threads (default 2: this machine class has 2 cores): the
- * calling thread takes one share and worker threads the rest. A worker costs ~100 ms to start, so
- * a probe of evenly spread sources is timed first and the rest is only split when the estimate
- * says it pays (dependency graphs vary widely in how far each source reaches). Any worker that
- * cannot start or dies has its share computed here instead: the result never depends on workers.
+ * calling thread takes one share and warm pool workers the rest. A probe of evenly spread sources
+ * is timed first and the rest is only split when the estimate says it pays (dependency graphs vary
+ * widely in how far each source reaches, and handing a share to a worker costs a message and a
+ * copy of the graph). Any worker that cannot start or dies has its share computed here instead:
+ * the result never depends on workers.
  */
 export async function betweennessParallel(
   graph: CompactGraph,
   options: BetweennessOptions = {},
 ): Promise<BetweennessResult> {
   const { n } = graph;
-  const threads = Math.max(1, Math.floor(options.threads ?? 2));
-  const threshold = options.parallelThreshold ?? 5000;
-  const minParallelMs = options.minParallelMs ?? 200;
+  const threads = Math.max(1, Math.floor(options.threads ?? defaultThreads()));
+  const threshold = options.parallelThreshold ?? 2000;
+  const minParallelMs = options.minParallelMs ?? 25;
   const { sources, exact } = chooseSources(n, options);
   if (threads < 2 || sources.length < threshold) return betweenness(graph, options);
 
@@ -282,12 +335,15 @@ export async function betweennessParallel(
   }
   const done = new Array<number>(threads).fill(0);
   const report = (): void => options.onProgress?.((probeCount + done.reduce((a, b) => a + b, 0)) / total);
-  const workerRuns = shares.slice(1).map((share, i) =>
-    runWorker(n, graph, share, (count) => {
+  await warmBetweennessPool(threads - 1);
+  const workerRuns = shares.slice(1).map((share, i) => {
+    const worker = pool[i];
+    if (!worker) return Promise.resolve(null);
+    return runOnPool(worker, n, graph, share, (count) => {
       done[i + 1] = count;
       report();
-    }),
-  );
+    });
+  });
 
   const mine = shares[0]!;
   const chunk = 128;

@@ -2,6 +2,7 @@
 // and answers with progress and the result, so the CPU-heavy phases never hold up the caller's
 // event loop (the job's heartbeat, the queue).
 import { parentPort } from "node:worker_threads";
+import { warmBetweennessPool } from "./betweenness";
 import { analyse } from "./index";
 import type { AnalysisInput, AnalysisOptions } from "./types";
 
@@ -30,3 +31,6 @@ if (port) {
   });
   port.postMessage({ type: "ready" });
 }
+
+// The betweenness pool starts with the thread, so the first job finds it warm.
+void warmBetweennessPool();

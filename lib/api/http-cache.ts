@@ -27,6 +27,6 @@ export function notModified(req: Request, etag: string): Response | null {
 }
 
 /** A JSON body already serialised, with the validators. */
-export function jsonWithEtag(body: string, etag: string): Response {
+export function jsonWithEtag(body: string | Uint8Array<ArrayBuffer>, etag: string): Response {
   return new Response(body, { status: 200, headers: { "content-type": "application/json", etag, ...CACHE_HEADERS } });
 }

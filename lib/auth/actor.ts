@@ -69,7 +69,7 @@ export async function resolveActor(headers: Headers): Promise<Actor | null> {
   }
   // The session is next-auth's signed JWT cookie, read from the request's own headers (the same
   // way in route handlers, server actions and pages, and in tests that carry a real cookie).
-  const jwt = await getToken({ req: new NextRequest("http://pinchpoint.invalid/", { headers }), secret: authSecret() });
+  const jwt = await sessionClaims(headers);
   const id = jwt?.sub;
   if (!id) return null;
   // Re-read the user: a deactivation or role change takes effect on the next request, and a session
@@ -78,4 +78,32 @@ export async function resolveActor(headers: Headers): Promise<Actor | null> {
   if (!user || !user.active) return null;
   if (jwt.sv !== user.sessionVersion) return null;
   return { type: "user", id: user.id, email: user.email, name: user.name, role: user.role, label: user.email };
+}
+
+/**
+ * Decoding next-auth's cookie derives a key (HKDF) and decrypts a JWE on every request: under
+ * concurrent readers that was the costliest step of the session check. The same cookie always
+ * decodes to the same claims, so each decoded cookie is kept until its expiry (at most a minute),
+ * a few thousand at a time. Kept on globalThis: Next may bundle this module more than once.
+ */
+type Claims = { sub: string; sv: unknown };
+const decoded = ((globalThis as unknown as { __pinchpointSessions?: Map<string, { until: number; claims: Claims }> }).__pinchpointSessions ??= new Map());
+
+/**
+ * Only what the cookie says is kept, never whether it is still good: the user (and so the session
+ * version a sign-out bumps) is read on every request.
+ */
+async function sessionClaims(headers: Headers): Promise<Claims | null> {
+  const cookie = headers.get("cookie") ?? "";
+  if (!cookie.includes("session-token")) return null;
+  const now = Date.now();
+  const hit = decoded.get(cookie);
+  if (hit && hit.until > now) return hit.claims;
+  const jwt = await getToken({ req: new NextRequest("http://pinchpoint.invalid/", { headers }), secret: authSecret() });
+  if (!jwt?.sub) return null;
+  const claims: Claims = { sub: jwt.sub, sv: jwt.sv };
+  const exp = typeof jwt.exp === "number" ? jwt.exp * 1000 : now;
+  if (decoded.size >= 5000) decoded.clear();
+  decoded.set(cookie, { until: Math.min(exp, now + 60_000), claims });
+  return claims;
 }

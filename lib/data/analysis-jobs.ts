@@ -11,6 +11,7 @@ import { readSettings } from "@/lib/inventory/settings";
 import type { AnalysisOptions, PinchWeights } from "@/lib/analysis/types";
 import type { SnapshotContent } from "@/lib/inventory/snapshot";
 import { noticeTopTenChanges } from "@/lib/mail";
+import { forgetServedState } from "./analysis-results";
 
 /** A running job with no heartbeat for this long is taken to be orphaned (PINCHPOINT_ANALYSIS_STALE_S overrides it). */
 export const STALE_AFTER_S = 60;
@@ -19,7 +20,14 @@ const staleAfterS = (): number => Number(process.env.PINCHPOINT_ANALYSIS_STALE_S
 const beatMs = (): number => Math.max(250, Math.min(10_000, (staleAfterS() * 1000) / 4));
 export const MAX_ATTEMPTS = 3;
 
+/** Readers see a queue change at once: after the caller's commit, or now when there is no transaction. */
+function forgetAfter(transaction?: Transaction): void {
+  if (transaction) transaction.afterCommit(forgetServedState);
+  else forgetServedState();
+}
+
 export async function queueAnalysis({ environmentId, snapshotId }: { environmentId: string; snapshotId: string }, transaction?: Transaction): Promise<void> {
+  forgetAfter(transaction);
   await db().models.AnalysisRun.create({
     environmentId,
     snapshotId,
@@ -50,6 +58,7 @@ export async function requeueLatestAnalysis({ environmentId }: { environmentId: 
     { type: QueryTypes.SELECT, replacements: { environmentId }, transaction },
   );
   if (!latest) return null;
+  forgetAfter(transaction);
   if (latest.run_id) {
     await sequelize.query(
       `UPDATE analysis_runs SET status = 'queued', progress = 0, phase = NULL, attempts = 0, locked_by = NULL,
@@ -95,6 +104,7 @@ export async function claimNextJob(worker = workerId()): Promise<ClaimedJob | nu
       RETURNING r.id, r.snapshot_id, r.environment_id, r.attempts`,
     { type: QueryTypes.SELECT, replacements: { worker, stale: staleAfterS() } },
   );
+  if (rows[0]) forgetServedState();
   return rows[0] ?? null;
 }
 
@@ -152,6 +162,7 @@ export async function runJob(job: ClaimedJob, worker = workerId(), options: Anal
     return "failed";
   } finally {
     clearInterval(beat);
+    forgetServedState();
   }
 }
 

@@ -72,11 +72,39 @@ const RUN_SELECT = `SELECT s.id AS snapshot_id, s.number, s.created_at, s.compon
                            a.status, a.progress, a.phase, a.finished_at, a.exact, a.sample_size, a.error
                       FROM snapshots s LEFT JOIN analysis_runs a ON a.snapshot_id = s.id`;
 
+type ServedState = Awaited<ReturnType<typeof readServedState>>;
+
+/**
+ * The served state of an environment, answered from memory for up to STATE_CACHE_MS. Every analysis
+ * read starts with it, so under concurrent readers its round trip was the largest cost left. Changes
+ * made in this process (a push queueing an analysis, a job finishing, an owner assigned, an
+ * environment renamed) clear it at once (`forgetServedState`); the worker's progress, from another
+ * process, shows within STATE_CACHE_MS. Kept on globalThis: Next may bundle this module twice.
+ */
+const STATE_CACHE_MS = Number(process.env.PINCHPOINT_STATE_CACHE_MS ?? 1000);
+const stateCache = ((globalThis as unknown as { __pinchpointServed?: Map<string, { at: number; state: Promise<ServedState> }> }).__pinchpointServed ??= new Map());
+
+export function getServedState({ slug }: { slug: string }): Promise<ServedState> {
+  const now = Date.now();
+  const hit = stateCache.get(slug);
+  if (hit && now - hit.at < STATE_CACHE_MS) return hit.state;
+  const state = readServedState({ slug });
+  if (stateCache.size >= 1000) stateCache.clear();
+  stateCache.set(slug, { at: now, state });
+  state.catch(() => stateCache.delete(slug));
+  return state;
+}
+
+/** After any change to what an analysis read shows: the next read asks the database again. */
+export function forgetServedState(): void {
+  stateCache.clear();
+}
+
 /**
  * An environment, its newest snapshot and newest analysed snapshot, and a version of its owner
- * annotations (rankings show effective owners), in one round trip: every analysis read starts here.
+ * annotations (rankings show effective owners), in one round trip.
  */
-export async function getServedState({ slug }: { slug: string }): Promise<{
+async function readServedState({ slug }: { slug: string }): Promise<{
   environment: { id: string; slug: string; name: string; pinchWeights: unknown; settings: unknown };
   view: AnalysisView;
   /** changes whenever the served analysis, the analysis in progress or an owner annotation changes */

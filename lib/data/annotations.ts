@@ -1,6 +1,7 @@
 // Owner and notes on a component: leads for their own team's components (and claiming unowned
 // ones for their team), architects and admins for any. Audited with before and after.
 import { db } from "@/models";
+import { forgetServedState } from "./analysis-results";
 import type { Actor } from "@/lib/auth/actor";
 import { roleHas } from "@/lib/auth/roles";
 import { AppError, forbidden, notFound } from "@/lib/errors";
@@ -41,6 +42,8 @@ export async function annotateComponent({
   }
 
   return sequelize.transaction(async (transaction) => {
+    // Rankings show effective owners: readers see the new one at once.
+    transaction.afterCommit(forgetServedState);
     await lockKey({ scope: "annotation", environmentId, key }, transaction);
     const existing = await models.ComponentAnnotation.findOne({ where: { environmentId, key }, transaction, lock: transaction.LOCK.UPDATE });
     const currentOwner = existing?.ownerTeam ?? component.team;

@@ -2,6 +2,7 @@
 // the same transaction, and each takes the same per-slug advisory lock as a push (lib/data/push.ts),
 // so a push can neither recreate an environment half-way through its deletion nor race its creation.
 import "server-only";
+import { forgetServedState } from "./analysis-results";
 import { QueryTypes, UniqueConstraintError, type Transaction } from "sequelize";
 import { db } from "@/models";
 import type { Actor } from "@/lib/auth/actor";
@@ -72,6 +73,7 @@ export interface DeletedEnvironment {
 export async function deleteEnvironmentAsAdmin({ slug, confirm, actor }: { slug: string; confirm: string; actor: Actor }): Promise<DeletedEnvironment> {
   const { sequelize, models } = db();
   return sequelize.transaction(async (transaction) => {
+    transaction.afterCommit(forgetServedState);
     await lockSlug(slug, transaction);
     const row = await models.Environment.findOne({ where: { slug }, transaction, lock: transaction.LOCK.UPDATE });
     if (!row) throw notFound(`Environment "${slug}"`);

@@ -29,6 +29,32 @@ export async function getUserById({ id }: { id: string }): Promise<AppUser | nul
   return row ? toAppUser(row) : null;
 }
 
+/**
+ * The session check's user lookup, answered from memory for up to USER_CACHE_MS: every request
+ * re-reads its user (a deactivation or role change must take effect), and under concurrent readers
+ * that one query per request was the largest cost left. Changes made in this process clear the
+ * cache at once (`forgetCachedUsers`); another app instance sees them within USER_CACHE_MS.
+ * Kept on globalThis: Next may bundle this module more than once.
+ */
+const USER_CACHE_MS = Number(process.env.PINCHPOINT_USER_CACHE_MS ?? 2000);
+const userCache = ((globalThis as unknown as { __pinchpointUsers?: Map<string, { at: number; user: Promise<AppUser | null> }> }).__pinchpointUsers ??= new Map());
+
+export function getUserByIdCached({ id }: { id: string }): Promise<AppUser | null> {
+  const now = Date.now();
+  const hit = userCache.get(id);
+  if (hit && now - hit.at < USER_CACHE_MS) return hit.user;
+  const user = getUserById({ id });
+  if (userCache.size >= 10_000) userCache.clear();
+  userCache.set(id, { at: now, user });
+  user.catch(() => userCache.delete(id));
+  return user;
+}
+
+/** After any change to users: the next session check reads them again. */
+export function forgetCachedUsers(): void {
+  userCache.clear();
+}
+
 /** The user whose password matches, or null (unknown, inactive and wrong all look the same). */
 export async function verifyPassword({ email, password }: { email: string; password: string }): Promise<AppUser | null> {
   const row = await db().models.User.findOne({ where: { email: normaliseEmail(email) } });

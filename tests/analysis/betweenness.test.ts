@@ -1,8 +1,8 @@
 // Betweenness beyond the closed forms: Float64 path counts, sampling, worker threads.
 import { DirectedGraph } from "graphology";
 import betweennessCentrality from "graphology-metrics/centrality/betweenness";
-import { describe, expect, it } from "vitest";
-import { betweenness, betweennessParallel } from "@/lib/analysis/betweenness";
+import { afterAll, describe, expect, it } from "vitest";
+import { betweenness, betweennessParallel, stopBetweennessPool, warmBetweennessPool } from "@/lib/analysis/betweenness";
 import { buildGraph } from "@/lib/analysis/graph";
 import { generateGraph } from "@/scripts/bench/generate";
 import { graphOf, range, type Pair } from "./helpers";
@@ -66,7 +66,9 @@ describe("source sampling (Brandes & Pich 2007)", () => {
   });
 });
 
-describe("worker threads", () => {
+describe("worker threads (the warm pool)", () => {
+  afterAll(() => stopBetweennessPool());
+
   const g = buildGraph(generateGraph({ n: 1500, seed: 11 }));
   const single = betweenness(g).values;
 
@@ -76,6 +78,13 @@ describe("worker threads", () => {
     let d = 0;
     for (let v = 0; v < g.n; v++) d = Math.max(d, Math.abs(r.values[v]! - single[v]!));
     expect(d).toBeLessThan(1e-15);
+  });
+
+  it("keeps its workers between calls: the second call starts none", async () => {
+    await betweennessParallel(g, { threads: 2, parallelThreshold: 0, minParallelMs: 0 });
+    expect(await warmBetweennessPool(1)).toBe(1);
+    const r = await betweennessParallel(g, { threads: 2, parallelThreshold: 0, minParallelMs: 0 });
+    expect(r.threadsUsed).toBe(2);
   });
 
   it("stays on one thread for small graphs and reports progress up to 1", async () => {

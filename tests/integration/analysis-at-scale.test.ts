@@ -9,7 +9,7 @@
 import { QueryTypes } from "sequelize";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { GET as rankings } from "@/app/api/v1/environments/[env]/rankings/route";
-import { GET as component } from "@/app/api/v1/environments/[env]/components/[key]/route";
+import { GET as component, PATCH as annotate } from "@/app/api/v1/environments/[env]/components/[key]/route";
 import { db } from "@/models";
 import { claimNextJob, drainAnalysisQueue, queueAnalysis, runJob } from "@/lib/data/analysis-jobs";
 import { pushInventory } from "@/lib/data/push";
@@ -157,8 +157,9 @@ describe("conditional GET on the rankings (RFC 9110 §13.1.2 If-None-Match)", ()
     expect(again.status).toBe(304);
     const other = await call(rankings, { url: "/api/v1/environments/star/rankings?limit=3", params: { env: "star" }, as: viewer, headers: { "if-none-match": etag } });
     expect(other.status).toBe(200);
-    const env = await db().models.Environment.findOne({ where: { slug: "star" } });
-    await db().models.ComponentAnnotation.create({ environmentId: env!.id, key: "hub", ownerTeam: null, notes: "owned by nobody yet", updatedBy: null });
+    const architect = await createUser("architect");
+    const noted = await call(annotate, { url: "/api/v1/environments/star/components/hub", method: "PATCH", params: { env: "star", key: "hub" }, as: architect, body: { notes: "owned by nobody yet" } });
+    expect(noted.status).toBe(200);
     const changed = await call(rankings, { url: "/api/v1/environments/star/rankings?limit=2", params: { env: "star" }, as: viewer, headers: { "if-none-match": etag } });
     expect(changed.status).toBe(200);
     expect(changed.headers.get("etag")).not.toBe(etag);

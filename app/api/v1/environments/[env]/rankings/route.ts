@@ -10,6 +10,8 @@ import { getRankings } from "@/lib/data/analysis-results";
 import { analysisMeta, getServedAnalysis } from "@/lib/data/environment-analysis";
 import { cachedPage } from "@/lib/data/page-cache";
 
+const CLOSE = Buffer.from("}");
+
 export const GET = withPermission<{ env: string }>("read", async ({ req, params }) => {
   const { env } = parseParams(params, envParamsSchema);
   const query = parseQuery(req.url, rankingsQuerySchema);
@@ -23,6 +25,7 @@ export const GET = withPermission<{ env: string }>("read", async ({ req, params 
     const { total, rankBy, items } = await getRankings({ ...query, order, snapshotId: served.snapshot.id, environmentId: served.environment.id });
     return JSON.stringify({ sort: query.sort, order, rankBy, limit: query.limit, offset: query.offset, total, items }).slice(1, -1);
   });
-  // The meta block carries the snapshot's age, so it is made fresh; the page is spliced in as text.
-  return jsonWithEtag(`{${JSON.stringify(analysisMeta(served)).slice(1, -1)},${page}}`, etag);
+  // The meta block carries the snapshot's age, so it is made fresh; the page is spliced in as bytes.
+  const meta = Buffer.from(`{${JSON.stringify(analysisMeta(served)).slice(1, -1)},`, "utf8");
+  return jsonWithEtag(Buffer.concat([meta, page, CLOSE]) as Uint8Array as Uint8Array<ArrayBuffer>, etag);
 });

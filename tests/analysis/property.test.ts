@@ -1,9 +1,5 @@
 // Property tests against Debian's python3-networkx: seeded random directed graphs (with
 // self-loops and repeated edges in the input), one Python process for the whole batch.
-import { execFileSync } from "node:child_process";
-import { mkdtempSync, rmSync, writeFileSync } from "node:fs";
-import { tmpdir } from "node:os";
-import { join } from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { articulation } from "@/lib/analysis/articulation";
 import { betweenness } from "@/lib/analysis/betweenness";
@@ -16,11 +12,8 @@ import { mulberry32 } from "@/lib/analysis/random";
 import { scc } from "@/lib/analysis/scc";
 import type { AnalysisInput } from "@/lib/analysis/types";
 import { node } from "./helpers";
+import { runReference } from "./python";
 
-// Debian's interpreter, not whatever `python3` is first on PATH (a pyenv one may carry a pip
-// networkx of another version).
-const PYTHON = process.env.PINCHPOINT_PYTHON ?? "/usr/bin/python3";
-const SCRIPT = join(__dirname, "reference", "networkx_reference.py");
 const GRAPHS = 300;
 
 // Tolerances: betweenness and clustering are exact rational arithmetic in both (float rounding
@@ -75,31 +68,6 @@ function inputOf(c: Case): AnalysisInput {
   };
 }
 
-function runReference(cases: Case[]): Reference[] {
-  const probe = (() => {
-    try {
-      return execFileSync(PYTHON, ["-c", "import networkx, scipy; print(networkx.__version__)"], { encoding: "utf8" }).trim();
-    } catch {
-      return null;
-    }
-  })();
-  if (!probe) {
-    throw new Error(
-      `Debian's python3-networkx is required for these reference checks but ${PYTHON} cannot import networkx/scipy. ` +
-        "Install it with: apt-get install -y python3-networkx python3-igraph",
-    );
-  }
-  const dir = mkdtempSync(join(tmpdir(), "pinchpoint-nx-"));
-  try {
-    const file = join(dir, "batch.json");
-    writeFileSync(file, JSON.stringify({ cases }));
-    const out = execFileSync(PYTHON, [SCRIPT, file], { encoding: "utf8", maxBuffer: 256 * 1024 * 1024 });
-    return (JSON.parse(out) as { results: Reference[] }).results;
-  } finally {
-    rmSync(dir, { recursive: true, force: true });
-  }
-}
-
 const maxDiff = (a: ArrayLike<number>, b: readonly number[]): number => {
   let d = 0;
   for (let i = 0; i < b.length; i++) d = Math.max(d, Math.abs(a[i]! - b[i]!));
@@ -113,7 +81,7 @@ describe(`${GRAPHS} seeded random directed graphs against networkx`, () => {
 
   beforeAll(() => {
     for (const c of cases) graphs.set(c.id, buildGraph(inputOf(c)));
-    refs = runReference(cases);
+    refs = runReference<{ results: Reference[] }>("networkx_reference.py", { cases }).results;
   }, 60_000);
   afterAll(() => graphs.clear());
 

@@ -1,6 +1,6 @@
 // Benchmark of the analysis engine (npm run bench). Speed is measured here, never in tests.
 //   npx tsx scripts/bench.ts                     all sections
-//   npx tsx scripts/bench.ts --only measures     one section (push | impact | kubernetes | compose | traces | responsiveness | incidents | measures | http | igraph)
+//   npx tsx scripts/bench.ts --only measures     one section (push | impact | kubernetes | compose | traces | responsiveness | incidents | measures | scale | http | igraph)
 //   npx tsx scripts/bench.ts --compare-igraph    also time python3-igraph on the 20k graph
 //   npx tsx scripts/bench.ts --edge-list FILE    one JSON line for a `from to` edge list
 //   --runs N                                     calls per side in the igraph comparison (default 5, alternating)
@@ -342,6 +342,19 @@ const sections: Section[] = [
         `100k memory: peak rss ${mib(peak)}, rss ${mib(after.rss)}, heap used ${mib(after.heapUsed)} ` +
           `(before 100k: rss ${mib(before.rss)}), array buffers ${mib(after.arrayBuffers)}`,
       );
+    },
+  },
+  {
+    name: "scale",
+    byDefault: true,
+    run: async () => {
+      console.log("# long analyses through the job code, a rival worker claiming every 0.5 s, stale limit 10 s (analysis on its own thread; the heartbeat keeps it)");
+      const { benchScale } = await import("./bench/scale");
+      for (const r of await benchScale()) {
+        console.log(
+          `${r.label}: ${r.outcome} in ${r.ms} ms, ${r.attempts} attempt(s), taken over ${r.takenOver} time(s); dominators from ${r.dominators}; phases ${r.phases} ms`,
+        );
+      }
     },
   },
   {

@@ -9,6 +9,7 @@
 import { QueryTypes } from "sequelize";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { GET as rankings } from "@/app/api/v1/environments/[env]/rankings/route";
+import { GET as bootOrder } from "@/app/api/v1/environments/[env]/boot-order/route";
 import { GET as component, PATCH as annotate } from "@/app/api/v1/environments/[env]/components/[key]/route";
 import { db } from "@/models";
 import { claimNextJob, drainAnalysisQueue, queueAnalysis, runJob } from "@/lib/data/analysis-jobs";
@@ -163,5 +164,23 @@ describe("conditional GET on the rankings (RFC 9110 §13.1.2 If-None-Match)", ()
     const changed = await call(rankings, { url: "/api/v1/environments/star/rankings?limit=2", params: { env: "star" }, as: viewer, headers: { "if-none-match": etag } });
     expect(changed.status).toBe(200);
     expect(changed.headers.get("etag")).not.toBe(etag);
+  });
+});
+
+describe("the cold-start runbook's data", () => {
+  it("includes start-up-only needs (graph.boot): they order the stages and are listed per component", async () => {
+    const file = `pinchpoint: 1
+source: boot
+components:
+  - { key: web, kind: service, tier: 1, needs: [orders] }
+  - { key: orders, kind: service, needs: [db, { key: schema-job, strength: startup }] }
+  - { key: schema-job, kind: job, needs: [db] }
+  - { key: db, kind: datastore }
+`;
+    await pushInventory({ environment: "boot", format: "pinchpoint", body: file, dryRun: false, actor: system });
+    await drainAnalysisQueue("w");
+    const res = await call(bootOrder, { url: "/api/v1/environments/boot/boot-order?components=true", params: { env: "boot" }, as: viewer });
+    // By hand: db needs nothing; schema-job needs db; orders waits for the job at start; web needs orders.
+    expect(res.json).toMatchObject({ stages: [["db"], ["schema-job"], ["orders"], ["web"]], cycles: [], startupNeeds: { orders: ["schema-job"] } });
   });
 });

@@ -40,7 +40,7 @@ async function waitFor(url: string, timeoutMs: number): Promise<void> {
   throw new Error(`${url} did not answer within ${timeoutMs} ms`);
 }
 
-const percentile = (sorted: number[], p: number): number => sorted[Math.min(sorted.length - 1, Math.floor((p / 100) * sorted.length))] ?? NaN;
+const percentile = (sorted: number[], p: number): number => Math.round((sorted[Math.min(sorted.length - 1, Math.floor((p / 100) * sorted.length))] ?? NaN) * 10) / 10;
 
 export interface LoadResult {
   label: string;

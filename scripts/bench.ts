@@ -361,7 +361,7 @@ const sections: Section[] = [
     name: "http",
     byDefault: true,
     run: async () => {
-      console.log("# HTTP under load: next start (production build), autocannon with 50 concurrent clients for 10 s each, a signed-in viewer");
+      console.log("# HTTP under load: the production build served as npm start serves it, autocannon with 50 concurrent clients for 10 s each, a signed-in viewer");
       const { benchHttp } = await import("./bench/http");
       for (const r of await benchHttp({ n: 20_000, seconds: 10 })) {
         const goal = r.label.includes("1000") ? 300 : 100;

@@ -9,7 +9,7 @@ import type { AcceptInviteInput, InviteUserInput, UpdateUserInput } from "@/lib/
 import { appUrl } from "@/lib/config";
 import { AppError, notFound } from "@/lib/errors";
 import { recordAudit } from "./audit";
-import { forgetCachedUsers, hashPassword } from "./users";
+import { hashPassword } from "./users";
 import { noticeInvite } from "@/lib/mail";
 
 /** How long an invite link works (common practice for one-time sign-up links: a few days). */
@@ -170,7 +170,6 @@ export async function updateUser({ id, input, actor }: { id: string; input: Upda
     const action = input.role !== undefined && input.role !== before.role ? "user.role" : after.active ? "user.reactivate" : "user.deactivate";
     await recordAudit({ actor: admin, action, targetType: "user", targetId: row.id, before, after }, transaction);
   });
-  forgetCachedUsers();
   const user = (await listUsers()).find((u) => u.id === id);
   if (!user) throw notFound("User");
   return user;

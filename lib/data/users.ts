@@ -1,6 +1,6 @@
 // Users: the only module that reads or writes the users table for the app.
 import bcrypt from "bcryptjs";
-import type { Transaction } from "sequelize";
+import { QueryTypes, type Transaction } from "sequelize";
 import { db } from "@/models";
 import type { Role } from "@/lib/auth/roles";
 
@@ -24,35 +24,18 @@ let dummyHash: string | undefined;
 
 export const normaliseEmail = (email: string) => email.trim().toLowerCase();
 
-export async function getUserById({ id }: { id: string }): Promise<AppUser | null> {
-  const row = await db().models.User.findByPk(id);
-  return row ? toAppUser(row) : null;
-}
-
 /**
- * The session check's user lookup, answered from memory for up to USER_CACHE_MS: every request
- * re-reads its user (a deactivation or role change must take effect), and under concurrent readers
- * that one query per request was the largest cost left. Changes made in this process clear the
- * cache at once (`forgetCachedUsers`); another app instance sees them within USER_CACHE_MS.
- * Kept on globalThis: Next may bundle this module more than once.
+ * Every request's session check reads its user (so that a sign-out, deactivation or role change on
+ * any instance applies at once): a plain query of the six columns, without building a model
+ * instance, which measured two to three times less work per call than findByPk.
  */
-const USER_CACHE_MS = Number(process.env.PINCHPOINT_USER_CACHE_MS ?? 2000);
-const userCache = ((globalThis as unknown as { __pinchpointUsers?: Map<string, { at: number; user: Promise<AppUser | null> }> }).__pinchpointUsers ??= new Map());
-
-export function getUserByIdCached({ id }: { id: string }): Promise<AppUser | null> {
-  const now = Date.now();
-  const hit = userCache.get(id);
-  if (hit && now - hit.at < USER_CACHE_MS) return hit.user;
-  const user = getUserById({ id });
-  if (userCache.size >= 10_000) userCache.clear();
-  userCache.set(id, { at: now, user });
-  user.catch(() => userCache.delete(id));
-  return user;
-}
-
-/** After any change to users: the next session check reads them again. */
-export function forgetCachedUsers(): void {
-  userCache.clear();
+export async function getUserById({ id }: { id: string }): Promise<AppUser | null> {
+  if (!/^[0-9a-f-]{36}$/i.test(id)) return null;
+  const [row] = await db().sequelize.query<{ id: string; email: string; name: string; role: Role; active: boolean; session_version: number }>(
+    "SELECT id, email, name, role, active, session_version FROM users WHERE id = $1",
+    { type: QueryTypes.SELECT, bind: [id] },
+  );
+  return row ? { id: row.id, email: row.email, name: row.name, role: row.role, active: row.active, sessionVersion: row.session_version } : null;
 }
 
 /** The user whose password matches, or null (unknown, inactive and wrong all look the same). */

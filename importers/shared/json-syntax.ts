@@ -1,8 +1,30 @@
-// Finds where JSON text first breaks the grammar. Node's JSON.parse stays the parser; this
-// runs only after it fails, because its messages often give no position at all
-// ("Unexpected token 'x', … is not valid JSON"), and no package in the tree locates JSON
-// errors without also accepting JSON's relatives (json5 takes trailing commas and comments).
-// Iterative, so deep nesting cannot overflow the stack.
+// Where JSON text breaks the grammar, and which member names repeat in one object. Node's
+// JSON.parse stays the parser (fast on 20 MiB); this runs jsonc-parser (the maintained scanner
+// behind VS Code's JSON support) in strict mode — no comments, no trailing commas, i.e. RFC 8259 —
+// because JSON.parse's messages often give no position at all and it keeps the last of repeated
+// member names silently. jsonc-parser reports error codes; the sentences are ours.
+import { type JSONPath, visit } from "jsonc-parser";
+
+// jsonc-parser's ParseErrorCode is a const enum, which isolated modules cannot read: its values, copied.
+const ParseErrorCode = {
+  InvalidSymbol: 1,
+  InvalidNumberFormat: 2,
+  PropertyNameExpected: 3,
+  ValueExpected: 4,
+  ColonExpected: 5,
+  CommaExpected: 6,
+  CloseBraceExpected: 7,
+  CloseBracketExpected: 8,
+  EndOfFileExpected: 9,
+  InvalidCommentToken: 10,
+  UnexpectedEndOfComment: 11,
+  UnexpectedEndOfString: 12,
+  UnexpectedEndOfNumber: 13,
+  InvalidUnicode: 14,
+  InvalidEscapeCharacter: 15,
+  InvalidCharacter: 16,
+} as const;
+type ParseErrorCode = (typeof ParseErrorCode)[keyof typeof ParseErrorCode];
 
 export interface JsonSyntaxError {
   offset: number;
@@ -21,141 +43,84 @@ export interface JsonScan {
   duplicates: JsonDuplicateKey[];
 }
 
-type Frame =
-  | { type: "object"; keys: Set<string>; key: string }
-  | { type: "array"; index: number };
+function describe(text: string, offset: number): string {
+  if (offset >= text.length) return "the end of the text";
+  const ch = text[offset]!;
+  if (/\s/.test(ch)) return "white space";
+  const word = /^[A-Za-z_$][\w$]*/.exec(text.slice(offset, offset + 40))?.[0];
+  return word ? JSON.stringify(word) : JSON.stringify(ch);
+}
 
-const WS = /[ \t\n\r]*/y;
-const NUMBER = /-?(?:0|[1-9]\d*)(?:\.\d+)?(?:[eE][+-]?\d+)?/y;
-const ESCAPE = /\\(?:["\\/bfnrt]|u[0-9a-fA-F]{4})/y;
+/** The comma before `offset` (white space between), if any: a closing bracket right after one is a trailing comma. */
+function commaBefore(text: string, offset: number): number | null {
+  let i = offset - 1;
+  while (i >= 0 && /[ \t\n\r]/.test(text[i]!)) i--;
+  return i >= 0 && text[i] === "," ? i : null;
+}
+
+function sentence(text: string, code: ParseErrorCode, offset: number): JsonSyntaxError {
+  const at = (message: string) => ({ offset, message });
+  switch (code) {
+    case ParseErrorCode.InvalidSymbol:
+    case ParseErrorCode.ValueExpected:
+    case ParseErrorCode.PropertyNameExpected: {
+      const comma = commaBefore(text, offset);
+      if (comma !== null && (text[offset] === "]" || text[offset] === "}")) return { offset: comma, message: "trailing comma (not allowed in JSON)" };
+      return at(code !== ParseErrorCode.PropertyNameExpected ? `expected a value, found ${describe(text, offset)}` : `expected a double-quoted property name, found ${describe(text, offset)}`);
+    }
+    case ParseErrorCode.ColonExpected:
+      return at(`expected ":" after the property name, found ${describe(text, offset)}`);
+    case ParseErrorCode.CommaExpected:
+      return at(`expected "," between members or elements, found ${describe(text, offset)}`);
+    case ParseErrorCode.CloseBraceExpected:
+      return at(`expected "," or "}", found ${describe(text, offset)}`);
+    case ParseErrorCode.CloseBracketExpected:
+      return at(`expected "," or "]", found ${describe(text, offset)}`);
+    case ParseErrorCode.EndOfFileExpected:
+      return at(`unexpected ${describe(text, offset)} after the end of the JSON value`);
+    case ParseErrorCode.UnexpectedEndOfString:
+      return at("unterminated string");
+    case ParseErrorCode.InvalidCharacter:
+      return at("control character inside a string");
+    case ParseErrorCode.InvalidEscapeCharacter:
+    case ParseErrorCode.InvalidUnicode:
+      return at("invalid escape sequence");
+    case ParseErrorCode.InvalidNumberFormat:
+    case ParseErrorCode.UnexpectedEndOfNumber:
+      return at("invalid number");
+    case ParseErrorCode.InvalidCommentToken:
+    case ParseErrorCode.UnexpectedEndOfComment:
+      return at("comments are not allowed in JSON");
+    default:
+      return at(`unexpected ${describe(text, offset)}`);
+  }
+}
 
 export function scanJson(text: string): JsonScan {
+  let error: JsonSyntaxError | null = null;
   const duplicates: JsonDuplicateKey[] = [];
-  const error = scan(text, duplicates);
+  // Member names seen per open object, innermost last.
+  const seen: Set<string>[] = [];
+  visit(
+    text,
+    {
+      onObjectBegin: () => {
+        seen.push(new Set());
+      },
+      onObjectEnd: () => {
+        seen.pop();
+      },
+      onObjectProperty: (key: string, offset: number, _length: number, _line: number, _col: number, pathSupplier: () => JSONPath) => {
+        const names = seen[seen.length - 1];
+        if (!names) return;
+        if (names.has(key)) duplicates.push({ offset, path: [...pathSupplier(), key], key });
+        else names.add(key);
+      },
+      onError: (code: number, offset: number) => {
+        error ??= sentence(text, code as ParseErrorCode, offset);
+      },
+    },
+    { disallowComments: true, allowTrailingComma: false, allowEmptyContent: false },
+  );
   return { error, duplicates };
-}
-
-function scan(text: string, duplicates: JsonDuplicateKey[]): JsonSyntaxError | null {
-  let i = 0;
-  const stack: Frame[] = [];
-  const skip = (): void => {
-    WS.lastIndex = i;
-    WS.exec(text);
-    i = WS.lastIndex;
-  };
-  const describe = (at: number): string =>
-    at >= text.length ? "end of input" : `${JSON.stringify(text[at])}`;
-
-  // Scans a string starting at text[i] === '"'; returns an error or moves i past it.
-  const scanString = (): JsonSyntaxError | null => {
-    const start = i;
-    i += 1;
-    for (;;) {
-      const ch = text.charCodeAt(i);
-      if (i >= text.length) return { offset: start, message: "unterminated string" };
-      if (ch === 0x22) {
-        i += 1;
-        return null;
-      }
-      if (ch < 0x20) return { offset: i, message: "control character inside a string" };
-      if (ch === 0x5c) {
-        ESCAPE.lastIndex = i;
-        if (!ESCAPE.test(text)) return { offset: i, message: "invalid escape sequence" };
-        i = ESCAPE.lastIndex;
-      } else {
-        i += 1;
-      }
-    }
-  };
-
-  let expectValue = true;
-  for (;;) {
-    skip();
-    if (expectValue) {
-      const ch = text[i];
-      if (ch === "{" || ch === "[") {
-        const closing = ch === "{" ? "}" : "]";
-        stack.push(ch === "{" ? { type: "object", keys: new Set(), key: "" } : { type: "array", index: 0 });
-        i += 1;
-        skip();
-        if (text[i] === closing) {
-          stack.pop();
-          i += 1;
-          expectValue = false;
-          continue;
-        }
-        if (ch === "{") {
-          const keyError = scanKey();
-          if (keyError) return keyError;
-        }
-        continue;
-      }
-      if (ch === '"') {
-        const err = scanString();
-        if (err) return err;
-      } else if (ch === "t" || ch === "f" || ch === "n") {
-        const word = ch === "t" ? "true" : ch === "f" ? "false" : "null";
-        if (!text.startsWith(word, i)) return { offset: i, message: `unexpected ${describe(i)}` };
-        i += word.length;
-      } else {
-        NUMBER.lastIndex = i;
-        if (!NUMBER.test(text)) {
-          return { offset: i, message: `expected a value, found ${describe(i)}` };
-        }
-        i = NUMBER.lastIndex;
-      }
-      expectValue = false;
-      continue;
-    }
-    const top = stack[stack.length - 1];
-    if (top === undefined) {
-      return i < text.length ? { offset: i, message: `unexpected ${describe(i)} after the end of the JSON value` } : null;
-    }
-    const closing = top.type === "object" ? "}" : "]";
-    if (text[i] === closing) {
-      stack.pop();
-      i += 1;
-      continue;
-    }
-    if (text[i] !== ",") {
-      return { offset: i, message: `expected "," or "${closing}", found ${describe(i)}` };
-    }
-    const comma = i;
-    i += 1;
-    skip();
-    if (text[i] === closing) return { offset: comma, message: "trailing comma (not allowed in JSON)" };
-    if (top.type === "object") {
-      const keyError = scanKey();
-      if (keyError) return keyError;
-    } else {
-      top.index += 1;
-    }
-    expectValue = true;
-  }
-
-  // An object member's name and colon; leaves i at the value.
-  function scanKey(): JsonSyntaxError | null {
-    skip();
-    if (text[i] !== '"') return { offset: i, message: `expected a double-quoted property name, found ${describe(i)}` };
-    const start = i;
-    const err = scanString();
-    if (err) return err;
-    const raw = text.slice(start + 1, i - 1);
-    const key = raw.includes("\\") ? (JSON.parse(text.slice(start, i)) as string) : raw;
-    const frame = stack[stack.length - 1];
-    if (frame?.type === "object") {
-      if (frame.keys.has(key)) duplicates.push({ offset: start, path: [...pathOf(stack), key], key });
-      frame.keys.add(key);
-      frame.key = key;
-    }
-    skip();
-    if (text[i] !== ":") return { offset: i, message: `expected ":" after the property name, found ${describe(i)}` };
-    i += 1;
-    return null;
-  }
-}
-
-function pathOf(stack: Frame[]): (string | number)[] {
-  // The innermost frame is the object whose member is being read: its own key is not yet part of the path.
-  return stack.slice(0, -1).map((f) => (f.type === "object" ? f.key : f.index));
 }

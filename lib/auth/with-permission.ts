@@ -1,10 +1,9 @@
-// One wrapper for every route handler and server action: resolve the caller, check the permission
-// on the server, render errors in the shape of DESIGN §4.
-import { headers as nextHeaders } from "next/headers";
+// One wrapper for every route handler (Pinchpoint has no server actions): resolve the caller, check
+// the permission on the server, render errors in the shape of DESIGN §4.
 import type { NextRequest } from "next/server";
 import { actorCan, resolveActor, scopeAllows, type Actor } from "./actor";
 import type { Permission } from "./roles";
-import { AppError, errorResponse, forbidden, unauthorized } from "@/lib/errors";
+import { errorResponse, forbidden, unauthorized } from "@/lib/errors";
 import { findEnvironment } from "@/lib/data/environments";
 import { assertSameOrigin, isWriteMethod } from "./same-origin";
 
@@ -74,27 +73,4 @@ export function withPermission<P = Record<string, never>>(
     }
   };
   return Object.assign(wrapped, { permission });
-}
-
-export type ActionResult<T> = { ok: true; data: T } | { ok: false; error: string; message: string; issues?: { path: string; message: string }[] };
-
-/** Server actions are public endpoints: same check as route handlers, errors as values for forms. */
-export function actionWithPermission<I, T>(
-  permission: Permission,
-  action: (input: I, actor: Actor) => Promise<T>,
-): (input: I) => Promise<ActionResult<T>> {
-  return async (input: I) => {
-    try {
-      const actor = await resolveActor(await nextHeaders());
-      if (!actor) throw unauthorized();
-      if (!actorCan(actor, permission)) throw forbidden(refusal(actor, permission));
-      return { ok: true, data: await action(input, actor) };
-    } catch (error) {
-      if (error instanceof AppError) {
-        return { ok: false, error: error.code, message: error.message, issues: error.issues };
-      }
-      console.error("[action] unexpected error:", error);
-      return { ok: false, error: "internal", message: "Something went wrong on our side; it has been logged" };
-    }
-  };
 }

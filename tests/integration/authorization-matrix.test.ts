@@ -200,21 +200,20 @@ describe("routes outside /api/v1", () => {
 });
 
 describe("server actions", () => {
-  // A server action is a public endpoint: every exported action must be built by actionWithPermission.
+  // A server action is a public endpoint that withPermission never sees. Pinchpoint has none: every
+  // write is a route handler above. A "use server" directive anywhere (a file's or a function's) fails
+  // here until whoever adds it gives actions a permission wrapper and a check in this matrix.
   const roots = ["app", "components", "lib"].map((d) => path.resolve(__dirname, "../..", d));
   const walk = (dir: string): string[] =>
     readdirSync(dir).flatMap((name) => {
       const full = path.join(dir, name);
       return statSync(full).isDirectory() ? walk(full) : /\.tsx?$/.test(name) ? [full] : [];
     });
-  const actionFiles = roots.flatMap(walk).filter((f) => /^\s*["']use server["']/m.test(readFileSync(f, "utf8").split("\n").slice(0, 5).join("\n")));
 
-  it("every exported server action is built by actionWithPermission", () => {
-    for (const file of actionFiles) {
-      const text = readFileSync(file, "utf8");
-      const exports = [...text.matchAll(/^export\s+(?:const|async function|function)\s+(\w+)/gm)].map((m) => m[1]);
-      const checked = [...text.matchAll(/^export\s+const\s+(\w+)\s*=\s*actionWithPermission\(/gm)].map((m) => m[1]);
-      expect({ file, exports }).toEqual({ file, exports: checked });
-    }
+  it("no file declares a server action", () => {
+    const files = roots.flatMap(walk);
+    expect(files.length).toBeGreaterThan(100);
+    const withActions = files.filter((f) => /^\s*["']use server["'];?\s*$/m.test(readFileSync(f, "utf8")));
+    expect(withActions).toEqual([]);
   });
 });

@@ -6,7 +6,7 @@ import { envParamsSchema } from "@/lib/api/schemas/common";
 import { withPermission } from "@/lib/auth/with-permission";
 import { getRankings } from "@/lib/data/analysis-results";
 import { getServedAnalysis } from "@/lib/data/environment-analysis";
-import { rankingsCsv } from "@/lib/data/rankings-csv";
+import { rankingsCsv } from "@/lib/export/rankings-csv";
 
 export const GET = withPermission<{ env: string }>("read", async ({ req, params }) => {
   const { env } = parseParams(params, envParamsSchema);

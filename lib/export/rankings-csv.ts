@@ -1,5 +1,5 @@
 // The ranking as RFC 4180 CSV. A dozen lines of quoting do not justify a CSV package.
-import type { RankingItem } from "./analysis-results";
+import type { RankingItem } from "@/lib/data/analysis-results";
 
 export const RANKINGS_CSV_COLUMNS = [
   "rank",
@@ -22,11 +22,18 @@ export const RANKINGS_CSV_COLUMNS = [
   "snapshot",
 ] as const;
 
+/**
+ * A cell a spreadsheet would evaluate as a formula: one starting with = + - @ (or their full-width
+ * forms, which some spreadsheet locales also read as formulas), tab or carriage return — after any
+ * leading white space, which spreadsheets skip too. Such a text cell gets a leading apostrophe, the
+ * mitigation OWASP's "CSV Injection" page recommends (common practice, not a standard).
+ */
+const FORMULA_START = /^[\s\u00a0\u3000]*[=+\-@\uff1d\uff0b\uff0d\uff20]|^[\t\r]/;
+
 export function csvField(value: string | number | boolean | null): string {
   if (value === null) return "";
   const text = String(value);
-  // A leading = + - @ makes spreadsheets evaluate the cell; keys cannot start so, names might.
-  const safe = /^[=+\-@\t\r]/.test(text) && typeof value === "string" ? `'${text}` : text;
+  const safe = typeof value === "string" && FORMULA_START.test(text) ? `'${text}` : text;
   return /[",\r\n]/.test(safe) || safe !== text ? `"${safe.replace(/"/g, '""')}"` : safe;
 }
 

@@ -5,7 +5,7 @@ import { z } from "zod";
 import type { RouteRule } from "@/lib/auth/with-permission";
 import { kubernetesJsonSchema } from "@/importers/kubernetes/schema";
 import { inventoryJsonSchema } from "@/lib/inventory/schema";
-import { annotateBodySchema, bootOrderQuerySchema, drillBodySchema, rankHistoryQuerySchema, rankingsExportQuerySchema, rankingsQuerySchema } from "./schemas/analysis";
+import { annotateBodySchema, bootOrderQuerySchema, chainQuerySchema, drillBodySchema, rankHistoryQuerySchema, rankingsExportQuerySchema, rankingsQuerySchema } from "./schemas/analysis";
 import { pageQuerySchema } from "./schemas/history";
 import { componentsQuerySchema, pushQuerySchema } from "./schemas/inventory";
 import { positionsSchema } from "./schemas/map";
@@ -58,6 +58,9 @@ export const OPERATIONS: Record<string, Partial<Record<Method, Operation>>> = {
   "/environments/{env}/rankings": { get: { summary: "Ranked pinch points of the newest analysed snapshot; equal values share a rank (1, 2, 2, 4); a measure that did not converge is null with the reason in analysis.measures; ETag per snapshot, analysis and owners", rule: "read", query: rankingsQuerySchema } },
   "/environments/{env}/rankings/export": { get: { summary: "The ranking as CSV", rule: "read", query: rankingsExportQuerySchema } },
   "/environments/{env}/rankings/history": { get: { summary: "Ranks of components over recent snapshots", rule: "read", query: rankHistoryQuerySchema } },
+  "/environments/{env}/chain": {
+    get: { summary: "Why does one component depend on another: the shortest chain of runtime needs from `from` to `to` (null when it does not), each hop with its strength and how it is known", rule: "read", query: chainQuerySchema },
+  },
   "/environments/{env}/drills": { post: { summary: "Fail components and/or zones: down, degraded, teams to page", rule: "read", body: drillBodySchema } },
   "/environments/{env}/alerts": {
     post: {

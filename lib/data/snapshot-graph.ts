@@ -3,14 +3,19 @@
 import { QueryTypes } from "sequelize";
 import { db } from "@/models";
 import { buildGraph, drill, passesThrough, type CompactGraph, type DrillRequest } from "@/lib/analysis";
+import { needChain, toGraphology } from "@/lib/analysis/chain";
+import type { DirectedGraph } from "graphology";
 import type { SnapshotContent } from "@/lib/inventory/snapshot";
 import { AppError } from "@/lib/errors";
-import { analysisInputFromContent, analysisSettingsKey } from "@/lib/analysis/input";
+import { analysisInputFromContent, analysisSettingsKey, effectiveStrength, type AnalysisSettings } from "@/lib/analysis/input";
 import { readSettings } from "@/lib/inventory/settings";
 
 interface Entry {
   content: SnapshotContent;
   graph: CompactGraph;
+  /** The same runtime graph as a graphology graph, built on first use (lib/analysis/chain.ts). */
+  graphology?: DirectedGraph;
+  settings: AnalysisSettings;
 }
 
 const CACHE_SIZE = 8;
@@ -36,7 +41,7 @@ export async function getSnapshotGraph({ snapshotId }: { snapshotId: string }): 
   const load = (async () => {
     const snap = await db().models.Snapshot.findByPk(snapshotId, { attributes: ["content"] });
     if (!snap) throw new AppError("not_found", "Snapshot not found");
-    return { content: snap.content, graph: buildGraph(analysisInputFromContent(snap.content, settings)) };
+    return { content: snap.content, graph: buildGraph(analysisInputFromContent(snap.content, settings)), settings };
   })();
   cache.set(cacheKey, load);
   load.catch(() => cache.delete(cacheKey));
@@ -135,4 +140,63 @@ export async function startupNeeds({ snapshotId }: { snapshotId: string }): Prom
     }
   }
   return out;
+}
+
+export interface ChainHop {
+  from: string;
+  to: string;
+  strength: "hard" | "soft" | "startup";
+  provenance: string[];
+  via: string | null;
+  anyOf: boolean;
+}
+
+export interface ChainResponse {
+  from: string;
+  to: string;
+  /** Keys from `from` to `to` along needs, both included; null when `from` does not depend on `to`. */
+  path: string[] | null;
+  hops: ChainHop[];
+  /** Every hop a plain hard need: `from` goes down when `to` fails (any_of groups and soft needs can stop it). */
+  hardAllTheWay: boolean;
+  /** When `from` does not depend on `to`: whether it is the other way round. */
+  reversed: boolean;
+}
+
+/** Why does `from` depend on `to`? The shortest chain of runtime needs, in the snapshot's graph. */
+export async function dependencyChain({ snapshotId, from, to }: { snapshotId: string; from: string; to: string }): Promise<ChainResponse> {
+  const entry = await getSnapshotGraph({ snapshotId });
+  for (const key of [from, to]) if (!entry.graph.indexOf.has(key)) throw new AppError("not_found", `Component "${key}" not found in this snapshot`);
+  entry.graphology ??= toGraphology(entry.graph);
+  const path = needChain(entry.graphology, from, to);
+  const hops: ChainHop[] = [];
+  if (path) {
+    const rank = { hard: 2, soft: 1, startup: 0 } as const;
+    for (let i = 0; i + 1 < path.length; i++) {
+      const a = path[i]!;
+      const b = path[i + 1]!;
+      // Several needs can join one pair (a plain one and an any_of member): show the strongest, as it counts
+      // under the environment's settings (an inferred need may count as soft).
+      const deps = entry.content.dependencies
+        .filter((d) => d.from === a && d.to === b && d.strength !== "startup")
+        .map((d) => ({ ...d, strength: effectiveStrength(d, entry.settings) }));
+      const best = deps.sort((x, y) => rank[y.strength] - rank[x.strength] || Number(x.group !== null) - Number(y.group !== null))[0];
+      hops.push({
+        from: a,
+        to: b,
+        strength: best?.strength ?? "hard",
+        provenance: best?.provenance ?? ["declared"],
+        via: best?.via ?? null,
+        anyOf: best !== undefined && best.group !== null,
+      });
+    }
+  }
+  return {
+    from,
+    to,
+    path,
+    hops,
+    hardAllTheWay: path !== null && hops.every((h) => h.strength === "hard" && !h.anyOf),
+    reversed: path === null && needChain(entry.graphology, to, from) !== null,
+  };
 }

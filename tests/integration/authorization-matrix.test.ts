@@ -20,6 +20,7 @@ const MATRIX: Record<string, Partial<Record<"GET" | "POST" | "PUT" | "PATCH" | "
   "environments/[env]/components/[key]/blast-radius": { GET: "read" },
   "environments/[env]/components/[key]/history": { GET: "read" },
   "environments/[env]/drills": { POST: "read" },
+  "environments/[env]/chain": { GET: "read" },
   "environments/[env]/drift": { GET: "read" },
   "environments/[env]/alerts": { POST: "inventory:write" },
   "environments/[env]/incidents": { GET: "read" },

@@ -55,3 +55,27 @@ describe("drills through the API", () => {
     });
   });
 });
+
+describe("why does one component depend on another (GET …/chain)", () => {
+  it("gives the chain of needs with how each hop counts, and says when it runs the other way", async () => {
+    const { GET: chain } = await import("@/app/api/v1/environments/[env]/chain/route");
+    const ask = (q: string) => call(chain, { url: `/api/v1/environments/dr/chain?${q}`, params: { env: "dr" }, as: viewer });
+    const res = await ask("from=front&to=db-west");
+    expect(res.status).toBe(200);
+    expect(res.json).toMatchObject({
+      path: ["front", "api", "db-west"],
+      hops: [
+        { from: "front", to: "api", strength: "hard", anyOf: false },
+        { from: "api", to: "db-west", strength: "hard", anyOf: true },
+      ],
+      // api needs db-west only as one of an any_of pair: losing db-west alone does not take front down.
+      hardAllTheWay: false,
+      reversed: false,
+    });
+    expect((await ask("from=db-west&to=front")).json).toMatchObject({ path: null, reversed: true });
+    // batch needs db-west only to start: no runtime chain.
+    expect((await ask("from=batch&to=db-west")).json).toMatchObject({ path: null, reversed: false });
+    expect((await ask("from=front&to=nope")).status).toBe(404);
+    expect((await ask("from=front")).status).toBe(422);
+  });
+});

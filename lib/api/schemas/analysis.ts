@@ -40,6 +40,9 @@ export const rankHistoryQuerySchema = z
   })
   .strict();
 
+/** GET …/chain?from=a&to=b: why does a depend on b? */
+export const chainQuerySchema = z.object({ from: keySchema, to: keySchema }).strict();
+
 export const drillBodySchema = z
   .object({
     fail: z

@@ -40,42 +40,88 @@ export function failedByZones(graph: CompactGraph, zones: readonly string[]): nu
 }
 
 export function blastRadius(graph: CompactGraph, fail: FailedSet): BlastRadius {
-  const { n, needs } = graph;
-  const down = new Uint8Array(n);
-  const softUnmet = new Uint8Array(n);
-  const alive = Int32Array.from(needs.size);
-  const queue = new Int32Array(n);
-  let tail = 0;
-  const start = (v: number): void => {
-    if (!down[v]) {
-      down[v] = 1;
-      queue[tail++] = v;
-    }
-  };
-  for (const v of fail.components ?? []) if (v >= 0 && v < n) start(v);
-  for (const v of failedByZones(graph, fail.zones ?? [])) start(v);
-  const failed: number[] = [];
-  for (let i = 0; i < tail; i++) failed.push(queue[i]!);
-  const { offsets, targets } = needs.memberOf;
-  for (let head = 0; head < tail; head++) {
-    const v = queue[head]!;
-    for (let e = offsets[v]!; e < offsets[v + 1]!; e++) {
-      const g = targets[e]!;
-      if (--alive[g]! !== 0) continue;
-      const owner = needs.owner[g]!;
-      if (needs.hard[g]) start(owner);
-      else softUnmet[owner] = 1;
-    }
-  }
-  const downList: number[] = [];
-  const degraded: number[] = [];
-  for (let v = 0; v < n; v++) {
-    if (down[v]) downList.push(v);
-    else if (softUnmet[v]) degraded.push(v);
-  }
-  failed.sort((a, b) => a - b);
-  return { down: downList, degraded, failed };
+  const seeds: number[] = [];
+  for (const v of fail.components ?? []) if (v >= 0 && v < graph.n) seeds.push(v);
+  seeds.push(...failedByZones(graph, fail.zones ?? []));
+  const run = new BlastPropagation(graph).run(seeds);
+  const failed = [...new Set(seeds)].sort((a, b) => a - b);
+  return { down: Array.from(run.down).sort((a, b) => a - b), degraded: run.degraded.sort((a, b) => a - b), failed };
 }
+
+/**
+ * The propagation above for many failed sets in a row (an incident's hundreds of candidates, an
+ * impact's tier-1 components, every component of a shallow estate): scratch arrays kept between
+ * runs and reset by epoch stamps, so each run costs what it touches, never a pass over the estate.
+ */
+export class BlastPropagation {
+  private epoch = 0;
+  private readonly downStamp: Int32Array;
+  private readonly softStamp: Int32Array;
+  private readonly groupStamp: Int32Array;
+  private readonly alive: Int32Array;
+  private readonly queue: Int32Array;
+  private readonly softList: Int32Array;
+
+  constructor(private readonly graph: CompactGraph) {
+    const { n, needs } = graph;
+    this.downStamp = new Int32Array(n);
+    this.softStamp = new Int32Array(n);
+    this.groupStamp = new Int32Array(needs.count);
+    this.alive = new Int32Array(needs.count);
+    this.queue = new Int32Array(n);
+    this.softList = new Int32Array(n);
+  }
+
+  /** Fail `seeds`; returns what is down (seeds included) and degraded. Valid until the next run. */
+  run(seeds: Iterable<number>): { down: Int32Array; degraded: number[] } {
+    const epoch = ++this.epoch;
+    const { downStamp, softStamp, groupStamp, alive, queue, softList } = this;
+    const { offsets, targets } = this.graph.needs.memberOf;
+    const { memberOfOwner, memberOfFlags, size } = this.graph.needs;
+    let tail = 0;
+    let soft = 0;
+    for (const s of seeds) {
+      if (downStamp[s] !== epoch) {
+        downStamp[s] = epoch;
+        queue[tail++] = s;
+      }
+    }
+    for (let head = 0; head < tail; head++) {
+      const v = queue[head]!;
+      const end = offsets[v + 1]!;
+      for (let e = offsets[v]!; e < end; e++) {
+        const flags = memberOfFlags[e]!;
+        if ((flags & 2) === 0) {
+          // An any_of group: unmet only when its last member goes down.
+          const g = targets[e]!;
+          if (groupStamp[g] !== epoch) {
+            groupStamp[g] = epoch;
+            alive[g] = size[g]!;
+          }
+          if (--alive[g]! !== 0) continue;
+        }
+        const o = memberOfOwner[e]!;
+        if (flags & 1) {
+          if (downStamp[o] !== epoch) {
+            downStamp[o] = epoch;
+            queue[tail++] = o;
+          }
+        } else if (softStamp[o] !== epoch) {
+          softStamp[o] = epoch;
+          softList[soft++] = o;
+        }
+      }
+    }
+    const degraded: number[] = [];
+    for (let i = 0; i < soft; i++) if (downStamp[softList[i]!] !== epoch) degraded.push(softList[i]!);
+    return { down: queue.slice(0, tail), degraded };
+  }
+
+  isDown(v: number): boolean {
+    return this.downStamp[v] === this.epoch;
+  }
+}
+
 
 export const TIER_WEIGHTS: Readonly<Record<1 | 2 | 3 | 4, number>> = { 1: 8, 2: 4, 3: 2, 4: 1 };
 
@@ -92,63 +138,25 @@ export function singleFailureBlastByPropagation(
   graph: CompactGraph,
   options: { sources?: Int32Array; onProgress?: (fraction: number) => void } = {},
 ): SingleFailureBlast {
-  const { n, needs } = graph;
+  const { n } = graph;
   const onProgress = options.onProgress;
   const weight = new Float64Array(n);
   for (let v = 0; v < n; v++) weight[v] = tierWeight(graph.tier[v]!);
-  const downStamp = new Int32Array(n);
-  const softStamp = new Int32Array(n);
-  const groupStamp = new Int32Array(needs.count);
-  const alive = new Int32Array(needs.count);
-  const queue = new Int32Array(n);
-  const softList = new Int32Array(n);
   const downCount = new Int32Array(n);
   const degradedCount = new Int32Array(n);
   const downTierWeight = new Float64Array(n);
-  const { offsets, targets } = needs.memberOf;
-  const { memberOfOwner, memberOfFlags, size } = needs;
+  const propagation = new BlastPropagation(graph);
   const sources = options.sources;
   const count = sources ? sources.length : n;
   const step = Math.max(1, Math.floor(count / 50));
   for (let i = 0; i < count; i++) {
     const s = sources ? sources[i]! : i;
-    const epoch = i + 1;
-    downStamp[s] = epoch;
-    queue[0] = s;
-    let tail = 1;
-    let soft = 0;
+    const { down, degraded } = propagation.run([s]);
     let w = 0;
-    for (let head = 0; head < tail; head++) {
-      const v = queue[head]!;
-      const eEnd = offsets[v + 1]!;
-      for (let e = offsets[v]!; e < eEnd; e++) {
-        const flags = memberOfFlags[e]!;
-        if ((flags & 2) === 0) {
-          // An any_of group: unmet only when its last member goes down.
-          const g = targets[e]!;
-          if (groupStamp[g] !== epoch) {
-            groupStamp[g] = epoch;
-            alive[g] = size[g]!;
-          }
-          if (--alive[g]! !== 0) continue;
-        }
-        const o = memberOfOwner[e]!;
-        if (flags & 1) {
-          if (downStamp[o] !== epoch) {
-            downStamp[o] = epoch;
-            queue[tail++] = o;
-            w += weight[o]!;
-          }
-        } else if (softStamp[o] !== epoch) {
-          softStamp[o] = epoch;
-          softList[soft++] = o;
-        }
-      }
-    }
-    let degraded = 0;
-    for (let i = 0; i < soft; i++) if (downStamp[softList[i]!] !== epoch) degraded++;
-    downCount[s] = tail - 1;
-    degradedCount[s] = degraded;
+    // down[0] is s itself, which its own reach leaves out.
+    for (let k = 1; k < down.length; k++) w += weight[down[k]!]!;
+    downCount[s] = down.length - 1;
+    degradedCount[s] = degraded.length;
     downTierWeight[s] = w;
     if (onProgress && (i + 1) % step === 0) onProgress((i + 1) / count);
   }

@@ -27,7 +27,7 @@
 //   other firing components are, e.g. an any_of group whose members all alert.
 // - Unexplained: firing components that nothing firing explains even together: a separate fault,
 //   or a need the inventory does not declare.
-import { failedByZones, tierWeight } from "./blast-radius";
+import { BlastPropagation, failedByZones, tierWeight } from "./blast-radius";
 import type { CompactGraph } from "./graph";
 import { pagerank } from "./pagerank";
 
@@ -105,79 +105,6 @@ export interface OriginOptions {
   silentTop?: number;
 }
 
-/**
- * The blast-radius propagation of blast-radius.ts with epoch stamps, so that the hundreds of runs
- * an incident needs cost what each run touches, never a pass over the whole estate.
- */
-class Propagation {
-  private epoch = 0;
-  private readonly downStamp: Int32Array;
-  private readonly softStamp: Int32Array;
-  private readonly groupStamp: Int32Array;
-  private readonly alive: Int32Array;
-  private readonly queue: Int32Array;
-  private readonly softList: Int32Array;
-
-  constructor(private readonly graph: CompactGraph) {
-    const { n, needs } = graph;
-    this.downStamp = new Int32Array(n);
-    this.softStamp = new Int32Array(n);
-    this.groupStamp = new Int32Array(needs.count);
-    this.alive = new Int32Array(needs.count);
-    this.queue = new Int32Array(n);
-    this.softList = new Int32Array(n);
-  }
-
-  /** Fail `seeds`; returns what is down (seeds included) and degraded. Valid until the next run. */
-  run(seeds: Iterable<number>): { down: Int32Array; degraded: number[] } {
-    const epoch = ++this.epoch;
-    const { downStamp, softStamp, groupStamp, alive, queue, softList } = this;
-    const { offsets, targets } = this.graph.needs.memberOf;
-    const { memberOfOwner, memberOfFlags, size } = this.graph.needs;
-    let tail = 0;
-    let soft = 0;
-    for (const s of seeds) {
-      if (downStamp[s] !== epoch) {
-        downStamp[s] = epoch;
-        queue[tail++] = s;
-      }
-    }
-    for (let head = 0; head < tail; head++) {
-      const v = queue[head]!;
-      const end = offsets[v + 1]!;
-      for (let e = offsets[v]!; e < end; e++) {
-        const flags = memberOfFlags[e]!;
-        if ((flags & 2) === 0) {
-          // An any_of group: unmet only when its last member goes down.
-          const g = targets[e]!;
-          if (groupStamp[g] !== epoch) {
-            groupStamp[g] = epoch;
-            alive[g] = size[g]!;
-          }
-          if (--alive[g]! !== 0) continue;
-        }
-        const o = memberOfOwner[e]!;
-        if (flags & 1) {
-          if (downStamp[o] !== epoch) {
-            downStamp[o] = epoch;
-            queue[tail++] = o;
-          }
-        } else if (softStamp[o] !== epoch) {
-          softStamp[o] = epoch;
-          softList[soft++] = o;
-        }
-      }
-    }
-    const degraded: number[] = [];
-    for (let i = 0; i < soft; i++) if (downStamp[softList[i]!] !== epoch) degraded.push(softList[i]!);
-    return { down: queue.slice(0, tail), degraded };
-  }
-
-  isDown(v: number): boolean {
-    return this.downStamp[v] === this.epoch;
-  }
-}
-
 interface Cover {
   covers: number[];
   degraded: Set<number>;
@@ -202,7 +129,7 @@ export function probableOrigin(graph: CompactGraph, firingKeys: readonly string[
   const keys = (vs: Iterable<number>) => [...vs].map(key).sort();
   // What will likely fail next reads best most critical first.
   const byTier = (vs: Iterable<number>) => [...vs].sort((a, b) => graph.tier[a]! - graph.tier[b]! || (key(a) < key(b) ? -1 : 1)).map(key);
-  const prop = new Propagation(graph);
+  const prop = new BlastPropagation(graph);
 
   const explanationOf = (down: Int32Array, degradedAll: number[]): { covers: number[]; degraded: Set<number> } => {
     const covers: number[] = [];
@@ -346,7 +273,7 @@ function ownerGroups(graph: CompactGraph): { offsets: Int32Array; groups: Int32A
 }
 
 /** Needs of f with every member down in the last propagation run. */
-function unmetGroups(graph: CompactGraph, index: { offsets: Int32Array; groups: Int32Array }, f: number, prop: Propagation): number[] {
+function unmetGroups(graph: CompactGraph, index: { offsets: Int32Array; groups: Int32Array }, f: number, prop: BlastPropagation): number[] {
   const { members } = graph.needs;
   const out: number[] = [];
   for (let i = index.offsets[f]!; i < index.offsets[f + 1]!; i++) {
@@ -366,7 +293,7 @@ function unmetGroups(graph: CompactGraph, index: { offsets: Int32Array; groups: 
  */
 function silentSuspects(
   graph: CompactGraph,
-  prop: Propagation,
+  prop: BlastPropagation,
   firing: readonly number[],
   isFiring: Uint8Array,
   bestFiring: number,

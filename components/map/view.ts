@@ -9,7 +9,7 @@ export const isInferredOnly = (e: Pick<MapEdge, "provenance">): boolean =>
 
 /** Team slot for components with no owner; never a valid slug (slugs start [a-z0-9]). */
 export const UNOWNED = "_unowned";
-/** Above this many visible components the map opens grouped and collapsed (see NOTES-stack ELK timings). */
+/** Above this many visible components the map opens grouped and collapsed (ELK layered measured in Node: about 2 s at 200 nodes, 10 s at 1,000, 42 s at 3,000). */
 export const FULL_LAYOUT_LIMIT = 600;
 /** Above this many links between collapsed teams, ELK takes longer than a responder should wait (measured: 1,459 links, 13 s). */
 export const DENSE_TEAM_VIEW_EDGES = 400;

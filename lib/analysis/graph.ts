@@ -2,7 +2,7 @@
 // CSR (compressed sparse row) adjacency in typed arrays, so that the measures on 100k components
 // stay within memory and allocate nothing per node. graphology is the convenient graph model
 // elsewhere in the app, but its per-call allocation and multi-edge semantics make it the wrong
-// base for these measures (see NOTES-stack "Graph libraries").
+// base for these measures (graphology-metrics wraps 32-bit path counts and counts parallel edges as separate paths).
 import type { AnalysisInput } from "./types";
 
 /** Compressed sparse rows: the neighbours of v are targets[offsets[v] .. offsets[v+1]). */

@@ -33,4 +33,5 @@ if [ "$needs_db" = 1 ]; then
 fi
 # The HTTP section serves the production build.
 if [ "$needs_db" = 1 ] && { [ -z "$only" ] || [ "$only" = http ]; } && needs_build; then log "building the app for the HTTP section"; npx next build >/dev/null; fi
-npx tsx scripts/bench.ts "$@"
+# bench.ts reaches lib/data, whose modules import "server-only" (empty under the react-server condition).
+node_modules/.bin/tsx --conditions=react-server scripts/bench.ts "$@"

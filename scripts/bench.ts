@@ -1,8 +1,8 @@
 // Benchmark of the analysis engine (npm run bench). Speed is measured here, never in tests.
-//   npx tsx scripts/bench.ts                     all sections
-//   npx tsx scripts/bench.ts --only measures     one section (push | impact | kubernetes | compose | traces | responsiveness | incidents | measures | scale | http | igraph)
-//   npx tsx scripts/bench.ts --compare-igraph    also time python3-igraph on the 20k graph
-//   npx tsx scripts/bench.ts --edge-list FILE    one JSON line for a `from to` edge list
+//   npx tsx --conditions=react-server scripts/bench.ts                     all sections
+//   npx tsx --conditions=react-server scripts/bench.ts --only measures     one section (push | impact | kubernetes | compose | traces | responsiveness | incidents | measures | scale | http | igraph)
+//   npx tsx --conditions=react-server scripts/bench.ts --compare-igraph    also time python3-igraph on the 20k graph
+//   npx tsx --conditions=react-server scripts/bench.ts --edge-list FILE    one JSON line for a `from to` edge list
 //   --runs N                                     calls per side in the igraph comparison (default 5, alternating)
 import { spawn } from "node:child_process";
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
@@ -60,7 +60,7 @@ async function benchPush(n: number): Promise<void> {
     const { db, closeDb } = await import("../models");
     const { migrateToLatest } = await import("../models/migrate");
     const { pushInventory } = await import("../lib/data/push");
-    const { drainAnalysisQueue } = await import("../lib/data/analysis-jobs");
+    const { drainAnalysisQueue } = await import("../lib/jobs/analysis");
     const { importInventory } = await import("../importers");
     const { closeParsePool } = await import("../importers/off-thread");
     await migrateToLatest(db().sequelize);
@@ -221,7 +221,7 @@ async function benchImpact(n: number): Promise<void> {
     const { db, closeDb } = await import("../models");
     const { migrateToLatest } = await import("../models/migrate");
     const { pushInventory } = await import("../lib/data/push");
-    const { drainAnalysisQueue } = await import("../lib/data/analysis-jobs");
+    const { drainAnalysisQueue } = await import("../lib/jobs/analysis");
     const { impactMarkdown } = await import("../lib/impact/markdown");
     const { impactSarif } = await import("../lib/impact/sarif");
     await migrateToLatest(db().sequelize);

@@ -21,8 +21,9 @@ export NEXTAUTH_URL=${NEXTAUTH_URL:-http://$host:$port}
 export NEXTAUTH_SECRET=${NEXTAUTH_SECRET:-$(ensure_secret nextauth-secret)}
 export PINCHPOINT_DEMO=${PINCHPOINT_DEMO:-1}
 
-npx tsx scripts/migrate.ts
-npx tsx scripts/seed.ts
+# Scripts that reach lib/data run under the react-server condition: its modules import "server-only".
+node_modules/.bin/tsx scripts/migrate.ts
+node_modules/.bin/tsx --conditions=react-server scripts/seed.ts
 
 pids=()
 cleanup() { for pid in "${pids[@]}"; do kill "$pid" 2>/dev/null || true; done; }

@@ -8,7 +8,8 @@ const root = path.resolve(__dirname, "..");
 const supervisor = supervise({
   name: "analysis worker",
   command: process.execPath,
-  args: [path.join(root, "node_modules/tsx/dist/cli.mjs"), path.join(root, "scripts/analysis-worker.ts")],
+  // lib/data modules import "server-only", an empty module under the react-server condition.
+  args: [path.join(root, "node_modules/tsx/dist/cli.mjs"), "--conditions=react-server", path.join(root, "scripts/analysis-worker.ts")],
 });
 
 for (const signal of ["SIGINT", "SIGTERM"] as const) {

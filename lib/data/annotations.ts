@@ -1,5 +1,6 @@
 // Owner and notes on a component: leads for their own team's components (and claiming unowned
 // ones for their team), architects and admins for any. Audited with before and after.
+import "server-only";
 import { db } from "@/models";
 import { forgetServedState } from "./analysis-results";
 import type { Actor } from "@/lib/auth/actor";

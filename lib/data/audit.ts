@@ -1,5 +1,6 @@
 // The audit log: every write, with who, when, what, before and after. Written in the same
 // transaction as the change it records, so neither exists without the other.
+import "server-only";
 import type { Transaction } from "sequelize";
 import { db } from "@/models";
 import type { Actor } from "@/lib/auth/actor";

@@ -1,6 +1,7 @@
 // Change policies per environment (lib/impact/policies.ts): read by anyone, set by architects and
 // admins, every change audited in its transaction. They decide what the impact of a push reports
 // as failing and which failures refuse a push.
+import "server-only";
 import type { Transaction } from "sequelize";
 import { db } from "@/models";
 import type { Actor } from "@/lib/auth/actor";

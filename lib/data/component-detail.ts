@@ -1,5 +1,6 @@
 // One component with everything known about it: declared fields, owner and notes, its needs and
 // dependents, and its measures in the served analysis.
+import "server-only";
 import { QueryTypes } from "sequelize";
 import { db } from "@/models";
 import type { ComponentKind, FilePosition, Provenance, Strength } from "@/lib/inventory/types";

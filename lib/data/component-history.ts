@@ -1,6 +1,7 @@
 // Which snapshots added, changed or removed one component (and its dependencies). Reads only the
 // slice of each snapshot's content that mentions the key, so a 20k-component snapshot is not
 // shipped to Node 30 times over.
+import "server-only";
 import { QueryTypes } from "sequelize";
 import { db } from "@/models";
 import { notFound } from "@/lib/errors";

@@ -1,4 +1,5 @@
 // Components of an environment as the app shows them: declared fields plus the owner annotation.
+import "server-only";
 import { QueryTypes } from "sequelize";
 import { db } from "@/models";
 import { isSinglePoint } from "@/lib/analysis/pinch-score";

@@ -3,6 +3,7 @@
 // through aliases first, so only real disagreements are listed; names that look like a declared
 // component but are no alias of it yet are proposed as aliases (lib/traces/aliases.ts). Each
 // undeclared call and each proposal carries a format 1 snippet for the file that should say so.
+import "server-only";
 import { OBSERVED_SOURCE } from "@/lib/inventory/observed";
 import { aliasSnippet, needSnippet } from "@/lib/inventory/snippet";
 import type { Strength } from "@/lib/inventory/types";

@@ -1,4 +1,5 @@
 // The snapshot the analysis API serves for an environment, or a clear 404 when there is none yet.
+import "server-only";
 import { DEFAULT_PINCH_WEIGHTS, type PinchWeights } from "@/lib/analysis/types";
 import { AppError, notFound } from "@/lib/errors";
 import { getServedState, type AnalysisView, type SnapshotRef } from "./analysis-results";

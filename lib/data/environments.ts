@@ -1,4 +1,5 @@
 // Environments: lookup, and summaries with their latest snapshot, analysis status and counts.
+import "server-only";
 import { QueryTypes, type Transaction } from "sequelize";
 import { db } from "@/models";
 import { notFound } from "@/lib/errors";

@@ -1,6 +1,7 @@
 // Read and write an environment's current declared graph (components + dependencies tables)
 // as SnapshotContent. Bulk writes use unnest() / jsonb_to_recordset(): one statement per table,
 // fast at 50k rows.
+import "server-only";
 import { QueryTypes, type Transaction } from "sequelize";
 import { db } from "@/models";
 import { canonicalProvenance, type SnapshotComponent, type SnapshotContent, type SnapshotDependency } from "@/lib/inventory/snapshot";

@@ -1,6 +1,7 @@
 // Which needs an analysis runs on (DESIGN §10): the environment's analysisView setting, or when it
 // is unset `both` where the graph has declared and observed parts, else the one it has. Snapshots
 // never change, so what a snapshot holds is read once and kept.
+import "server-only";
 import { QueryTypes } from "sequelize";
 import { db } from "@/models";
 import { OBSERVED_SOURCE } from "@/lib/inventory/observed";

@@ -2,6 +2,7 @@
 // transaction: what a dry run reports on request, and what a real push is held to when the
 // environment has a policy at `block`. A blocked push is refused unless an architect or admin
 // gives a reason, which is audited with the push.
+import "server-only";
 import { QueryTypes, type Transaction } from "sequelize";
 import { db } from "@/models";
 import type { Actor } from "@/lib/auth/actor";

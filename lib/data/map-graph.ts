@@ -1,5 +1,6 @@
 // The map's data: the served snapshot's components and dependencies with their measures and
 // effective owners, in the shape components/map/types.ts parses.
+import "server-only";
 import { QueryTypes } from "sequelize";
 import { db } from "@/models";
 import type { MapGraph } from "@/components/map/types";

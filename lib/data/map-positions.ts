@@ -1,5 +1,6 @@
 // Pinned map positions, per environment. Architects and admins arrange the whole map; a lead
 // moves only the components their teams own (others' pins stay as they are).
+import "server-only";
 import { QueryTypes } from "sequelize";
 import { db } from "@/models";
 import type { Actor } from "@/lib/auth/actor";

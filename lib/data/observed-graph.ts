@@ -8,6 +8,7 @@
 //   - at once, after a trace file push.
 // A change of traffic alone never makes a snapshot: calls, errors and durations stay in the trace
 // aggregate tables (lib/data/traces.ts) and are joined in when screens show them.
+import "server-only";
 import { createHash } from "node:crypto";
 import { QueryTypes, type Transaction } from "sequelize";
 import { db } from "@/models";

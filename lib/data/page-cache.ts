@@ -3,6 +3,8 @@
 // least recently used page evicted first. Analysis results never change once stored, so a page
 // only goes stale when its key does; concurrent readers of the same page share one query.
 // Kept on globalThis: Next may bundle this module more than once.
+import "server-only";
+
 const MAX_BYTES = Number(process.env.PINCHPOINT_PAGE_CACHE_MB ?? 64) * 1024 * 1024;
 
 interface Entry {

@@ -1,6 +1,7 @@
 // A push: parse → authorise the source → merge into the environment's graph → snapshot → queue
 // analysis. All or nothing: one transaction, serialised per environment by an advisory lock, so
 // concurrent pushes never lose each other's work and a failed push writes nothing at all.
+import "server-only";
 import type { Transaction } from "sequelize";
 import { db } from "@/models";
 import type { Actor } from "@/lib/auth/actor";

@@ -1,5 +1,6 @@
 // Rank over recent analysed snapshots for a few components: the sparklines on the pinch-point
 // table and the trend chart on the history screen.
+import "server-only";
 import { getRankHistory, getRankings } from "./analysis-results";
 import type { ServedAnalysis } from "./environment-analysis";
 

@@ -1,6 +1,7 @@
 // The Harbor Pantry demo (an invented company): teams, one account per role, and the inventory
 // pushed from examples/harbor-pantry/ through the same path as a CI push — so a pushed file and
 // the seed give the same graph.
+import "server-only";
 import { readdir, readFile } from "node:fs/promises";
 import path from "node:path";
 import { parse as parseYaml } from "yaml";

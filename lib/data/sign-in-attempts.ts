@@ -1,4 +1,5 @@
 // Sign-in rate limit, per account and per address, shared by every app instance through PostgreSQL.
+import "server-only";
 import { Op } from "sequelize";
 import { db } from "@/models";
 

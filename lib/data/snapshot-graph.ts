@@ -1,5 +1,6 @@
 // The compact graph of a snapshot, built once and kept in memory (snapshots are immutable, so a
 // snapshot id is a perfect cache key). Drills and the map read from here, never from the tables.
+import "server-only";
 import { QueryTypes } from "sequelize";
 import { db } from "@/models";
 import { buildGraph, drill, passesThrough, type CompactGraph, type DrillRequest } from "@/lib/analysis";

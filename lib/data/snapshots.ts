@@ -1,4 +1,5 @@
 // Snapshot history and diffs between any two snapshots of an environment.
+import "server-only";
 import { db } from "@/models";
 import { diffSnapshots, type SnapshotDiff } from "@/lib/inventory/snapshot";
 import { notFound } from "@/lib/errors";

@@ -3,6 +3,7 @@
 // teams; it may be replaced by a member (lead or not) of one of them, by an architect or an admin.
 // A new source, or one whose components name no team, is open to anyone who may push. An API token
 // is judged as its creator is today (lib/auth/actor.ts: a token never does more than its creator).
+import "server-only";
 import { QueryTypes, type Transaction } from "sequelize";
 import { db } from "@/models";
 import type { Actor } from "@/lib/auth/actor";

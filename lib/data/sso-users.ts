@@ -1,6 +1,7 @@
 // Accounts for single sign-on: link an OpenID Connect identity to a user, creating a viewer on
 // first sign-in (admins change roles afterwards). Linking by e-mail only when the provider
 // says the address is verified.
+import "server-only";
 import { db } from "@/models";
 import { normaliseEmail, toAppUser, type AppUser } from "./users";
 import { recordAudit } from "./audit";

@@ -1,4 +1,5 @@
 // Teams and memberships.
+import "server-only";
 import { db } from "@/models";
 
 export interface TeamInput {

@@ -1,4 +1,5 @@
 // Creating and revoking tokens on behalf of an admin, audited in the same transaction.
+import "server-only";
 import { db } from "@/models";
 import type { Actor } from "@/lib/auth/actor";
 import type { CreateTokenInput } from "@/lib/api/schemas/tokens";

@@ -1,4 +1,5 @@
 // API tokens: `ppt_` + 40 random characters, shown once, stored as a sha256 hash.
+import "server-only";
 import { createHash, randomBytes } from "node:crypto";
 import type { Transaction } from "sequelize";
 import { db } from "@/models";

@@ -2,6 +2,7 @@
 // calls, errors, calls per minute, error rate and p50/p95 duration, summed from the hourly buckets
 // of lib/data/traces.ts. Trace names are resolved through the components' aliases, so an edge seen
 // as frontend → cartservice is reported on frontend → cart once `cart` lists `cartservice`.
+import "server-only";
 import { QueryTypes } from "sequelize";
 import { db } from "@/models";
 import { readSettings } from "@/lib/inventory/settings";

@@ -10,6 +10,7 @@
 //     before, like any push; a file needs no waiting (it holds both halves or never will).
 // Repeated spans count once: within a fold by its own id set, across receiver requests by the ids
 // of recent requests (RecentSpanIds, per environment, in this process).
+import "server-only";
 import { QueryTypes, type Transaction } from "sequelize";
 import { db } from "@/models";
 import { AppError } from "@/lib/errors";

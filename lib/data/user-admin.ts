@@ -1,5 +1,6 @@
 // Admin user management: list, invite, change role, deactivate / reactivate, and accepting an
 // invite. Every write is audited in the same transaction as the change it records.
+import "server-only";
 import { createHash, randomBytes } from "node:crypto";
 import { Op, type Transaction } from "sequelize";
 import { db } from "@/models";

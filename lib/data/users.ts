@@ -1,4 +1,5 @@
 // Users: the only module that reads or writes the users table for the app.
+import "server-only";
 import bcrypt from "bcryptjs";
 import { QueryTypes, type Transaction } from "sequelize";
 import { db } from "@/models";

@@ -1,5 +1,6 @@
 // Analysis workers say they are alive every few seconds (scripts/analysis-worker.ts), so the health
 // endpoint and the overview can tell when none is running: queued analyses would wait forever.
+import "server-only";
 import { QueryTypes } from "sequelize";
 import { db } from "@/models";
 

@@ -73,7 +73,7 @@ beforeAll(async () => {
     NEXT_TELEMETRY_DISABLED: "1",
   };
   // Migrations and the demo, once, from one machine (README step 4).
-  execFileSync(process.execPath, [tsx, "scripts/seed.ts"], { cwd: root, env: base, stdio: "ignore", timeout: 120_000 });
+  execFileSync(process.execPath, [tsx, "--conditions=react-server", "scripts/seed.ts"], { cwd: root, env: base, stdio: "ignore", timeout: 120_000 });
   client = new pg.Client({ connectionString: urlFor(DB) });
   await client.connect();
   const [pa, pb] = [await freePort(), await freePort()];

@@ -1,9 +1,10 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from "sequelize";
 
-export const ANALYSIS_STATUSES = ["queued", "running", "done", "failed"] as const;
+/** `superseded`: a newer snapshot of the environment was analysed instead (lib/data/analysis-runs.ts). */
+export const ANALYSIS_STATUSES = ["queued", "running", "done", "failed", "superseded"] as const;
 export type AnalysisStatus = (typeof ANALYSIS_STATUSES)[number];
 
-/** One analysis of one snapshot: a job row in PostgreSQL, so several app instances share the work. */
+/** One analysis of one snapshot: the product's record of it (status, progress, phase, summary); the queue job that runs it is pg-boss's (job_id). */
 export class AnalysisRun extends Model<InferAttributes<AnalysisRun>, InferCreationAttributes<AnalysisRun>> {
   declare id: CreationOptional<string>;
   declare environmentId: string;
@@ -12,8 +13,10 @@ export class AnalysisRun extends Model<InferAttributes<AnalysisRun>, InferCreati
   declare progress: CreationOptional<number>;
   declare phase: string | null;
   declare attempts: CreationOptional<number>;
-  /** worker that holds the job and when it last said it is alive; a stale heartbeat re-queues */
+  /** worker that holds the run and when it last said it is alive; a stale heartbeat hands it back to the queue */
   declare lockedBy: string | null;
+  /** the pg-boss job (queue `analysis`) that claimed this run last */
+  declare jobId: CreationOptional<string | null>;
   declare heartbeatAt: Date | null;
   declare startedAt: Date | null;
   declare finishedAt: Date | null;
@@ -39,6 +42,7 @@ export class AnalysisRun extends Model<InferAttributes<AnalysisRun>, InferCreati
         phase: { type: DataTypes.STRING(60), allowNull: true },
         attempts: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
         lockedBy: { type: DataTypes.STRING(100), allowNull: true },
+        jobId: { type: DataTypes.UUID, allowNull: true },
         heartbeatAt: { type: DataTypes.DATE, allowNull: true },
         startedAt: { type: DataTypes.DATE, allowNull: true },
         finishedAt: { type: DataTypes.DATE, allowNull: true },

@@ -3,7 +3,7 @@ import { DataTypes, Model, type CreationOptional, type InferAttributes, type Inf
 export const OUTBOX_STATUSES = ["queued", "sent", "failed"] as const;
 export type OutboxStatus = (typeof OUTBOX_STATUSES)[number];
 
-/** One e-mail waiting to be sent, sent, or given up on (see lib/mail/outbox.ts). */
+/** One e-mail waiting to be sent, sent, or given up on: the product's record of it; its delivery is a job in the queue `mail` (lib/data/mail-outbox.ts). */
 export class OutboxMessage extends Model<InferAttributes<OutboxMessage>, InferCreationAttributes<OutboxMessage>> {
   declare id: CreationOptional<string>;
   declare to: string[];
@@ -13,8 +13,9 @@ export class OutboxMessage extends Model<InferAttributes<OutboxMessage>, InferCr
   declare template: string;
   declare status: CreationOptional<OutboxStatus>;
   declare attempts: CreationOptional<number>;
-  declare nextAttemptAt: CreationOptional<Date>;
   declare lastError: string | null;
+  /** the job of the queue `mail` that delivers it */
+  declare jobId: CreationOptional<string | null>;
   declare dedupeKey: string | null;
   declare createdAt: CreationOptional<Date>;
   declare sentAt: Date | null;
@@ -30,8 +31,8 @@ export class OutboxMessage extends Model<InferAttributes<OutboxMessage>, InferCr
         template: { type: DataTypes.STRING(40), allowNull: false },
         status: { type: DataTypes.ENUM(...OUTBOX_STATUSES), allowNull: false, defaultValue: "queued" },
         attempts: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
-        nextAttemptAt: { type: DataTypes.DATE, allowNull: false, defaultValue: DataTypes.NOW },
         lastError: { type: DataTypes.TEXT, allowNull: true },
+        jobId: { type: DataTypes.UUID, allowNull: true },
         dedupeKey: { type: DataTypes.STRING(300), allowNull: true },
         createdAt: DataTypes.DATE,
         sentAt: { type: DataTypes.DATE, allowNull: true },

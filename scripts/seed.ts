@@ -3,7 +3,7 @@ import path from "node:path";
 import { closeDb } from "../models";
 import { migrateToLatest } from "../models/migrate";
 import { db } from "../models";
-import { drainAnalysisQueue } from "../lib/data/analysis-jobs";
+import { drainAnalysisQueue } from "../lib/jobs/analysis";
 import { seedDemo } from "../lib/data/seed";
 import { closeParsePool } from "../importers/off-thread";
 

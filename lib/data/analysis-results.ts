@@ -1,11 +1,12 @@
 // Reading stored analysis: which snapshot the rankings come from, its status, and each result
 // where it is stored (component_metrics, component_dominance, analysis_cycles); analysis_runs.graph
 // is only a small summary.
+import "server-only";
 import { QueryTypes } from "sequelize";
 import { db } from "@/models";
 import type { ComponentKind, Strength, Tier } from "@/lib/inventory/types";
 import { rankedMeasureOf, type RankingSort } from "@/lib/api/ranking-sorts";
-import type { AnalysisSummary } from "./analysis-jobs";
+import type { AnalysisSummary } from "./analysis-runs";
 
 export interface AnalysisStatusInfo {
   status: "queued" | "running" | "done" | "failed" | "none";

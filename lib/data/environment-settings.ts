@@ -8,7 +8,7 @@ import { roleHas } from "@/lib/auth/roles";
 import { forbidden, notFound } from "@/lib/errors";
 import { analysisSettingsKey } from "@/lib/analysis/input";
 import { EnvironmentSettingsSchema, readSettings, type EnvironmentSettings } from "@/lib/inventory/settings";
-import { requeueLatestAnalysis } from "./analysis-jobs";
+import { requeueLatestAnalysis } from "./analysis-runs";
 import { recordAudit } from "./audit";
 
 export interface SettingsView {

@@ -1,10 +1,12 @@
 // GET /api/health: what a load balancer, `npm start` and the overview need to know. Answers without
 // a sign-in, so it says nothing an outsider could use beyond counts.
+import "server-only";
 import { QueryTypes } from "sequelize";
 import { db } from "@/models";
 import { isDatabaseUnavailable } from "@/lib/errors";
 import type { HealthResponse } from "@/lib/api/schemas/health";
 import { workerHealth } from "./worker-heartbeats";
+import { queueDepth } from "./job-queue";
 
 /**
  * `ok`; `degraded` while no analysis worker is running (the app still serves, analyses wait);
@@ -21,22 +23,6 @@ function withTimeout<T>(work: Promise<T>, ms: number): Promise<T> {
     timer = setTimeout(() => reject(Object.assign(new Error(`no answer within ${ms} ms`), { name: "SequelizeConnectionTimedOutError" })), ms);
   });
   return Promise.race([work, timeout]).finally(() => clearTimeout(timer));
-}
-
-async function queueDepth(): Promise<NonNullable<HealthReport["queue"]>> {
-  const [row] = await db().sequelize.query<{ queued: string; running: string; oldest: number | null; mail: string }>(
-    `SELECT (SELECT count(*) FROM analysis_runs WHERE status = 'queued') AS queued,
-            (SELECT count(*) FROM analysis_runs WHERE status = 'running') AS running,
-            (SELECT extract(epoch FROM now() - min(created_at))::float8 FROM analysis_runs WHERE status = 'queued') AS oldest,
-            (SELECT count(*) FROM outbox_messages WHERE status = 'queued') AS mail`,
-    { type: QueryTypes.SELECT },
-  );
-  return {
-    analysisQueued: Number(row?.queued ?? 0),
-    analysisRunning: Number(row?.running ?? 0),
-    oldestQueuedSeconds: row?.oldest === null || row?.oldest === undefined ? null : Math.round(row.oldest),
-    mailQueued: Number(row?.mail ?? 0),
-  };
 }
 
 /** Is PostgreSQL answering? One `SELECT 1` through the app's own pool. */

@@ -1,9 +1,10 @@
 // A new snapshot of an environment and its analysis job, in the caller's transaction. Shared by
 // pushes and by the observed-graph step (lib/data/observed-graph.ts), which both change the graph.
+import "server-only";
 import { QueryTypes, type Transaction } from "sequelize";
 import { db } from "@/models";
 import type { SnapshotContent } from "@/lib/inventory/snapshot";
-import { queueAnalysis } from "./analysis-jobs";
+import { queueAnalysis } from "./analysis-runs";
 
 export interface SnapshotInsert {
   environmentId: string;

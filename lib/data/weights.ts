@@ -7,7 +7,7 @@ import type { Actor } from "@/lib/auth/actor";
 import { roleHas } from "@/lib/auth/roles";
 import { DEFAULT_PINCH_WEIGHTS, type PinchWeights } from "@/lib/analysis/types";
 import { forbidden, notFound } from "@/lib/errors";
-import { requeueLatestAnalysis } from "./analysis-jobs";
+import { requeueLatestAnalysis } from "./analysis-runs";
 import { recordAudit } from "./audit";
 
 export interface WeightsView {

@@ -1,4 +1,3 @@
-// E-mail: queue with enqueueMail or a notice, deliver from the worker with startOutboxLoop.
-export { enqueueMail, deliverOutbox, MAX_ATTEMPTS, BACKOFF_MS, type DeliveryReport, type DeliverOptions } from "./outbox";
-export { noticeOwnerAssigned, noticeTopTenChanges, noticeReviewsDue, noticeInvite } from "./notices";
-export { startOutboxLoop, type OutboxLoopOptions } from "./loop";
+// E-mail: queue with enqueueMail or a notice; lib/jobs/mail.ts delivers from the worker.
+export { enqueueMail } from "./outbox";
+export { noticeOwnerAssigned, noticeTopTenChanges, noticeReviewsDue, noticeInvite, noticeRiskDigest } from "./notices";

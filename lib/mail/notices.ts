@@ -1,28 +1,34 @@
-// When Pinchpoint sends e-mail: one function per trigger. Each reads what it needs, renders and
-// queues (outbox.ts); none sends, and none lets a mail problem fail the caller: errors are logged,
-// and inside a caller's transaction the notice runs in a savepoint so its failure rolls back only
-// the notice, never the change it announces.
-import { QueryTypes, type Transaction } from "sequelize";
-import { db } from "@/models";
+// When Pinchpoint sends e-mail: one function per trigger. Each reads what it needs (through
+// lib/data/notice-data.ts), renders and queues (outbox.ts); none sends, and none lets a mail problem
+// fail the caller: errors are logged, and inside a caller's transaction the notice runs in a
+// savepoint so its failure rolls back only the notice, never the change it announces.
 import { appUrl } from "@/lib/config";
+import {
+  activeArchitects,
+  analysedBaseline,
+  componentName,
+  environmentNames,
+  markReviewsNotified,
+  riskDigestSections,
+  snapshotNumber,
+  takeDueReviews,
+  teamContacts,
+  topTenByPinch,
+} from "@/lib/data/notice-data";
+import { withTransaction, type DataTransaction } from "@/lib/data/transactions";
 import { enqueueMail } from "./outbox";
+import { isoWeek } from "./week";
 import type { TopTenEntry } from "./templates";
 
-async function guarded(label: string, transaction: Transaction | undefined, work: (t: Transaction) => Promise<number>): Promise<number> {
+async function guarded(label: string, transaction: DataTransaction | undefined, work: (t: DataTransaction) => Promise<number>): Promise<number> {
   try {
-    // With a parent this is a savepoint (Sequelize nests transactions that way); without one, a
-    // transaction of its own, so a notice's several messages are queued together or not at all.
-    return await db().sequelize.transaction(transaction ? { transaction } : {}, work);
+    // With a parent this is a savepoint; without one, a transaction of its own, so a notice's
+    // several messages are queued together or not at all.
+    return await withTransaction(transaction, work);
   } catch (error) {
     console.error(`[mail] ${label}: nothing queued:`, error instanceof Error ? error.message : error);
     return 0;
   }
-}
-
-async function environmentOf(environmentId: string, transaction: Transaction) {
-  const env = await db().models.Environment.findByPk(environmentId, { transaction });
-  if (!env) throw new Error(`no environment ${environmentId}`);
-  return { slug: env.slug, name: env.name };
 }
 
 /**
@@ -31,25 +37,23 @@ async function environmentOf(environmentId: string, transaction: Transaction) {
  */
 export function noticeOwnerAssigned(
   { environmentId, key, team, actorLabel }: { environmentId: string; key: string; team: string | null; actorLabel: string },
-  transaction?: Transaction,
+  transaction?: DataTransaction,
 ): Promise<number> {
   if (!team) return Promise.resolve(0);
   return guarded("owner assigned", transaction, async (t) => {
-    const { models } = db();
-    const teamRow = await models.Team.findOne({ where: { slug: team }, transaction: t });
-    if (!teamRow?.email) {
+    const [contact] = await teamContacts({ slugs: [team] }, t);
+    if (!contact?.email) {
       console.warn(`[mail] owner assigned: team ${team} has no e-mail address, nobody told`);
       return 0;
     }
-    const component = await models.Component.findOne({ where: { environmentId, key }, transaction: t });
     const id = await enqueueMail(
       {
-        to: [teamRow.email],
+        to: [contact.email],
         template: "ownerAssigned",
         data: {
-          environment: await environmentOf(environmentId, t),
-          component: { key, name: component?.name ?? key },
-          team: { slug: teamRow.slug, name: teamRow.name },
+          environment: await environmentNames({ environmentId }, t),
+          component: { key, name: (await componentName({ environmentId, key }, t)) ?? key },
+          team: { slug: contact.slug, name: contact.name },
           actorLabel,
         },
       },
@@ -57,45 +61,6 @@ export function noticeOwnerAssigned(
     );
     return id ? 1 : 0;
   });
-}
-
-const TOP = 10;
-
-async function topTen(environmentId: string, snapshotId: string, transaction: Transaction): Promise<TopTenEntry[]> {
-  const { models } = db();
-  // Same order as the pinch-points screen sorted by pinch score: score, then key for ties.
-  const rows = await models.ComponentMetric.findAll({
-    where: { snapshotId },
-    order: [["pinchScore", "DESC"], ["key", "ASC"]],
-    limit: TOP,
-    transaction,
-  });
-  if (!rows.length) return [];
-  const annotations = await models.ComponentAnnotation.findAll({ where: { environmentId, key: rows.map((r) => r.key) }, transaction });
-  const owner = new Map(annotations.map((a) => [a.key, a.ownerTeam]));
-  return rows.map((r, i) => ({
-    key: r.key,
-    name: r.name,
-    position: i + 1,
-    pinchScore: r.pinchScore,
-    blastDown: r.blastDown,
-    blastDegraded: r.blastDegraded,
-    team: owner.get(r.key) ?? r.team,
-  }));
-}
-
-/** The snapshot to compare with: the one given if it was analysed, else the latest earlier one that was. */
-async function baseline(environmentId: string, snapshotNumber: number, previousSnapshotId: string | null | undefined, transaction: Transaction): Promise<string | null> {
-  const { models, sequelize } = db();
-  if (previousSnapshotId && (await models.ComponentMetric.count({ where: { snapshotId: previousSnapshotId }, transaction }))) return previousSnapshotId;
-  const [row] = await sequelize.query<{ id: string }>(
-    `SELECT s.id FROM snapshots s
-      WHERE s.environment_id = :environmentId AND s.number < :snapshotNumber
-        AND EXISTS (SELECT 1 FROM component_metrics m WHERE m.snapshot_id = s.id)
-      ORDER BY s.number DESC LIMIT 1`,
-    { type: QueryTypes.SELECT, replacements: { environmentId, snapshotNumber }, transaction },
-  );
-  return row?.id ?? null;
 }
 
 /**
@@ -106,22 +71,20 @@ async function baseline(environmentId: string, snapshotNumber: number, previousS
  */
 export function noticeTopTenChanges({ environmentId, snapshotId, previousSnapshotId }: { environmentId: string; snapshotId: string; previousSnapshotId?: string | null }): Promise<number> {
   return guarded("top-ten changes", undefined, async (t) => {
-    const { models } = db();
-    const snapshot = await models.Snapshot.findOne({ where: { id: snapshotId, environmentId }, transaction: t });
-    if (!snapshot) throw new Error(`snapshot ${snapshotId} is not in environment ${environmentId}`);
-    const previousId = await baseline(environmentId, snapshot.number, previousSnapshotId, t);
+    const number = await snapshotNumber({ environmentId, snapshotId }, t);
+    if (number === null) throw new Error(`snapshot ${snapshotId} is not in environment ${environmentId}`);
+    const previousId = await analysedBaseline({ environmentId, snapshotNumber: number, previousSnapshotId }, t);
     if (!previousId) return 0;
-    const [current, previous] = await Promise.all([topTen(environmentId, snapshotId, t), topTen(environmentId, previousId, t)]);
+    const [current, previous] = await Promise.all([topTenByPinch({ environmentId, snapshotId }, t), topTenByPinch({ environmentId, snapshotId: previousId }, t)]);
     const before = new Set(previous.map((e) => e.key));
-    const newcomers = current.filter((e) => !before.has(e.key));
+    const newcomers: TopTenEntry[] = current.filter((e) => !before.has(e.key));
     if (!newcomers.length) return 0;
 
-    const environment = await environmentOf(environmentId, t);
+    const environment = await environmentNames({ environmentId }, t);
     let queued = 0;
     const byTeam = new Map<string, TopTenEntry[]>();
     for (const e of newcomers) if (e.team) byTeam.set(e.team, [...(byTeam.get(e.team) ?? []), e]);
-    const teams = byTeam.size ? await models.Team.findAll({ where: { slug: [...byTeam.keys()] }, transaction: t }) : [];
-    for (const team of teams) {
+    for (const team of await teamContacts({ slugs: [...byTeam.keys()] }, t)) {
       const entries = byTeam.get(team.slug) ?? [];
       if (!team.email) {
         console.warn(`[mail] top-ten changes: team ${team.slug} has no e-mail address, not told about ${entries.map((e) => e.key).join(", ")}`);
@@ -131,20 +94,19 @@ export function noticeTopTenChanges({ environmentId, snapshotId, previousSnapsho
         {
           to: [team.email],
           template: "newTopTen",
-          data: { environment, snapshotNumber: snapshot.number, audience: { kind: "team", teamName: team.name }, entries },
+          data: { environment, snapshotNumber: number, audience: { kind: "team", teamName: team.name }, entries },
           dedupeKey: `top-ten:${snapshotId}:team:${team.slug}`,
         },
         t,
       );
       if (id) queued++;
     }
-    const architects = await models.User.findAll({ where: { role: "architect", active: true }, order: [["email", "ASC"]], transaction: t });
-    for (const user of architects) {
+    for (const user of await activeArchitects(t)) {
       const id = await enqueueMail(
         {
           to: [user.email],
           template: "newTopTen",
-          data: { environment, snapshotNumber: snapshot.number, audience: { kind: "architects" }, entries: newcomers },
+          data: { environment, snapshotNumber: number, audience: { kind: "architects" }, entries: newcomers },
           dedupeKey: `top-ten:${snapshotId}:user:${user.id}`,
         },
         t,
@@ -155,86 +117,60 @@ export function noticeTopTenChanges({ environmentId, snapshotId, previousSnapsho
   });
 }
 
-const REVIEW_COLUMNS = ["id", "environment_id", "key", "status", "review_by", "reviewer_id", "notified_at"] as const;
-
-/** Which columns risk_reviews has, or null while the table does not exist. */
-async function reviewColumns(transaction: Transaction): Promise<Set<string> | null> {
-  const rows = await db().sequelize.query<{ column_name: string }>(
-    `SELECT column_name FROM information_schema.columns WHERE table_schema = current_schema() AND table_name = 'risk_reviews'`,
-    { type: QueryTypes.SELECT, transaction },
-  );
-  return rows.length ? new Set(rows.map((r) => r.column_name)) : null;
-}
-
-let warnedReviewShape = false;
-
 /**
  * Reviews whose review-by date has come (today, UTC, or earlier) and that are not resolved: tell
  * the reviewer once per date. `notified_at` records it; a review whose date moves later is told
- * again when the new date comes (notified_at is then before it). Call it periodically.
+ * again when the new date comes (notified_at is then before it). The scheduler runs it every hour.
  */
 export function noticeReviewsDue({ now = new Date() }: { now?: Date } = {}): Promise<number> {
   return guarded("reviews due", undefined, async (t) => {
-    const columns = await reviewColumns(t);
-    if (!columns) return 0;
-    const missing = REVIEW_COLUMNS.filter((c) => !columns.has(c));
-    if (missing.length) {
-      if (!warnedReviewShape) console.warn(`[mail] reviews due: risk_reviews lacks ${missing.join(", ")}; no reminders sent`);
-      warnedReviewShape = true;
-      return 0;
-    }
     const today = now.toISOString().slice(0, 10);
-    const rows = await db().sequelize.query<{
-      id: string;
-      key: string;
-      status: string;
-      review_by: string;
-      rationale: string | null;
-      email: string;
-      env_slug: string;
-      env_name: string;
-      component_name: string | null;
-    }>(
-      `SELECT r.id, r.key, r.status::text AS status, to_char(r.review_by, 'YYYY-MM-DD') AS review_by,
-              ${columns.has("rationale") ? "r.rationale::text" : "NULL::text"} AS rationale,
-              u.email, e.slug AS env_slug, e.name AS env_name, c.name AS component_name
-         FROM risk_reviews r
-         JOIN users u ON u.id = r.reviewer_id AND u.active
-         JOIN environments e ON e.id = r.environment_id
-         LEFT JOIN components c ON c.environment_id = r.environment_id AND c.key = r.key
-        WHERE r.review_by IS NOT NULL AND r.review_by <= CAST(:today AS date)
-          AND r.status::text <> 'resolved'
-          AND (r.notified_at IS NULL OR r.notified_at < r.review_by)
-        ORDER BY r.review_by, r.id
-        LIMIT 500
-          FOR UPDATE OF r SKIP LOCKED`,
-      { type: QueryTypes.SELECT, replacements: { today }, transaction: t },
-    );
+    const due = await takeDueReviews({ today }, t);
     let queued = 0;
-    for (const r of rows) {
+    for (const r of due) {
       const id = await enqueueMail(
         {
           to: [r.email],
           template: "reviewDue",
           data: {
-            environment: { slug: r.env_slug, name: r.env_name },
-            component: { key: r.key, name: r.component_name ?? r.key },
+            environment: r.environment,
+            component: { key: r.key, name: r.componentName ?? r.key },
             status: r.status,
-            reviewBy: r.review_by,
-            overdue: r.review_by < today,
+            reviewBy: r.reviewBy,
+            overdue: r.reviewBy < today,
             rationale: r.rationale,
           },
-          dedupeKey: `review-due:${r.id}:${r.review_by}`,
+          dedupeKey: `review-due:${r.id}:${r.reviewBy}`,
         },
         t,
       );
       if (id) queued++;
     }
-    if (rows.length) {
-      await db().sequelize.query(`UPDATE risk_reviews SET notified_at = :now WHERE id IN (:ids)`, {
-        replacements: { now, ids: rows.map((r) => r.id) },
-        transaction: t,
-      });
+    await markReviewsNotified({ ids: due.map((r) => r.id), now }, t);
+    return queued;
+  });
+}
+
+/**
+ * The weekly risk digest: to every active architect, one message over every environment with
+ * something to say (top movers in pinch score, overdue reviews, new single points of failure).
+ * Nothing to say anywhere sends nothing; the same week never sends twice.
+ */
+export async function noticeRiskDigest({ now = new Date() }: { now?: Date } = {}): Promise<number> {
+  let sections: Awaited<ReturnType<typeof riskDigestSections>>;
+  try {
+    sections = (await riskDigestSections({ now })).filter((s) => s.movers.length || s.overdueReviews.length || s.newSinglePoints.length);
+  } catch (error) {
+    console.error("[mail] risk digest: nothing queued:", error instanceof Error ? error.message : error);
+    return 0;
+  }
+  if (!sections.length) return 0;
+  const week = isoWeek(now);
+  return guarded("risk digest", undefined, async (t) => {
+    let queued = 0;
+    for (const user of await activeArchitects(t)) {
+      const id = await enqueueMail({ to: [user.email], template: "riskDigest", data: { week, environments: sections }, dedupeKey: `risk-digest:${week}:${user.id}` }, t);
+      if (id) queued++;
     }
     return queued;
   });
@@ -246,7 +182,7 @@ export function noticeReviewsDue({ now = new Date() }: { now?: Date } = {}): Pro
  */
 export function noticeInvite(
   { email, link, invitedBy, expiresAt }: { email: string; link: string; invitedBy?: string | null; expiresAt?: Date | null },
-  transaction?: Transaction,
+  transaction?: DataTransaction,
 ): Promise<number> {
   return guarded("invite", transaction, async (t) => {
     const absolute = new URL(link, `${appUrl().replace(/\/+$/, "")}/`).toString();
@@ -254,4 +190,3 @@ export function noticeInvite(
     return id ? 1 : 0;
   });
 }
-

@@ -1,8 +1,40 @@
-// Reading the sink's folder for the admin mail page: newest first, one message in full.
+// Reading the sink's folder for the admin mail page: newest first, one message in full. Messages
+// are parsed with mailparser (MIME, transfer encodings, RFC 2047 words, charsets).
 import "server-only";
 import { readdir, readFile, stat } from "node:fs/promises";
 import path from "node:path";
-import { parseEml, type ParsedMail } from "./eml";
+import { simpleParser, type AddressObject } from "mailparser";
+
+/** What the mail page and the tests read of a kept message. */
+export interface ParsedMail {
+  /** header names lower-cased, values as text */
+  headers: Map<string, string>;
+  from: string;
+  to: string;
+  subject: string;
+  date: Date | null;
+  text: string | null;
+  html: string | null;
+}
+
+const addresses = (value: AddressObject | AddressObject[] | undefined): string =>
+  (Array.isArray(value) ? value : value ? [value] : []).flatMap((a) => a.value.map((v) => (v.name ? `${v.name} <${v.address ?? ""}>` : (v.address ?? "")))).join(", ");
+
+/** Parse one stored message (.eml). */
+export async function parseMessage(raw: Buffer | string): Promise<ParsedMail> {
+  const mail = await simpleParser(raw, { skipImageLinks: true, skipTextToHtml: true, skipTextLinks: true });
+  const headers = new Map<string, string>();
+  for (const line of mail.headerLines) headers.set(line.key, line.line.slice(line.line.indexOf(":") + 1).trim());
+  return {
+    headers,
+    from: addresses(mail.from),
+    to: addresses(mail.to),
+    subject: mail.subject ?? "",
+    date: mail.date && !Number.isNaN(mail.date.getTime()) ? mail.date : null,
+    text: mail.text ?? null,
+    html: mail.html === false ? null : (mail.html ?? null),
+  };
+}
 
 export interface SinkMessageSummary {
   id: string;
@@ -27,7 +59,7 @@ async function load(dir: string, id: string): Promise<{ parsed: ParsedMail; byte
   const file = path.join(dir, `${id}.eml`);
   try {
     const [raw, info] = await Promise.all([readFile(file), stat(file)]);
-    return { parsed: parseEml(raw), bytes: info.size };
+    return { parsed: await parseMessage(raw), bytes: info.size };
   } catch {
     return null;
   }

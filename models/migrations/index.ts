@@ -12,6 +12,7 @@ import * as m0010 from "./0010-traces";
 import * as m0011 from "./0011-sessions-and-workers";
 import * as m0012 from "./0012-incidents";
 import * as m0013 from "./0013-analysis-results";
+import * as m0014 from "./0014-job-queue";
 
 export const MIGRATIONS = [
   { name: "0001-initial", ...m0001 },
@@ -27,4 +28,5 @@ export const MIGRATIONS = [
   { name: "0011-sessions-and-workers", ...m0011 },
   { name: "0012-incidents", ...m0012 },
   { name: "0013-analysis-results", ...m0013 },
+  { name: "0014-job-queue", ...m0014 },
 ];

@@ -83,7 +83,7 @@ export async function benchHttp({ n = 20_000, seconds = 10 }: { n?: number; seco
     const { db, closeDb } = await import("../../models");
     const { migrateToLatest } = await import("../../models/migrate");
     const { pushInventory } = await import("../../lib/data/push");
-    const { drainAnalysisQueue } = await import("../../lib/data/analysis-jobs");
+    const { drainAnalysisQueue } = await import("../../lib/jobs/analysis");
     const { stopAnalysisThread } = await import("../../lib/analysis/thread");
     await migrateToLatest(db().sequelize);
     const actor = { type: "system" as const, label: "bench", canCreateEnvironments: true as const };

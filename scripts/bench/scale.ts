@@ -33,7 +33,8 @@ export async function benchScale(): Promise<ScaleResult[]> {
     process.env.PINCHPOINT_ANALYSIS_STALE_S = "10";
     const { db, closeDb } = await import("../../models");
     const { migrateToLatest } = await import("../../models/migrate");
-    const { claimNextJob, queueAnalysis, runJob } = await import("../../lib/data/analysis-jobs");
+    const { claimNextJob, runJob } = await import("../../lib/jobs/analysis");
+    const { queueAnalysis } = await import("../../lib/data/analysis-runs");
     const { stopAnalysisThread } = await import("../../lib/analysis/thread");
     await migrateToLatest(db().sequelize);
     const results: ScaleResult[] = [];

@@ -12,7 +12,8 @@ import { GET as rankings } from "@/app/api/v1/environments/[env]/rankings/route"
 import { GET as bootOrder } from "@/app/api/v1/environments/[env]/boot-order/route";
 import { GET as component, PATCH as annotate } from "@/app/api/v1/environments/[env]/components/[key]/route";
 import { db } from "@/models";
-import { claimNextJob, drainAnalysisQueue, queueAnalysis, runJob } from "@/lib/data/analysis-jobs";
+import { claimNextJob, drainAnalysisQueue, runJob } from "@/lib/jobs/analysis";
+import { queueAnalysis } from "@/lib/data/analysis-runs";
 import { pushInventory } from "@/lib/data/push";
 import { stopAnalysisThread } from "@/lib/analysis/thread";
 import type { AnalysisInput } from "@/lib/analysis/types";

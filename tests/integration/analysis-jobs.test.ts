@@ -1,14 +1,18 @@
-// Analysis off the request path: a push queues a job in PostgreSQL, a worker runs it and stores
-// results, the API serves them; a worker that dies mid-run leaves a job that is taken over.
+// Analysis off the request path: a push queues a run and its job (pg-boss, queue `analysis`), a
+// worker runs it and stores results, the API serves them; a worker that dies mid-run leaves a run
+// that the queue hands to another worker; a newer snapshot supersedes a queued older one; one
+// environment is analysed by one worker at a time.
 import { QueryTypes } from "sequelize";
-import { beforeAll, describe, expect, it } from "vitest";
+import { beforeAll, describe, expect, it, vi } from "vitest";
 import { GET as rankings } from "@/app/api/v1/environments/[env]/rankings/route";
 import { GET as blast } from "@/app/api/v1/environments/[env]/components/[key]/blast-radius/route";
 import { POST as drills } from "@/app/api/v1/environments/[env]/drills/route";
 import { GET as bootOrder } from "@/app/api/v1/environments/[env]/boot-order/route";
 import { GET as component } from "@/app/api/v1/environments/[env]/components/[key]/route";
 import { db } from "@/models";
-import { claimNextJob, drainAnalysisQueue, runJob, STALE_AFTER_S } from "@/lib/data/analysis-jobs";
+import { claimNextJob, drainAnalysisQueue, runJob } from "@/lib/jobs/analysis";
+import { STALE_AFTER_S, type ClaimedRun } from "@/lib/data/analysis-runs";
+import { jobQueue, QUEUES } from "@/lib/data/job-queue";
 import { pushInventory } from "@/lib/data/push";
 import { call, createUser, type TestUser } from "../support/api";
 
@@ -28,6 +32,17 @@ components:
 `;
 
 let viewer: TestUser;
+
+/** Poll until `probe` gives something (the queue's retries wait out their backoff). */
+async function until<T>(probe: () => Promise<T | null>, timeoutMs = 10_000): Promise<T> {
+  const deadline = Date.now() + timeoutMs;
+  for (;;) {
+    const value = await probe();
+    if (value) return value;
+    if (Date.now() > deadline) throw new Error(`nothing within ${timeoutMs} ms`);
+    await new Promise((r) => setTimeout(r, 200));
+  }
+}
 const system = { type: "system" as const, label: "test", canCreateEnvironments: true as const };
 
 beforeAll(async () => {
@@ -43,19 +58,21 @@ describe("analysis jobs", () => {
     expect((res.json as { message: string }).message).toMatch(/queued|analysis/);
   });
 
-  it("re-queues a job whose worker stopped sending heartbeats, and finishes it", async () => {
+  it("hands a run whose worker stopped sending heartbeats back to the queue, which retries the same job elsewhere", async () => {
     const job = await claimNextJob("worker-that-dies");
     expect(job).not.toBeNull();
-    expect(await claimNextJob("second-worker")).toBeNull(); // held by the first
+    expect(await claimNextJob("second-worker")).toBeNull(); // held by the first: its queue job is active
     await db().sequelize.query(`UPDATE analysis_runs SET heartbeat_at = now() - make_interval(secs => :s)`, { replacements: { s: STALE_AFTER_S + 5 } });
-    const taken = await claimNextJob("second-worker");
-    expect(taken?.id).toBe(job?.id);
-    expect(taken?.attempts).toBe(2);
-    expect(await runJob(taken!, "second-worker")).toBe("done");
-    // The first worker coming back to life cannot overwrite the result.
+    // The stale run's job is failed through pg-boss, which retries it after its backoff (1–2 s, lib/data/job-queue.ts).
+    const taken = await until(() => claimNextJob("second-worker"));
+    expect(taken).toMatchObject({ id: job!.id, job_id: job!.job_id, attempts: 2 });
+    expect(await jobQueue().getJobById(QUEUES.analysis, job!.job_id, { includeArchive: false })).toMatchObject({ state: "active", retryCount: 1 });
+    expect(await runJob(taken, "second-worker")).toBe("done");
+    // The first worker coming back to life cannot overwrite the result, nor touch the job.
     expect(await runJob(job!, "worker-that-dies")).toBe("lost");
     const [run] = await db().sequelize.query<{ status: string; progress: number; exact: boolean }>("SELECT status, progress, exact FROM analysis_runs", { type: QueryTypes.SELECT });
     expect(run).toEqual({ status: "done", progress: 1, exact: true });
+    expect(await jobQueue().getJobById(QUEUES.analysis, job!.job_id, { includeArchive: false })).toMatchObject({ state: "completed" });
   });
 
   it("serves rankings sorted by betweenness by default, with snapshot and analysis metadata", async () => {
@@ -130,5 +147,67 @@ describe("analysis jobs", () => {
     expect(await drainAnalysisQueue("w")).toBe(1);
     const after = await call(rankings, { url: "/api/v1/environments/prod/rankings", params: { env: "prod" }, as: viewer });
     expect(after.json).toMatchObject({ snapshot: { number: 2 }, latest: null });
+  });
+
+  it("a newer snapshot supersedes a queued older one: one job per environment, the newest analysed, the older marked", async () => {
+    const version = (n: number) => FILE.replace("tier: 3, team: shop", `tier: 3, team: shop, tags: [v${n}]`);
+    for (const n of [3, 4, 5]) await pushInventory({ environment: "prod", format: "pinchpoint", body: version(n), dryRun: false, actor: system });
+    // The queue's singleton key (the environment) kept one waiting job for three pushes.
+    expect(await jobQueue().getQueueSize(QUEUES.analysis)).toBe(1);
+    expect(await drainAnalysisQueue("w")).toBe(1);
+    const runs = await db().sequelize.query<{ number: number; status: string }>(
+      "SELECT s.number, a.status::text AS status FROM analysis_runs a JOIN snapshots s ON s.id = a.snapshot_id WHERE s.number >= 3 ORDER BY s.number",
+      { type: QueryTypes.SELECT },
+    );
+    expect(runs).toEqual([{ number: 3, status: "superseded" }, { number: 4, status: "superseded" }, { number: 5, status: "done" }]);
+  });
+
+  it("analyses one environment at a time: a job for a busy environment waits for the run in hand, which sends the next", async () => {
+    const version = (n: number) => FILE.replace("tier: 3, team: shop", `tier: 3, team: shop, tags: [v${n}]`);
+    await pushInventory({ environment: "prod", format: "pinchpoint", body: version(6), dryRun: false, actor: system });
+    const first = (await claimNextJob("w1")) as ClaimedRun;
+    await pushInventory({ environment: "prod", format: "pinchpoint", body: version(7), dryRun: false, actor: system });
+    // The new job finds the environment busy and ends; nothing else is claimed meanwhile.
+    expect(await claimNextJob("w2")).toBeNull();
+    expect(await runJob(first, "w1")).toBe("done");
+    // Finishing, the first run saw snapshot 7 queued and sent it a job.
+    const second = (await claimNextJob("w2")) as ClaimedRun;
+    expect(second).not.toBeNull();
+    expect(await runJob(second, "w2")).toBe("done");
+    const [latest] = await db().sequelize.query<{ number: number; status: string }>(
+      "SELECT s.number, a.status::text AS status FROM analysis_runs a JOIN snapshots s ON s.id = a.snapshot_id ORDER BY s.number DESC LIMIT 1",
+      { type: QueryTypes.SELECT },
+    );
+    expect(latest).toEqual({ number: 7, status: "done" });
+  });
+
+  it("retries a failing analysis with the queue's backoff and fails it for good after three attempts", async () => {
+    await pushInventory({ environment: "prod", format: "pinchpoint", body: FILE.replace("tier: 3, team: shop", "tier: 3, team: shop, tags: [broken]"), dryRun: false, actor: system });
+    // Content the analysis cannot read: every attempt throws.
+    await db().sequelize.query(`UPDATE snapshots SET content = '{"components": null, "dependencies": null}'::jsonb WHERE number = 8`);
+    vi.spyOn(console, "error").mockImplementation(() => undefined);
+    const outcomes: string[] = [];
+    for (let attempt = 1; attempt <= 3; attempt++) {
+      const run = await until(() => claimNextJob("w"));
+      expect(run.attempts).toBe(attempt);
+      const job = await jobQueue().getJobById(QUEUES.analysis, run.job_id, { includeArchive: false });
+      expect(job).toMatchObject({ retryCount: attempt - 1, retryLimit: 2, retryBackoff: true });
+      outcomes.push(await runJob(run, "w"));
+      if (attempt < 3) {
+        // Not due again before its backoff: pg-boss waits retryDelay·2^n/2·(1 + random) seconds.
+        const retry = await jobQueue().getJobById(QUEUES.analysis, run.job_id, { includeArchive: false });
+        expect(retry?.state).toBe("retry");
+        expect(retry!.startAfter.getTime()).toBeGreaterThan(Date.now());
+        expect(await claimNextJob("w")).toBeNull();
+      }
+    }
+    expect(outcomes).toEqual(["retrying", "retrying", "failed"]);
+    const [run] = await db().sequelize.query<{ status: string; error: string }>(
+      "SELECT a.status::text AS status, a.error FROM analysis_runs a JOIN snapshots s ON s.id = a.snapshot_id WHERE s.number = 8",
+      { type: QueryTypes.SELECT },
+    );
+    expect(run?.status).toBe("failed");
+    expect(run?.error).toBeTruthy();
+    vi.restoreAllMocks();
   });
 });

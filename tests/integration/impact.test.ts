@@ -8,7 +8,7 @@ import { POST as push } from "@/app/api/v1/environments/[env]/inventory/route";
 import { GET as getPoliciesRoute, PUT as putPoliciesRoute } from "@/app/api/v1/environments/[env]/policies/route";
 import { PUT as putWeights } from "@/app/api/v1/environments/[env]/weights/route";
 import { PUT as putReview } from "@/app/api/v1/environments/[env]/reviews/[key]/route";
-import { drainAnalysisQueue } from "@/lib/data/analysis-jobs";
+import { drainAnalysisQueue } from "@/lib/jobs/analysis";
 import type { PushResult } from "@/lib/data/push";
 import type { ImpactReport } from "@/lib/impact";
 import { DEFAULT_POLICIES, type PolicySet } from "@/lib/impact/policies";

@@ -12,7 +12,7 @@ import { GET as currentRoute } from "@/app/api/v1/environments/[env]/incidents/c
 import { GET as detailRoute } from "@/app/api/v1/environments/[env]/incidents/[number]/route";
 import { POST as resolveRoute } from "@/app/api/v1/environments/[env]/incidents/[number]/resolve/route";
 import { PATCH as settingsRoute } from "@/app/api/v1/environments/[env]/settings/route";
-import { drainAnalysisQueue } from "@/lib/data/analysis-jobs";
+import { drainAnalysisQueue } from "@/lib/jobs/analysis";
 import { pushInventory } from "@/lib/data/push";
 import { utc } from "@/lib/incidents/view";
 import type { CurrentIncidentResponse, IncidentDetailResponse, IncidentHistoryResponse, ReceiveAlertsResponse } from "@/lib/incidents/types";

@@ -1,11 +1,11 @@
-// Who is told what: the notices read the real tables, queue in the outbox, and the sink receives
-// the messages with the right recipients. Metrics rows are written directly so that which
+// Who is told what: the notices read the real tables, queue in the outbox and the queue `mail`,
+// and the sink receives the messages with the right recipients. Metrics rows are written directly so that which
 // component enters the top ten is set by the test, not by the analysis.
 import { randomBytes } from "node:crypto";
 import { beforeAll, describe, expect, it } from "vitest";
 import { db } from "@/models";
 import { noticeInvite, noticeOwnerAssigned, noticeReviewsDue, noticeTopTenChanges } from "@/lib/mail/notices";
-import { deliverOutbox } from "@/lib/mail/outbox";
+import { deliverDueMail } from "@/lib/jobs/mail";
 import { createUser, type TestUser } from "../support/api";
 import { mailSinkForFile, TEST_FROM } from "../support/mail-sink";
 
@@ -15,7 +15,7 @@ let architects: TestUser[];
 let lead: TestUser;
 
 async function deliverAll() {
-  await deliverOutbox({ transport: sink.transport(), from: TEST_FROM });
+  await deliverDueMail({ transport: sink.transport(), from: TEST_FROM });
   return sink.emls();
 }
 

@@ -4,7 +4,7 @@ import { gzipSync } from "node:zlib";
 import { beforeAll, describe, expect, it } from "vitest";
 import { POST as receive } from "@/app/api/v1/environments/[env]/otlp/v1/traces/route";
 import { decodeBadRequest, decodeRpcStatus, ExportTraceServiceResponse } from "@/importers/otlp/proto";
-import { drainAnalysisQueue } from "@/lib/data/analysis-jobs";
+import { drainAnalysisQueue } from "@/lib/jobs/analysis";
 import { getEnvironmentOrThrow } from "@/lib/data/environments";
 import { materialiseObservedGraph } from "@/lib/data/observed-graph";
 import { observedTraffic } from "@/lib/data/trace-traffic";

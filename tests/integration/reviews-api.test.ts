@@ -7,7 +7,7 @@ import { DELETE as clearReviewRoute, PUT as putReviewRoute } from "@/app/api/v1/
 import { GET as getWeightsRoute, PUT as putWeightsRoute } from "@/app/api/v1/environments/[env]/weights/route";
 import { db } from "@/models";
 import { ROLES, type Role } from "@/lib/auth/roles";
-import { drainAnalysisQueue } from "@/lib/data/analysis-jobs";
+import { drainAnalysisQueue } from "@/lib/jobs/analysis";
 import { pushInventory } from "@/lib/data/push";
 import { reviewsByKey } from "@/lib/data/reviews";
 import { call, createApiToken, createUser, type TestUser } from "../support/api";

@@ -6,7 +6,7 @@ import { GET as rankingsExport } from "@/app/api/v1/environments/[env]/rankings/
 import { GET as rankHistory } from "@/app/api/v1/environments/[env]/rankings/history/route";
 import { GET as rankings } from "@/app/api/v1/environments/[env]/rankings/route";
 import { ROLES, type Role } from "@/lib/auth/roles";
-import { drainAnalysisQueue } from "@/lib/data/analysis-jobs";
+import { drainAnalysisQueue } from "@/lib/jobs/analysis";
 import { pushInventory } from "@/lib/data/push";
 import { call, createUser, type TestUser } from "../support/api";
 

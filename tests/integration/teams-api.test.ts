@@ -10,7 +10,7 @@ import { GET as unownedRoute } from "@/app/api/v1/teams/unowned/route";
 import { PATCH as annotateRoute } from "@/app/api/v1/environments/[env]/components/[key]/route";
 import { db } from "@/models";
 import { ROLES, type Role } from "@/lib/auth/roles";
-import { drainAnalysisQueue } from "@/lib/data/analysis-jobs";
+import { drainAnalysisQueue } from "@/lib/jobs/analysis";
 import { pushInventory } from "@/lib/data/push";
 import { addMembership, upsertTeams } from "@/lib/data/teams";
 import { call, createApiToken, createUser, type TestUser } from "../support/api";

@@ -5,7 +5,7 @@ import { createServer } from "node:net";
 import path from "node:path";
 import { closeDb, db } from "@/models";
 import { migrateToLatest } from "@/models/migrate";
-import { drainAnalysisQueue } from "@/lib/data/analysis-jobs";
+import { drainAnalysisQueue } from "@/lib/jobs/analysis";
 import { seedDemo } from "@/lib/data/seed";
 import { dropDatabase, urlFor, withAdmin } from "./test-db";
 import { startOidcStandIn } from "../../scripts/standins/oidc";
@@ -77,7 +77,7 @@ export default async function setup() {
   server.stdout?.on("data", log("next"));
   server.stderr?.on("data", (chunk: Buffer) => process.stderr.write(`[next] ${chunk}`));
   children.push(server);
-  const worker = spawn(process.execPath, ["node_modules/tsx/dist/cli.mjs", "scripts/analysis-worker.ts"], { cwd: root, env });
+  const worker = spawn(process.execPath, ["node_modules/tsx/dist/cli.mjs", "--conditions=react-server", "scripts/analysis-worker.ts"], { cwd: root, env });
   worker.stdout?.on("data", log("worker"));
   worker.stderr?.on("data", (chunk: Buffer) => process.stderr.write(`[worker] ${chunk}`));
   children.push(worker);

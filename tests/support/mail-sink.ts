@@ -1,11 +1,12 @@
 // A real SMTP sink for one integration test file: started before its tests, emptied (with the
-// outbox table) before each, closed after; console warnings and errors muted per test.
+// outbox table and the queue `mail`) before each, closed after; console warnings and errors muted per test.
 import { mkdtemp, readdir, readFile, rm } from "node:fs/promises";
 import { tmpdir } from "node:os";
 import path from "node:path";
 import { afterAll, afterEach, beforeAll, beforeEach, vi } from "vitest";
 import { db } from "@/models";
-import { parseEml } from "@/lib/mail/eml";
+import { jobQueue, QUEUES } from "@/lib/data/job-queue";
+import { parseMessage } from "@/lib/mail/sink-store";
 import { startMailSink, type MailSink } from "@/lib/mail/sink";
 import { createMailTransport } from "@/lib/mail/transport";
 
@@ -24,6 +25,7 @@ export function mailSinkForFile({ maxBytes }: { maxBytes?: number } = {}) {
   });
   beforeEach(async () => {
     await db().models.OutboxMessage.destroy({ where: {} });
+    await jobQueue().purgeQueue(QUEUES.mail);
     for (const n of await readdir(dir)) await rm(path.join(dir, n));
     vi.spyOn(console, "warn").mockImplementation(() => undefined);
     vi.spyOn(console, "error").mockImplementation(() => undefined);
@@ -36,7 +38,7 @@ export function mailSinkForFile({ maxBytes }: { maxBytes?: number } = {}) {
     /** every message the sink kept, oldest first */
     async emls() {
       const names = (await readdir(dir)).filter((n) => n.endsWith(".eml")).sort();
-      return Promise.all(names.map(async (n) => parseEml(await readFile(path.join(dir, n)))));
+      return Promise.all(names.map(async (n) => parseMessage(await readFile(path.join(dir, n)))));
     },
   };
 }

@@ -4,8 +4,9 @@ import type { MailContext, RenderedMail } from "./layout";
 import { newTopTen } from "./new-top-ten";
 import { ownerAssigned } from "./owner-assigned";
 import { reviewDue } from "./review-due";
+import { riskDigest } from "./risk-digest";
 
-export const TEMPLATES = { ownerAssigned, newTopTen, reviewDue, invite } as const;
+export const TEMPLATES = { ownerAssigned, newTopTen, reviewDue, invite, riskDigest } as const;
 
 export type TemplateName = keyof typeof TEMPLATES;
 export type TemplateData<T extends TemplateName> = Parameters<(typeof TEMPLATES)[T]>[0];
@@ -25,3 +26,4 @@ export type { OwnerAssignedData } from "./owner-assigned";
 export type { NewTopTenData, TopTenEntry } from "./new-top-ten";
 export type { ReviewDueData } from "./review-due";
 export type { InviteData } from "./invite";
+export type { RiskDigestData, DigestEnvironment, DigestMover, DigestOverdueReview, DigestSinglePoint } from "./risk-digest";

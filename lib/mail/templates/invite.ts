@@ -1,5 +1,5 @@
 // "Set a password to join": to someone an admin invited, with a one-time link.
-import { button, escapeHtml, htmlDocument, note, paragraph, subjectLine, textDocument, type MailContext, type RenderedMail } from "./layout";
+import { button, htmlDocument, note, paragraph, subjectLine, textDocument, type MailContext, type RenderedMail } from "./layout";
 
 export interface InviteData {
   /** absolute http(s) URL of the one-time link (see lib/mail/notices.ts, which resolves relative links) */
@@ -20,7 +20,7 @@ export function invite(data: InviteData, _ctx: MailContext): RenderedMail {
     text: textDocument({ heading, blocks: [intro, `Set your password here:\n${data.link}`, expiry], footer }),
     html: htmlDocument({
       heading,
-      body: [paragraph(escapeHtml(intro)), button(data.link, "Set your password"), note(`${escapeHtml(expiry)} Or paste this link: ${escapeHtml(data.link)}`)].join("\n"),
+      body: [paragraph(intro), button(data.link, "Set your password"), note(`${expiry} Or paste this link: ${data.link}`)],
       footer,
     }),
   };

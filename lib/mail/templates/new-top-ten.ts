@@ -1,6 +1,7 @@
 // "These components entered the top ten by pinch score": to the owning team and to architects,
 // after an analysis of a new snapshot finishes.
-import { appLink, button, escapeHtml, formatScore, htmlDocument, mono, note, paragraph, subjectLine, table, textDocument, type MailContext, type RenderedMail } from "./layout";
+import { html } from "./html";
+import { appLink, button, formatScore, htmlDocument, link, mono, note, paragraph, small, subjectLine, table, textDocument, type MailContext, type RenderedMail } from "./layout";
 
 export interface TopTenEntry {
   key: string;
@@ -26,7 +27,7 @@ const CAUTION = "Rankings are only as good as the inventory they are computed fr
 
 export function newTopTen(data: NewTopTenData, ctx: MailContext): RenderedMail {
   const { environment: env, entries } = data;
-  const link = appLink(ctx, ["environments", env.slug, "pinch-points"]);
+  const pinchPoints = appLink(ctx, ["environments", env.slug, "pinch-points"]);
   const first = entries[0];
   const subject =
     entries.length === 1 && first
@@ -47,22 +48,22 @@ export function newTopTen(data: NewTopTenData, ctx: MailContext): RenderedMail {
   });
   const rows = entries.map((e) => [
     mono(`#${e.position}`),
-    `<a href="${escapeHtml(appLink(ctx, ["environments", env.slug, "components", e.key]))}" style="color:inherit;">${mono(e.key)}</a>${e.name && e.name !== e.key ? `<br><span style="font-size:12px;color:#4f5d68;">${escapeHtml(e.name)}</span>` : ""}`,
+    html`${link(appLink(ctx, ["environments", env.slug, "components", e.key]), mono(e.key))}${e.name && e.name !== e.key && html`<br>${small(e.name)}`}`,
     mono(formatScore(e.pinchScore)),
-    `${mono(e.blastDown)} down, ${mono(e.blastDegraded)} degraded`,
-    e.team ? escapeHtml(e.team) : "<em>unowned</em>",
+    html`${mono(e.blastDown)} down, ${mono(e.blastDegraded)} degraded`,
+    e.team ?? html`<em>unowned</em>`,
   ]);
   return {
     subject: subjectLine(subject),
-    text: textDocument({ heading, blocks: [intro, lines.join("\n"), `Pinch points: ${link}`, CAUTION], footer }),
+    text: textDocument({ heading, blocks: [intro, lines.join("\n"), `Pinch points: ${pinchPoints}`, CAUTION], footer }),
     html: htmlDocument({
       heading,
       body: [
-        paragraph(escapeHtml(intro)),
+        paragraph(intro),
         table(["Place", "Component", "Pinch score", "Blast radius", "Owner"], rows),
-        button(link, "Open the pinch points"),
-        note(escapeHtml(CAUTION)),
-      ].join("\n"),
+        button(pinchPoints, "Open the pinch points"),
+        note(CAUTION),
+      ],
       footer,
     }),
   };

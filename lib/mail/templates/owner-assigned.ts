@@ -1,5 +1,6 @@
 // "Your team now owns this component": to the team's address when an owner is assigned.
-import { appLink, button, escapeHtml, htmlDocument, mono, note, paragraph, subjectLine, textDocument, type MailContext, type RenderedMail } from "./layout";
+import { html } from "./html";
+import { appLink, button, htmlDocument, mono, note, paragraph, subjectLine, textDocument, type MailContext, type RenderedMail } from "./layout";
 
 export interface OwnerAssignedData {
   environment: { slug: string; name: string };
@@ -29,11 +30,11 @@ export function ownerAssigned(data: OwnerAssignedData, ctx: MailContext): Render
     html: htmlDocument({
       heading,
       body: [
-        paragraph(`${escapeHtml(data.actorLabel)} assigned ${escapeHtml(component.name || component.key)} ${mono(component.key)} in environment <strong>${escapeHtml(env.name)}</strong> to team <strong>${escapeHtml(team.name)}</strong>.`),
+        paragraph(html`${data.actorLabel} assigned ${component.name || component.key} ${mono(component.key)} in environment <strong>${env.name}</strong> to team <strong>${team.name}</strong>.`),
         paragraph("Pages about this component, its blast radius and its drills now name your team. Check that its runbook and on-call details are yours."),
         button(link, "Open the component"),
-        note(`Or paste this link: ${escapeHtml(link)}`),
-      ].join("\n"),
+        note(`Or paste this link: ${link}`),
+      ],
       footer,
     }),
   };

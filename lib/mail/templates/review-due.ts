@@ -1,5 +1,6 @@
 // "Your risk review has come up": to the reviewer when a review-by date is reached or passed.
-import { appLink, button, escapeHtml, htmlDocument, mono, note, paragraph, subjectLine, textDocument, type MailContext, type RenderedMail } from "./layout";
+import { html, lines } from "./html";
+import { appLink, button, htmlDocument, mono, note, paragraph, subjectLine, textDocument, type MailContext, type RenderedMail } from "./layout";
 
 export interface ReviewDueData {
   environment: { slug: string; name: string };
@@ -35,13 +36,13 @@ export function reviewDue(data: ReviewDueData, ctx: MailContext): RenderedMail {
     html: htmlDocument({
       heading,
       body: [
-        paragraph(`The risk review of ${escapeHtml(component.name || component.key)} ${mono(component.key)} in <strong>${escapeHtml(env.name)}</strong> ${escapeHtml(when)}.`),
-        paragraph(`Current decision: <strong>${escapeHtml(data.status)}</strong>.`),
-        ...(rationale ? [paragraph(`Rationale on record:<br>${escapeHtml(rationale).replace(/\r?\n/g, "<br>")}`)] : []),
+        paragraph(html`The risk review of ${component.name || component.key} ${mono(component.key)} in <strong>${env.name}</strong> ${when}.`),
+        paragraph(html`Current decision: <strong>${data.status}</strong>.`),
+        rationale && paragraph(html`Rationale on record:<br>${lines(rationale)}`),
         paragraph("Look at the component's current rank and blast radius, then confirm or change the decision and set the next review date."),
         button(link, "Open the review"),
-        note(`Or paste this link: ${escapeHtml(link)}`),
-      ].join("\n"),
+        note(`Or paste this link: ${link}`),
+      ],
       footer,
     }),
   };

@@ -4,7 +4,7 @@ import { mkdtemp, readdir, readFile, rm } from "node:fs/promises";
 import { tmpdir } from "node:os";
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { parseEml } from "@/lib/mail/eml";
+import { parseMessage } from "@/lib/mail/sink-store";
 import { startMailSink, type MailSink } from "@/lib/mail/sink";
 import { createMailTransport } from "@/lib/mail/transport";
 
@@ -28,7 +28,7 @@ describe("startMailSink", () => {
     const files = (await readdir(dir)).filter((f) => f.endsWith(".eml"));
     expect(files).toHaveLength(1);
     expect(files[0]).toMatch(/^\d{4}-\d{2}-\d{2}T\d{2}-\d{2}-\d{2}-\d{3}Z-[0-9a-f]{10}\.eml$/);
-    const mail = parseEml(await readFile(path.join(dir, files[0] ?? "")));
+    const mail = await parseMessage(await readFile(path.join(dir, files[0] ?? "")));
     expect(mail.subject).toBe("hello sink");
     expect(mail.to).toBe("a@example.com, b@example.com");
   });

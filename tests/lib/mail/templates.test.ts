@@ -2,7 +2,7 @@
 // links point into the app at the URLs of DESIGN §6.
 import { describe, expect, it } from "vitest";
 import { renderMail } from "@/lib/mail/templates";
-import { escapeHtml } from "@/lib/mail/templates/layout";
+import { html, lines } from "@/lib/mail/templates/html";
 
 const ctx = { appUrl: "https://pinchpoint.harbor-pantry.example/" };
 const HOSTILE = `<script>alert("x")</script> & 'quotes'`;
@@ -15,10 +15,25 @@ function assertNoRawMarkup(html: string) {
   expect(html).toContain("&lt;script&gt;alert(&quot;x&quot;)&lt;/script&gt; &amp; &#39;quotes&#39;");
 }
 
-describe("escapeHtml", () => {
-  it("escapes the five characters of HTML text and attributes (OWASP XSS prevention cheat sheet, rules 1–2)", () => {
-    expect(escapeHtml(`<a href="x" title='y'>&</a>`)).toBe("&lt;a href=&quot;x&quot; title=&#39;y&#39;&gt;&amp;&lt;/a&gt;");
-    expect(escapeHtml(42)).toBe("42");
+describe("html`…`", () => {
+  it("escapes the five characters of HTML text and attributes in every value (OWASP XSS prevention cheat sheet, rules 1–2)", () => {
+    const value = `<a href="x" title='y'>&</a>`;
+    expect(html`<p title="${value}">${value}</p>`.toString()).toBe(
+      '<p title="&lt;a href=&quot;x&quot; title=&#39;y&#39;&gt;&amp;&lt;/a&gt;">&lt;a href=&quot;x&quot; title=&#39;y&#39;&gt;&amp;&lt;/a&gt;</p>',
+    );
+    expect(html`${42}`.toString()).toBe("42");
+  });
+  it("keeps markup made by html`…` as it is (no double escaping), joins arrays and drops null, undefined and false", () => {
+    const cell = html`<td>${"a & b"}</td>`;
+    const shown = (show: boolean) => show && cell;
+    expect(html`<tr>${[cell, shown(true)]}</tr>${null}${undefined}${shown(false)}`.toString()).toBe("<tr><td>a &amp; b</td><td>a &amp; b</td></tr>");
+  });
+  it("gives no way to pass a string that claims to be escaped: it is escaped again", () => {
+    const alreadyEscaped = "&lt;b&gt;";
+    expect(html`${alreadyEscaped}`.toString()).toBe("&amp;lt;b&amp;gt;");
+  });
+  it("turns line breaks of text into <br> after escaping", () => {
+    expect(lines("one <i>\ntwo").toString()).toBe("one &lt;i&gt;<br>two");
   });
 });
 
@@ -94,6 +109,39 @@ describe("invite", () => {
   });
   it("refuses a link that is not http(s), so a javascript: URL never reaches an href", () => {
     expect(() => renderMail("invite", { link: "javascript:alert(1)" }, ctx)).toThrow(/absolute http/);
+  });
+});
+
+describe("riskDigest", () => {
+  const data = {
+    week: "2030-W24",
+    environments: [
+      {
+        environment: env,
+        snapshotNumber: 12,
+        baselineNumber: 9,
+        movers: [{ key: "session-store", name: `Sessions ${HOSTILE}`, before: 30, after: 45.26, rankBefore: 3, rankAfter: 1 }],
+        overdueReviews: [{ key: "orders-db", name: "orders-db", status: "accepted", reviewBy: "2030-06-01", reviewer: null }],
+        newSinglePoints: [{ key: "bus", name: "Bus", blastDown: 7, team: null }],
+      },
+    ],
+  };
+  const mail = renderMail("riskDigest", data, ctx);
+  it("escapes every piece of data in HTML", () => assertNoRawMarkup(mail.html));
+  it("counts what it lists in a one-line subject", () => {
+    expect(mail.subject).toBe("[Pinchpoint] Weekly risk digest, 2030-W24: 1 mover, 1 overdue review, 1 new single point of failure");
+  });
+  it("lists movers with the change and ranks, reviews with their date, single points with what they take down, and links each component", () => {
+    expect(mail.text).toContain(`session-store (Sessions ${HOSTILE}): 30.0 → 45.3 (+15.3), rank #3 → #1`);
+    expect(mail.text).toContain("orders-db: accepted, review by 2030-06-01, no reviewer");
+    expect(mail.text).toContain("bus (Bus): takes 7 down, unowned");
+    expect(mail.text).toContain(`Prod ${HOSTILE} (production): snapshot 12 against snapshot 9`);
+    expect(mail.html).toContain('href="https://pinchpoint.harbor-pantry.example/environments/production/components/orders-db"');
+    expect(mail.html).toContain('href="https://pinchpoint.harbor-pantry.example/environments/production/pinch-points"');
+  });
+  it("carries the caution that rankings are only as good as the inventory (DESIGN §9)", () => {
+    expect(mail.text).toContain("only as good as the inventory");
+    expect(mail.html).toContain("only as good as the inventory");
   });
 });
 

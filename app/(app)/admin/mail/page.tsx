@@ -6,7 +6,7 @@ import { Card, Stat } from "@/components/ui/Card";
 import { requirePagePermission } from "@/lib/auth/page";
 import { demoMode } from "@/lib/config";
 import { mailDir, smtpUrl } from "@/lib/mail/config";
-import { outboxOverview } from "@/lib/mail/outbox-status";
+import { outboxOverview } from "@/lib/data/mail-outbox";
 import { isSinkMessageId, listSinkMessages, readSinkMessage } from "@/lib/mail/sink-store";
 import { MessageView } from "./MessageView";
 
@@ -46,7 +46,7 @@ export default async function AdminMailPage({ searchParams }: { searchParams: Pr
                   <span className="text-ink">{p.subject}</span>
                   <span className={`font-mono text-xs ${p.status === "failed" ? "text-down" : "text-degraded"}`}>
                     {p.status} · {p.attempts} attempt{p.attempts === 1 ? "" : "s"}
-                    {p.status === "queued" ? ` · next ${when(p.nextAttemptAt)}` : ""}
+                    {p.status === "queued" && p.nextAttemptAt ? ` · next ${when(p.nextAttemptAt)}` : ""}
                   </span>
                 </div>
                 <div className="font-mono text-xs text-muted">{p.to.join(", ")}</div>

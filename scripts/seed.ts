@@ -13,8 +13,8 @@ async function main() {
     return;
   }
   await migrateToLatest(db().sequelize);
-  await seedDemo({ examplesDir: path.resolve(__dirname, "../examples/harbor-pantry") });
-  const ran = await drainAnalysisQueue();
+  let ran = 0;
+  await seedDemo({ examplesDir: path.resolve(__dirname, "../examples/harbor-pantry"), afterPush: async () => (ran += await drainAnalysisQueue()) });
   if (ran) console.log(`[seed] analysed ${ran} snapshot(s)`);
 }
 

@@ -37,7 +37,19 @@ const DEMO_NAMES: Record<Role, string> = {
   viewer: "Iris Pollard (viewer)",
 };
 
-export async function seedDemo({ examplesDir, log = console.log }: { examplesDir: string; log?: (line: string) => void }): Promise<{ pushes: PushResult[] }> {
+/**
+ * `afterPush` runs after each file's push: the seed analyses every snapshot there, so the demo's
+ * history has a rank trend (a queue left to itself analyses only the newest of a burst of pushes).
+ */
+export async function seedDemo({
+  examplesDir,
+  log = console.log,
+  afterPush,
+}: {
+  examplesDir: string;
+  log?: (line: string) => void;
+  afterPush?: () => Promise<unknown>;
+}): Promise<{ pushes: PushResult[] }> {
   const { User } = db().models;
   const teamsDoc = teamsFileSchema.parse(parseYaml(await readFile(path.join(examplesDir, "teams.yaml"), "utf8")));
   const teams = await upsertTeams({
@@ -76,6 +88,7 @@ export async function seedDemo({ examplesDir, log = console.log }: { examplesDir
     });
     pushes.push(result);
     log(`[seed] ${file}: ${result.changed ? `snapshot #${result.snapshot?.number}` : "unchanged"}`);
+    await afterPush?.();
   }
   return { pushes };
 }

@@ -91,11 +91,13 @@ export async function runJob(run: ClaimedRun, worker = workerId(), options: Anal
     if (error instanceof AnalysisTimeout) await stopAnalysisThread();
     await pending.catch(() => undefined);
     const message = error instanceof Error ? error.message : String(error);
-    console.error(`[analysis] snapshot ${input.number} of ${input.slug} failed:`, error);
-    return await failRun({ run, worker, message }).catch((e: unknown) => {
+    const outcome = await failRun({ run, worker, message }).catch((e: unknown) => {
       console.error("[analysis] could not record the failure:", e instanceof Error ? e.message : e);
       return "failed" as const;
     });
+    // A run handed back (worker stopping) or taken over is not this worker's failure to report.
+    if (outcome !== "lost") console.error(`[analysis] snapshot ${input.number} of ${input.slug} failed (${outcome === "retrying" ? "the queue tries again" : "for good"}):`, error);
+    return outcome;
   } finally {
     clearTimeout(timer);
     clearInterval(beat);

@@ -18,11 +18,30 @@ const TRACE_TICK_MS = () => Number(process.env.PINCHPOINT_TRACE_TICK_MS ?? 2_000
 const MAIL_TICK_MS = () => Number(process.env.PINCHPOINT_MAIL_TICK_MS ?? 2_000);
 
 const message = (error: unknown) => (error instanceof Error ? error.message : String(error));
-const sleep = (ms: number, signal: AbortSignal) =>
-  new Promise<void>((resolve) => {
-    const timer = setTimeout(resolve, ms);
-    signal.addEventListener("abort", () => (clearTimeout(timer), resolve()), { once: true });
+/** Resolves after `ms`, or at once when `signal` aborts; leaves no listener behind either way. */
+function sleep(ms: number, signal: AbortSignal): Promise<void> {
+  return new Promise((resolve) => {
+    if (signal.aborted) return resolve();
+    const done = () => {
+      clearTimeout(timer);
+      signal.removeEventListener("abort", done);
+      resolve();
+    };
+    const timer = setTimeout(done, ms);
+    signal.addEventListener("abort", done);
   });
+}
+
+/** Resolves with "stopping" when `signal` aborts; `cancel` removes its listener. */
+function whenAborted(signal: AbortSignal): { promise: Promise<"stopping">; cancel: () => void } {
+  let listener = () => undefined as void;
+  const promise = new Promise<"stopping">((resolve) => {
+    listener = () => resolve("stopping");
+    if (signal.aborted) resolve("stopping");
+    else signal.addEventListener("abort", listener, { once: true });
+  });
+  return { promise, cancel: () => signal.removeEventListener("abort", listener) };
+}
 
 /** A loop that runs `turn` every `everyMs` until `signal` aborts; a turn never overlaps the next. */
 async function every(everyMs: () => number, signal: AbortSignal, turn: () => Promise<void>): Promise<void> {
@@ -72,14 +91,16 @@ export async function runWorker({ signal }: { signal: AbortSignal }): Promise<vo
       }
       running = run;
       const started = Date.now();
+      const stopping = whenAborted(signal);
       const outcome = await Promise.race([
         runJob(run, id).catch((error: unknown) => {
           // Never let one job stop the worker: the run is taken back when its heartbeat goes stale.
           console.error("[worker] job failed unexpectedly:", error);
           return "failed" as const;
         }),
-        new Promise<"stopping">((resolve) => signal.addEventListener("abort", () => resolve("stopping"), { once: true })),
+        stopping.promise,
       ]);
+      stopping.cancel();
       if (outcome === "stopping") {
         const released = await releaseRun({ run, worker: id }).catch(() => false);
         console.log(`[worker] stopping: snapshot ${run.snapshot_id} ${released ? "handed back to the queue" : "was no longer ours"}`);

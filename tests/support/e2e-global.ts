@@ -43,8 +43,7 @@ export default async function setup() {
   const databaseUrl = urlFor(DB);
   process.env.DATABASE_URL = databaseUrl;
   await migrateToLatest(db().sequelize);
-  await seedDemo({ examplesDir: path.join(root, "examples/harbor-pantry"), log: () => undefined });
-  await drainAnalysisQueue();
+  await seedDemo({ examplesDir: path.join(root, "examples/harbor-pantry"), log: () => undefined, afterPush: () => drainAnalysisQueue() });
   await closeDb();
 
   const baseUrl = `http://127.0.0.1:${PORT}`;

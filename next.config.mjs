@@ -3,8 +3,9 @@ const nextConfig = {
   // A separate build folder lets a second checkout-local build (e.g. a test run) leave the served one alone.
   distDir: process.env.PINCHPOINT_DIST_DIR || ".next",
   // Sequelize loads its dialect module dynamically; bundling it breaks every query at run time.
-  // Piscina starts its worker threads from its own files on disk.
-  serverExternalPackages: ["sequelize", "pg", "pg-hstore", "piscina"],
+  // Piscina starts its worker threads from its own files on disk. pg-boss and mailparser read their
+  // own files (version, tables) at run time.
+  serverExternalPackages: ["sequelize", "pg", "pg-hstore", "piscina", "pg-boss", "mailparser"],
   poweredByHeader: false,
   reactStrictMode: true,
   // `npm test` runs `tsc --noEmit` over the whole project as its own step; checking again inside

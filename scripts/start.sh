@@ -38,7 +38,11 @@ if [ "${1:-}" = "--dev" ]; then
   node_modules/.bin/tsx scripts/supervise-worker.ts & pids+=($!)
   exec_cmd=(node_modules/.bin/tsx scripts/serve.ts --dev -H "$host" -p "$port")
 else
-  if needs_build; then log "building (first build takes about two minutes)"; npx next build >&2; fi
+  if needs_build; then
+    # A production install (npm ci --omit=dev) runs a build made elsewhere; it has no tools to make one.
+    if [ ! -d node_modules/tailwindcss ]; then log "the app needs a build, and this install has no build tools (npm ci --omit=dev): build with npm ci && npm run build, then bring ${PINCHPOINT_DIST_DIR:-.next} along"; exit 1; fi
+    log "building (first build takes about two minutes)"; npx next build >&2
+  fi
   node_modules/.bin/tsx scripts/supervise-worker.ts & pids+=($!)
   exec_cmd=(node_modules/.bin/tsx scripts/serve.ts -H "$host" -p "$port")
 fi

@@ -22,7 +22,7 @@ const dist = process.env.PINCHPOINT_DIST_DIR || ".next";
 const children: ChildProcess[] = [];
 let copy = "";
 let base = "";
-let env: NodeJS.ProcessEnv = {};
+let env: NodeJS.ProcessEnv = { NODE_ENV: "production" };
 let client: pg.Client;
 
 async function freePort(): Promise<number> {

@@ -2,7 +2,7 @@
 // drill, and a zone no component declares. Expected sets derived by hand from the rules.
 import { beforeAll, describe, expect, it } from "vitest";
 import { POST as drills } from "@/app/api/v1/environments/[env]/drills/route";
-import { drainAnalysisQueue } from "@/lib/data/analysis-jobs";
+import { drainAnalysisQueue } from "@/lib/jobs/analysis";
 import { pushInventory } from "@/lib/data/push";
 import { call, createUser, type TestUser } from "../support/api";
 

@@ -19,13 +19,11 @@ import type { AnalysisResult } from "@/lib/analysis";
 import type { PinchWeights } from "@/lib/analysis/types";
 import type { SnapshotContent } from "@/lib/inventory/snapshot";
 import { forgetServedState } from "./analysis-results";
-import { inTransaction, jobQueue, QUEUES, sendJob, ANALYSIS_RETRY_LIMIT } from "./job-queue";
+import { inTransaction, jobQueue, QUEUES, sendJob } from "./job-queue";
 
 /** A running analysis with no heartbeat for this long is taken to be orphaned (PINCHPOINT_ANALYSIS_STALE_S overrides it). */
 export const STALE_AFTER_S = 60;
 export const staleAfterS = (): number => Number(process.env.PINCHPOINT_ANALYSIS_STALE_S ?? STALE_AFTER_S);
-/** Attempts in all before a run fails for good (the queue's retry limit plus the first). */
-export const MAX_ATTEMPTS = ANALYSIS_RETRY_LIMIT + 1;
 
 /** The data of a job in the queue `analysis`: analyse this environment's newest snapshot. */
 export interface AnalysisJobData {
@@ -91,7 +89,7 @@ export interface ClaimedRun {
 }
 
 /** A fetched job of the queue `analysis`. */
-export interface AnalysisQueueJob {
+interface AnalysisQueueJob {
   id: string;
   data: AnalysisJobData;
 }

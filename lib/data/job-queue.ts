@@ -14,12 +14,13 @@
 // - `mail`: one job per outbox row, retried with exponential backoff.
 // - `review-reminders`, `risk-digest`: filled by pg-boss's scheduler (cron, once per slot across
 //   all workers).
+// The migration creates the queues with these policies (models/migrations/0014-job-queue.ts).
 import "server-only";
 import PgBoss from "pg-boss";
 import { QueryTypes, type Transaction } from "sequelize";
 import { db } from "@/models";
 
-export const QUEUE_SCHEMA = "pgboss";
+const QUEUE_SCHEMA = "pgboss";
 
 export const QUEUES = {
   analysis: "analysis",
@@ -27,15 +28,7 @@ export const QUEUES = {
   reviewReminders: "review-reminders",
   riskDigest: "risk-digest",
 } as const;
-export type QueueName = (typeof QUEUES)[keyof typeof QUEUES];
-
-/** Policies the migration creates the queues with (pg-boss keeps them in pgboss.queue). */
-export const QUEUE_POLICIES: Record<QueueName, "standard" | "short"> = {
-  analysis: "short",
-  mail: "standard",
-  "review-reminders": "standard",
-  "risk-digest": "standard",
-};
+type QueueName = (typeof QUEUES)[keyof typeof QUEUES];
 
 /** Seconds, from the environment (README lists each). */
 const seconds = (name: string, fallback: number): number => {
@@ -50,9 +43,9 @@ const seconds = (name: string, fallback: number): number => {
  */
 export const analysisTimeoutS = () => Math.min(seconds("PINCHPOINT_ANALYSIS_TIMEOUT_S", 3600), 23 * 3600);
 /** Three attempts in all, as before the queue library: a deterministic failure should not loop. */
-export const ANALYSIS_RETRY_LIMIT = 2;
+const ANALYSIS_RETRY_LIMIT = 2;
 /** An SMTP conversation is bounded by the transport's timeouts (lib/mail/transport.ts); this is the backstop. */
-export const MAIL_TIMEOUT_S = 120;
+const MAIL_TIMEOUT_S = 120;
 /** Five attempts in all. */
 export const MAIL_RETRY_LIMIT = 4;
 /**
@@ -62,7 +55,7 @@ export const MAIL_RETRY_LIMIT = 4;
  */
 export const MAIL_RETRY_DELAY_S = () => seconds("PINCHPOINT_MAIL_RETRY_DELAY_S", 300);
 
-export function sendOptions(queue: QueueName): PgBoss.SendOptions {
+function sendOptions(queue: QueueName): PgBoss.SendOptions {
   switch (queue) {
     case "analysis":
       // A failed analysis is retried after 1–2 s, then 2–4 s: long enough not to spin on a bug,

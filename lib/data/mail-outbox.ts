@@ -18,7 +18,7 @@ export interface MailJobData {
   messageId: string;
 }
 
-export interface OutboxInsert {
+interface OutboxInsert {
   to: string[];
   subject: string;
   text: string;
@@ -47,7 +47,7 @@ export async function insertOutboxMessage(message: OutboxInsert, transaction?: T
   return transaction ? work(transaction) : sequelize.transaction(work);
 }
 
-export interface OutboxRow {
+interface OutboxRow {
   id: string;
   to: string[];
   subject: string;
@@ -104,7 +104,7 @@ export async function recordDeliveryAttempt({
   });
 }
 
-export interface OutboxOverview {
+interface OutboxOverview {
   counts: Record<OutboxStatus, number>;
   pending: { id: string; to: string[]; subject: string; template: string; status: OutboxStatus; attempts: number; nextAttemptAt: Date | null; lastError: string | null; createdAt: Date }[];
 }

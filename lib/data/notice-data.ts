@@ -49,7 +49,7 @@ export async function analysedBaseline(
   return row?.id ?? null;
 }
 
-export interface TopTenRow {
+interface TopTenRow {
   key: string;
   name: string;
   /** 1…10, by pinch score */
@@ -75,7 +75,7 @@ export async function topTenByPinch({ environmentId, snapshotId }: { environment
   return rows.map((r, i) => ({ key: r.key, name: r.name, position: i + 1, pinchScore: r.pinch_score, blastDown: r.blast_down, blastDegraded: r.blast_degraded, team: r.team }));
 }
 
-export interface DueReview {
+interface DueReview {
   id: string;
   key: string;
   status: string;
@@ -130,7 +130,7 @@ const MOVERS = 5;
 /** Smallest change of pinch score (0–100) worth naming; below it a "mover" is rounding. */
 const MOVER_THRESHOLD = 0.1;
 
-export interface DigestSection {
+interface DigestSection {
   environment: { slug: string; name: string };
   snapshotNumber: number;
   baselineNumber: number | null;

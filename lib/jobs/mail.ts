@@ -8,7 +8,7 @@ import type { PgBoss } from "@/lib/data/job-queue";
 import { mailFrom } from "@/lib/mail/config";
 import { mailTransport } from "@/lib/mail/transport";
 
-export interface DeliverOptions {
+interface DeliverOptions {
   /** defaults to the transport from PINCHPOINT_SMTP_URL */
   transport?: Transporter;
   /** defaults to PINCHPOINT_MAIL_FROM (or the demo sender) */
@@ -19,7 +19,7 @@ export interface DeliverOptions {
   ignoreBackoff?: boolean;
 }
 
-export interface DeliveryReport {
+interface DeliveryReport {
   sent: number;
   /** failed this time, will be tried again */
   retrying: number;

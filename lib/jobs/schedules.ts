@@ -6,9 +6,9 @@
 import { noticeReviewsDue, noticeRiskDigest } from "@/lib/mail";
 import { QUEUES, scheduleJob, workQueue } from "@/lib/data/job-queue";
 
-export const REVIEW_REMINDERS_CRON = () => process.env.PINCHPOINT_REVIEW_REMINDERS_CRON || "0 * * * *";
-export const RISK_DIGEST_CRON = () => process.env.PINCHPOINT_RISK_DIGEST_CRON || "0 7 * * 1";
-export const scheduleTimeZone = () => process.env.PINCHPOINT_SCHEDULE_TZ || "UTC";
+const REVIEW_REMINDERS_CRON = () => process.env.PINCHPOINT_REVIEW_REMINDERS_CRON || "0 * * * *";
+const RISK_DIGEST_CRON = () => process.env.PINCHPOINT_RISK_DIGEST_CRON || "0 7 * * 1";
+const scheduleTimeZone = () => process.env.PINCHPOINT_SCHEDULE_TZ || "UTC";
 
 /** Register the schedules (idempotent: every worker does it at start) and the handlers of their queues. */
 export async function startSchedules(): Promise<void> {

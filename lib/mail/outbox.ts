@@ -11,7 +11,7 @@ import { renderMail, type TemplateData, type TemplateName } from "./templates";
 
 const recipientsSchema = z.array(z.email().max(320)).min(1).max(100);
 
-export interface EnqueueInput<T extends TemplateName> {
+interface EnqueueInput<T extends TemplateName> {
   to: string[];
   template: T;
   data: TemplateData<T>;

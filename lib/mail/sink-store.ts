@@ -6,7 +6,7 @@ import path from "node:path";
 import { simpleParser, type AddressObject } from "mailparser";
 
 /** What the mail page and the tests read of a kept message. */
-export interface ParsedMail {
+interface ParsedMail {
   /** header names lower-cased, values as text */
   headers: Map<string, string>;
   from: string;

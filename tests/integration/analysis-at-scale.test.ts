@@ -7,13 +7,14 @@
 // - Equal values share a rank in the API (DESIGN §10), the all-zero betweenness case included.
 // - A measure that did not converge is null in the API with its reason, never a number.
 import { QueryTypes } from "sequelize";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import { GET as rankings } from "@/app/api/v1/environments/[env]/rankings/route";
 import { GET as bootOrder } from "@/app/api/v1/environments/[env]/boot-order/route";
 import { GET as component, PATCH as annotate } from "@/app/api/v1/environments/[env]/components/[key]/route";
 import { db } from "@/models";
 import { claimNextJob, drainAnalysisQueue, runJob } from "@/lib/jobs/analysis";
 import { queueAnalysis } from "@/lib/data/analysis-runs";
+import { jobQueue, QUEUES } from "@/lib/data/job-queue";
 import { pushInventory } from "@/lib/data/push";
 import { stopAnalysisThread } from "@/lib/analysis/thread";
 import type { AnalysisInput } from "@/lib/analysis/types";
@@ -103,6 +104,31 @@ describe("long analyses never stall the queue", () => {
     await snapshotOf("ring", generateGraph({ n: 30_000, seed: 42, ring: 1500 }));
     expect(await runContested()).toEqual({ outcome: "done", stolen: 0, attempts: 1, status: "done", thread: true });
   }, 180_000);
+
+  it("an analysis past its timeout is stopped, its thread ended, and the queue tries it again", async () => {
+    // The job's expiry is the timeout (pg-boss fails a job active past it); the runner stops 30 s before.
+    process.env.PINCHPOINT_ANALYSIS_TIMEOUT_S = "31";
+    try {
+      await snapshotOf("slow", generateGraph({ n: 30_000, seed: 7, ring: 1500 }));
+      const run = await claimNextJob("timed-worker");
+      // pg-boss reads its expiry back as PostgreSQL's numeric (a string).
+      expect(Number((await jobQueue().getJobById(QUEUES.analysis, run!.job_id, { includeArchive: false }))?.expireInSeconds)).toBe(31);
+      vi.spyOn(console, "error").mockImplementation(() => undefined);
+      expect(await runJob(run!, "timed-worker")).toBe("retrying");
+      const [row] = await db().sequelize.query<{ status: string; error: string }>("SELECT status::text AS status, error FROM analysis_runs WHERE id = :id", {
+        type: QueryTypes.SELECT,
+        replacements: { id: run!.id },
+      });
+      expect(row).toMatchObject({ status: "queued", error: expect.stringContaining("took longer than 1 s") });
+      expect(await jobQueue().getJobById(QUEUES.analysis, run!.job_id, { includeArchive: false })).toMatchObject({ state: "retry" });
+    } finally {
+      vi.restoreAllMocks();
+      delete process.env.PINCHPOINT_ANALYSIS_TIMEOUT_S;
+      // Leave nothing queued for the tests below.
+      await db().sequelize.query("UPDATE analysis_runs SET status = 'failed' WHERE status = 'queued'");
+      await jobQueue().purgeQueue(QUEUES.analysis);
+    }
+  }, 120_000);
 });
 
 describe("ranks with ties and withheld measures in the API", () => {

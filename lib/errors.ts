@@ -2,6 +2,7 @@
 import { NextResponse } from "next/server";
 import type { z } from "zod";
 import type { InventoryIssue } from "./inventory/types";
+import { formatPath } from "./issue-path";
 
 export const ERROR_STATUS = {
   bad_request: 400,
@@ -57,18 +58,9 @@ export const unauthorized = () => new AppError("unauthorized", "Sign in or send 
 /** zod issues → our located issues (path like `body.scopes[0]`). */
 export function zodIssues(error: z.ZodError, prefix = ""): InventoryIssue[] {
   return error.issues.map((issue) => ({
-    path: formatPath(prefix, issue.path),
+    path: formatPath(issue.path, prefix) || "(root)",
     message: issue.message,
   }));
-}
-
-export function formatPath(prefix: string, path: readonly PropertyKey[]): string {
-  let out = prefix;
-  for (const part of path) {
-    if (typeof part === "number") out += `[${part}]`;
-    else out += out ? `.${String(part)}` : String(part);
-  }
-  return out || "(root)";
 }
 
 /** Parse with a zod schema or throw a 422 that names every problem. */

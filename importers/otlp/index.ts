@@ -9,6 +9,7 @@ import { checkedText } from "../shared/body";
 import { checkOrigin } from "../shared/origin";
 import { loadStructured } from "../shared/structured";
 import { finishIssues, type PathSegment } from "../shared/text";
+import { parsePath } from "@/lib/issue-path";
 import { TraceFileError, traceDocumentsOfText, type TraceDocument } from "./documents";
 import { spansFromJson } from "./spans";
 
@@ -42,7 +43,7 @@ export function foldTraceDocument(fold: TraceFold, doc: TraceDocument, rejected:
 function locate(doc: TraceDocument, issues: InventoryIssue[], lines: boolean): InventoryIssue[] {
   const loaded = loadStructured(doc.text, { json: true });
   return issues.map((i) => {
-    const segments: PathSegment[] = i.path === "(root)" ? [] : [...i.path.matchAll(/([^.[\]]+)|\[(\d+)\]/g)].map((m) => (m[2] !== undefined ? Number(m[2]) : m[1]!));
+    const segments: PathSegment[] = i.path === "(root)" ? [] : (parsePath(i.path) ?? []);
     const at = loaded.ok ? loaded.source.locate(segments) : {};
     const line = at.line !== undefined ? at.line + doc.line - 1 : lines ? doc.line : undefined;
     return { path: lines ? `lines[${doc.line}].${i.path}` : i.path, ...(line !== undefined ? { line } : {}), ...(at.column !== undefined ? { column: at.column } : {}), message: i.message };

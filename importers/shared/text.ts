@@ -3,7 +3,7 @@
 import { MAX_ISSUES } from "@/lib/inventory/limits";
 import type { InventoryIssue } from "@/lib/inventory/types";
 
-export type PathSegment = string | number;
+export { formatPath, type PathSegment } from "@/lib/issue-path";
 
 export type Decoded = { ok: true; text: string } | { ok: false; issues: InventoryIssue[] };
 
@@ -65,19 +65,6 @@ export function lineIndex(text: string): (offset: number) => { line: number; col
     }
     return { line: lo + 1, column: offset - (starts[lo] ?? 0) + 1 };
   };
-}
-
-const IDENTIFIER = /^[A-Za-z_$][\w$-]*$/;
-
-/** `["components", 3, "needs", 1, "key"]` → `components[3].needs[1].key`. */
-export function formatPath(path: readonly PathSegment[]): string {
-  let out = "";
-  for (const seg of path) {
-    if (typeof seg === "number") out += `[${seg}]`;
-    else if (IDENTIFIER.test(seg)) out += out === "" ? seg : `.${seg}`;
-    else out += `[${JSON.stringify(seg)}]`;
-  }
-  return out;
 }
 
 /** Orders issues by position (unlocated last, stable) and keeps at most MAX_ISSUES. */

@@ -1,6 +1,7 @@
 // Request parsing for route handlers: zod over query strings, params and JSON bodies.
 import type { z } from "zod";
-import { AppError, formatPath, parseOrThrow } from "@/lib/errors";
+import { AppError, parseOrThrow } from "@/lib/errors";
+import { formatPath } from "@/lib/issue-path";
 import { findForbiddenText } from "@/lib/forbidden-text";
 import { readBodyWithLimit } from "./body";
 
@@ -53,6 +54,6 @@ function refuseForbiddenText(value: unknown, prefix: "body" | "query"): void {
   throw new AppError(
     "invalid_request",
     `Invalid ${prefix}: ${problems.length === 1 ? "a field holds" : "fields hold"} characters no text may contain`,
-    problems.map((p) => ({ path: formatPath(prefix, p.path), message: p.message })),
+    problems.map((p) => ({ path: formatPath(p.path, prefix) || "(root)", message: p.message })),
   );
 }

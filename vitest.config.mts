@@ -16,7 +16,7 @@ export default defineConfig({
         resolve: { alias },
         test: {
           name: "unit",
-          include: ["tests/{analysis,impact,importers,inventory,lib}/**/*.test.ts"],
+          include: ["tests/{analysis,components,impact,importers,inventory,lib}/**/*.test.ts"],
           environment: "node",
         },
       },

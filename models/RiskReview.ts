@@ -1,7 +1,8 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from "sequelize";
 
-export const REVIEW_STATUSES = ["accepted", "mitigating", "resolved"] as const;
-export type ReviewStatus = (typeof REVIEW_STATUSES)[number];
+import { REVIEW_STATUSES, type ReviewStatus } from "../lib/review-status";
+
+export { REVIEW_STATUSES, type ReviewStatus };
 
 /**
  * An architect's decision about one pinch point. Keyed by environment and component key (like

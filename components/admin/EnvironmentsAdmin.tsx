@@ -1,21 +1,29 @@
 "use client";
-
+// Environments (admin): create one, rename it, delete it with its whole graph after typing its slug.
+import { createColumnHelper } from "@tanstack/react-table";
 import Link from "next/link";
 import { useRouter } from "next/navigation";
-import { useEffect, useId, useRef, useState, useTransition, type FormEvent, type ReactNode } from "react";
+import { useEffect, useId, useRef, useState, useTransition, type ReactNode } from "react";
+import { useWatch } from "react-hook-form";
 import { mutate } from "swr";
+import { z } from "zod";
 import { Button } from "@/components/ui/Button";
 import { Card } from "@/components/ui/Card";
-import { ageOf, dateTime, plural } from "@/components/ui/format";
-import type { DeletedEnvironment } from "@/lib/data/environment-admin";
-import type { EnvironmentSummary } from "@/lib/data/environments";
-import { sendJson, type RequestProblem } from "./request";
-
-const input = "mt-1 w-full rounded-md border border-line bg-raised px-3 py-2 text-sm text-ink outline-none focus:border-brass";
-
-function fieldError(problem: RequestProblem | null, field: string): string | undefined {
-  return problem?.issues.find((i) => i.path === field || i.path.startsWith(`${field}.`))?.message;
-}
+import { DataTable } from "@/components/ui/data-table/DataTable";
+import { ApiForm, FormProblem, SubmitButton, submitWith, useApiForm } from "@/components/ui/form/api-form";
+import { InputField } from "@/components/ui/form/fields";
+import { plural } from "@/components/ui/format";
+import { When } from "@/components/ui/When";
+import {
+  createEnvironmentSchema,
+  deletedEnvironmentSchema,
+  deleteEnvironmentQuerySchema,
+  environmentSummarySchema,
+  renameEnvironmentSchema,
+  type DeletedEnvironment,
+  type EnvironmentSummary,
+} from "@/lib/api/schemas/environments";
+import { sendJson } from "@/lib/client/api";
 
 /** Other screens (token form, overview) read the environment list through swr: tell them it changed. */
 const refreshShared = () => mutate("/api/v1/environments");
@@ -35,10 +43,7 @@ function AnalysisState({ env }: { env: EnvironmentSummary }) {
 
 function RenameCell({ env, onRenamed }: { env: EnvironmentSummary; onRenamed: (message: ReactNode) => Promise<void> }) {
   const [editing, setEditing] = useState(false);
-  const [problem, setProblem] = useState<RequestProblem | null>(null);
-  const [pending, setPending] = useState(false);
-  const id = useId();
-
+  const form = useApiForm(renameEnvironmentSchema, { name: env.name });
   if (!editing) {
     return (
       <span className="inline-flex items-center gap-2">
@@ -49,83 +54,49 @@ function RenameCell({ env, onRenamed }: { env: EnvironmentSummary; onRenamed: (m
       </span>
     );
   }
-
-  async function onSubmit(event: FormEvent<HTMLFormElement>) {
-    event.preventDefault();
-    const name = String(new FormData(event.currentTarget).get("name") ?? "");
-    setPending(true);
-    setProblem(null);
-    const result = await sendJson<EnvironmentSummary>(`/api/v1/environments/${env.slug}`, "PATCH", { name });
-    setPending(false);
-    if (!result.ok) {
-      setProblem(result.problem);
-      return;
-    }
-    setEditing(false);
-    await onRenamed(`Renamed ${env.slug} to “${result.data.name}”.`);
-  }
-
-  const error = fieldError(problem, "name") ?? problem?.message;
+  const onSubmit = submitWith(
+    form,
+    (values) => sendJson(environmentSummarySchema, `/api/v1/environments/${env.slug}`, "PATCH", values),
+    async (renamed) => {
+      setEditing(false);
+      await onRenamed(`Renamed ${env.slug} to “${renamed.name}”.`);
+    },
+  );
   return (
-    <form onSubmit={onSubmit} className="flex flex-wrap items-start gap-2" aria-label={`Rename ${env.slug}`} noValidate>
-      <label htmlFor={id} className="sr-only">
-        New name for {env.slug}
-      </label>
-      <input
-        id={id}
+    <ApiForm form={form} onSubmit={onSubmit} label={`Rename ${env.slug}`} className="flex flex-wrap items-start gap-2">
+      <InputField
         name="name"
-        defaultValue={env.name}
+        label={<span className="sr-only">New name for {env.slug}</span>}
         maxLength={200}
         autoFocus
-        aria-invalid={!!error}
-        aria-describedby={error ? `${id}-error` : undefined}
         onKeyDown={(e) => e.key === "Escape" && setEditing(false)}
-        className="w-56 rounded-md border border-line bg-raised px-2 py-1 text-sm text-ink outline-none focus:border-brass"
+        controlClassName="w-56 py-1"
       />
-      <Button type="submit" variant="secondary" className="py-1" disabled={pending}>
-        {pending ? "Saving…" : "Save name"}
-      </Button>
+      <SubmitButton variant="secondary" className="py-1" working="Saving…">
+        Save name
+      </SubmitButton>
       <Button type="button" variant="ghost" className="py-1" onClick={() => setEditing(false)}>
         Cancel
       </Button>
-      {error && (
-        <span id={`${id}-error`} role="alert" className="basis-full text-xs text-down">
-          {error}
-        </span>
-      )}
-    </form>
+      <FormProblem className="basis-full" />
+    </ApiForm>
   );
 }
 
 /** A modal that asks for the slug to be typed: deleting takes the whole graph and its history with it. */
 function DeleteDialog({ env, onClose, onDeleted }: { env: EnvironmentSummary; onClose: () => void; onDeleted: (result: DeletedEnvironment) => Promise<void> }) {
   const ref = useRef<HTMLDialogElement>(null);
-  const [typed, setTyped] = useState("");
-  const [problem, setProblem] = useState<RequestProblem | null>(null);
-  const [pending, setPending] = useState(false);
   const titleId = useId();
-  const inputId = useId();
+  // The route's own query (?confirm=), held to this environment's slug before anything is sent.
+  const form = useApiForm(deleteEnvironmentQuerySchema.extend({ confirm: z.literal(env.slug, `type ${env.slug} exactly`) }), { confirm: "" });
+  const typed = useWatch({ control: form.control, name: "confirm" });
 
   useEffect(() => {
     const dialog = ref.current;
     if (dialog && !dialog.open) dialog.showModal();
   }, []);
 
-  const matches = typed === env.slug;
-
-  async function onSubmit(event: FormEvent<HTMLFormElement>) {
-    event.preventDefault();
-    if (!matches) return;
-    setPending(true);
-    setProblem(null);
-    const result = await sendJson<DeletedEnvironment>(`/api/v1/environments/${env.slug}?confirm=${encodeURIComponent(typed)}`, "DELETE");
-    setPending(false);
-    if (!result.ok) {
-      setProblem(result.problem);
-      return;
-    }
-    await onDeleted(result.data);
-  }
+  const onSubmit = submitWith(form, ({ confirm }) => sendJson(deletedEnvironmentSchema, `/api/v1/environments/${env.slug}?confirm=${encodeURIComponent(confirm)}`, "DELETE"), onDeleted);
 
   return (
     <dialog
@@ -134,7 +105,7 @@ function DeleteDialog({ env, onClose, onDeleted }: { env: EnvironmentSummary; on
       onClose={onClose}
       className="m-auto w-full max-w-lg rounded-lg border border-down/60 bg-surface p-0 text-ink shadow-2xl backdrop:bg-black/60"
     >
-      <form onSubmit={onSubmit} className="space-y-4 p-5">
+      <ApiForm form={form} onSubmit={onSubmit} label={`Delete ${env.slug}`} className="space-y-4 p-5">
         <h2 id={titleId} className="text-lg font-semibold">
           Delete <span className="font-mono">{env.slug}</span> for good?
         </h2>
@@ -172,136 +143,144 @@ function DeleteDialog({ env, onClose, onDeleted }: { env: EnvironmentSummary; on
             The audit log keeps its entries. A later push by an admin would start a new, empty <span className="font-mono">{env.slug}</span> from snapshot 1.
           </p>
         </div>
-        <div>
-          <label htmlFor={inputId} className="text-sm font-medium">
-            Type <span className="font-mono">{env.slug}</span> to confirm
-          </label>
-          <input
-            id={inputId}
-            value={typed}
-            onChange={(e) => setTyped(e.target.value)}
-            autoComplete="off"
-            spellCheck={false}
-            autoFocus
-            className={`${input} font-mono`}
-          />
-        </div>
-        {problem && (
-          <p role="alert" className="rounded-md border border-down/50 bg-down/10 px-3 py-2 text-sm">
-            {problem.message}
-          </p>
-        )}
+        <InputField
+          name="confirm"
+          label={
+            <>
+              Type <span className="font-mono">{env.slug}</span> to confirm
+            </>
+          }
+          autoComplete="off"
+          spellCheck={false}
+          autoFocus
+          controlClassName="font-mono"
+        />
+        <FormProblem />
         <div className="flex flex-wrap justify-end gap-2">
           <Button type="button" variant="ghost" onClick={() => ref.current?.close()}>
             Keep it
           </Button>
-          <Button type="submit" variant="danger" disabled={!matches || pending}>
-            {pending ? "Deleting…" : `Delete ${env.slug}`}
-          </Button>
+          <SubmitButton variant="danger" disabled={typed !== env.slug} working="Deleting…">
+            Delete {env.slug}
+          </SubmitButton>
         </div>
-      </form>
+      </ApiForm>
     </dialog>
   );
+}
+
+function CreateEnvironment({ onCreated }: { onCreated: (slug: string) => Promise<void> }) {
+  const form = useApiForm(createEnvironmentSchema, { slug: "", name: undefined });
+  const onSubmit = submitWith(
+    form,
+    (values) => sendJson(environmentSummarySchema, "/api/v1/environments", "POST", values),
+    async (created) => {
+      form.reset();
+      await onCreated(created.slug);
+    },
+  );
+  return (
+    <ApiForm form={form} onSubmit={onSubmit} label="New environment" className="grid gap-4 md:grid-cols-[1fr_1fr_auto] md:items-start">
+      <InputField
+        name="slug"
+        label="Slug"
+        maxLength={63}
+        placeholder="staging"
+        autoComplete="off"
+        spellCheck={false}
+        controlClassName="font-mono"
+        help="Lower-case letters, digits and dashes. It goes into every URL and token binding and cannot change later."
+      />
+      <InputField name="name" label="Display name" maxLength={200} placeholder="Staging (optional)" blank="absent" help="Optional; defaults to the slug. Can be renamed at any time." />
+      <div className="md:pt-5">
+        <SubmitButton working="Creating…">Create environment</SubmitButton>
+      </div>
+      <FormProblem className="md:col-span-3" />
+    </ApiForm>
+  );
+}
+
+const col = createColumnHelper<EnvironmentSummary>();
+
+function columns(refresh: (message: ReactNode) => Promise<void>, remove: (env: EnvironmentSummary) => void) {
+  return [
+    col.accessor("slug", {
+      header: "Slug",
+      meta: { fixed: true, className: "whitespace-nowrap" },
+      cell: (i) => (
+        <>
+          <Link href={`/environments/${i.getValue()}`} className="font-mono text-ink underline decoration-line underline-offset-4 hover:decoration-brass">
+            {i.getValue()}
+          </Link>
+          {i.row.original.isDefault && <span className="ml-2 rounded border border-brass/60 px-1.5 py-0.5 text-xs text-brass">default</span>}
+        </>
+      ),
+    }),
+    col.accessor("name", { header: "Name", cell: (i) => <RenameCell env={i.row.original} onRenamed={refresh} /> }),
+    col.accessor("componentCount", { header: "Components", meta: { numeric: true } }),
+    col.accessor((e) => e.latestSnapshot?.number ?? 0, {
+      id: "latestSnapshot",
+      header: "Latest snapshot",
+      cell: (i) => {
+        const latest = i.row.original.latestSnapshot;
+        return latest ? (
+          <span className="whitespace-nowrap">
+            <span className="font-mono">#{latest.number}</span> <When at={latest.createdAt} />
+          </span>
+        ) : (
+          <span className="text-muted">no push yet</span>
+        );
+      },
+    }),
+    col.accessor((e) => e.analysis?.status ?? "", { id: "analysis", header: "Analysis", cell: (i) => <AnalysisState env={i.row.original} /> }),
+    col.accessor("createdAt", { header: "Created", cell: (i) => <When at={i.getValue()} /> }),
+    col.accessor("liveTokenCount", { header: "Live tokens", meta: { numeric: true, hidden: true } }),
+    col.display({
+      id: "actions",
+      header: () => <span className="sr-only">Actions</span>,
+      meta: { fixed: true, label: "Actions", className: "whitespace-nowrap text-right" },
+      cell: (i) =>
+        i.row.original.isDefault ? (
+          <span className="text-xs text-muted" title="The overview at / shows this environment (PINCHPOINT_DEFAULT_ENV)">
+            default: cannot be deleted
+          </span>
+        ) : (
+          <Button type="button" variant="danger" aria-label={`Delete ${i.row.original.slug}`} onClick={() => remove(i.row.original)}>
+            Delete…
+          </Button>
+        ),
+    }),
+  ];
 }
 
 export function EnvironmentsAdmin({ environments }: { environments: EnvironmentSummary[] }) {
   const router = useRouter();
   const [, startRefresh] = useTransition();
-  const [problem, setProblem] = useState<RequestProblem | null>(null);
-  const [pending, setPending] = useState(false);
   const [notice, setNotice] = useState<ReactNode>(null);
   const [deleting, setDeleting] = useState<EnvironmentSummary | null>(null);
-  const formId = useId();
 
   async function refresh(message: ReactNode) {
     setNotice(message);
-    setProblem(null);
     startRefresh(() => router.refresh());
     await refreshShared();
-  }
-
-  async function onCreate(event: FormEvent<HTMLFormElement>) {
-    event.preventDefault();
-    const form = event.currentTarget;
-    const data = new FormData(form);
-    const slug = String(data.get("slug") ?? "").trim();
-    const name = String(data.get("name") ?? "").trim();
-    setPending(true);
-    setProblem(null);
-    setNotice(null);
-    const result = await sendJson<EnvironmentSummary>("/api/v1/environments", "POST", { slug, ...(name ? { name } : {}) });
-    setPending(false);
-    if (!result.ok) {
-      setProblem(result.problem);
-      return;
-    }
-    form.reset();
-    const slugCreated = result.data.slug;
-    await refresh(
-      <>
-        Created <span className="font-mono">{slugCreated}</span>. It stays empty until its first push, or an{" "}
-        <Link href={`/environments/${slugCreated}/imports`} className="text-brass underline underline-offset-4">
-          upload on its imports page
-        </Link>
-        .
-      </>,
-    );
   }
 
   return (
     <div className="space-y-6">
       <Card title="New environment">
-        <form onSubmit={onCreate} onInput={() => problem && setProblem(null)} className="grid gap-4 md:grid-cols-[1fr_1fr_auto] md:items-start" noValidate>
-          <div>
-            <label htmlFor={`${formId}-slug`} className="text-sm font-medium">
-              Slug
-            </label>
-            <input
-              id={`${formId}-slug`}
-              name="slug"
-              required
-              maxLength={63}
-              placeholder="staging"
-              autoComplete="off"
-              spellCheck={false}
-              className={`${input} font-mono`}
-              aria-invalid={!!fieldError(problem, "slug")}
-              aria-describedby={`${formId}-slug-help`}
-            />
-            <span id={`${formId}-slug-help`} className="mt-1 block text-xs text-muted">
-              Lower-case letters, digits and dashes. It goes into every URL and token binding and cannot change later.
-            </span>
-            {fieldError(problem, "slug") && <span className="mt-1 block text-xs text-down">{fieldError(problem, "slug")}</span>}
-          </div>
-          <div>
-            <label htmlFor={`${formId}-name`} className="text-sm font-medium">
-              Display name
-            </label>
-            <input
-              id={`${formId}-name`}
-              name="name"
-              maxLength={200}
-              placeholder="Staging (optional)"
-              className={input}
-              aria-invalid={!!fieldError(problem, "name")}
-              aria-describedby={`${formId}-name-help`}
-            />
-            <span id={`${formId}-name-help`} className="mt-1 block text-xs text-muted">
-              Optional; defaults to the slug. Can be renamed at any time.
-            </span>
-            {fieldError(problem, "name") && <span className="mt-1 block text-xs text-down">{fieldError(problem, "name")}</span>}
-          </div>
-          <div className="md:pt-6">
-            <Button type="submit" variant="primary" disabled={pending}>
-              {pending ? "Creating…" : "Create environment"}
-            </Button>
-          </div>
-          {problem && (
-            <p role="alert" className="rounded-md border border-down/50 bg-down/10 px-3 py-2 text-sm md:col-span-3">
-              {problem.message}
-            </p>
-          )}
-        </form>
+        <CreateEnvironment
+          onCreated={(slug) =>
+            refresh(
+              <>
+                Created <span className="font-mono">{slug}</span>. It stays empty until its first push, or an{" "}
+                <Link href={`/environments/${slug}/imports`} className="text-brass underline underline-offset-4">
+                  upload on its imports page
+                </Link>
+                .
+              </>,
+            )
+          }
+        />
       </Card>
 
       <Card title={`Environments (${environments.length})`}>
@@ -310,73 +289,20 @@ export function EnvironmentsAdmin({ environments }: { environments: EnvironmentS
             {notice}
           </p>
         )}
-        {environments.length === 0 ? (
-          <p className="text-sm text-muted">No environments yet. Create one above, or push an inventory as an admin.</p>
-        ) : (
-          <div className="overflow-x-auto">
-            <table className="w-full text-left text-sm">
-              <thead className="text-xs uppercase tracking-wide text-faint">
-                <tr>
-                  <th className="py-2 pr-4 font-medium">Slug</th>
-                  <th className="py-2 pr-4 font-medium">Name</th>
-                  <th className="py-2 pr-4 text-right font-medium">Components</th>
-                  <th className="py-2 pr-4 font-medium">Latest snapshot</th>
-                  <th className="py-2 pr-4 font-medium">Analysis</th>
-                  <th className="py-2 pr-4 font-medium">Created</th>
-                  <th className="py-2 font-medium">
-                    <span className="sr-only">Actions</span>
-                  </th>
-                </tr>
-              </thead>
-              <tbody>
-                {environments.map((env) => (
-                  <tr key={env.id} data-testid={`environment-row-${env.slug}`} className="border-t border-line align-middle">
-                    <td className="py-2 pr-4 whitespace-nowrap">
-                      <Link href={`/environments/${env.slug}`} className="font-mono text-ink underline decoration-line underline-offset-4 hover:decoration-brass">
-                        {env.slug}
-                      </Link>
-                      {env.isDefault && <span className="ml-2 rounded border border-brass/60 px-1.5 py-0.5 text-xs text-brass">default</span>}
-                    </td>
-                    <td className="py-2 pr-4">
-                      <RenameCell env={env} onRenamed={refresh} />
-                    </td>
-                    <td className="py-2 pr-4 text-right font-mono tabular-nums">{env.componentCount}</td>
-                    <td className="py-2 pr-4 whitespace-nowrap">
-                      {env.latestSnapshot ? (
-                        <>
-                          <span className="font-mono">#{env.latestSnapshot.number}</span>{" "}
-                          <span className="text-muted" suppressHydrationWarning title={dateTime(env.latestSnapshot.createdAt)}>
-                            {ageOf(env.latestSnapshot.createdAt)}
-                          </span>
-                        </>
-                      ) : (
-                        <span className="text-muted">no push yet</span>
-                      )}
-                    </td>
-                    <td className="py-2 pr-4 whitespace-nowrap">
-                      <AnalysisState env={env} />
-                    </td>
-                    <td className="py-2 pr-4 whitespace-nowrap">{dateTime(env.createdAt)}</td>
-                    <td className="py-2 text-right whitespace-nowrap">
-                      {env.isDefault ? (
-                        <span className="text-xs text-muted" title="The overview at / shows this environment (PINCHPOINT_DEFAULT_ENV)">
-                          default: cannot be deleted
-                        </span>
-                      ) : (
-                        <Button type="button" variant="danger" aria-label={`Delete ${env.slug}`} onClick={() => setDeleting(env)}>
-                          Delete…
-                        </Button>
-                      )}
-                    </td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
-          </div>
-        )}
+        <DataTable
+          id="environments"
+          caption="Environments"
+          columns={columns(refresh, setDeleting)}
+          data={environments}
+          rowKey={(e) => e.id}
+          rowTestId={(e) => `environment-row-${e.slug}`}
+          paging={{ mode: "client", pageSize: 50, initialSort: [{ id: "slug", desc: false }], search: { label: "Find an environment", placeholder: "slug or name" } }}
+          noun={["environment", "environments"]}
+          empty="No environments yet. Create one above, or push an inventory as an admin."
+        />
         <p className="mt-3 text-xs text-muted">
-          An environment is one graph. Pushes fill it (<span className="font-mono">POST /api/v1/environments/&#123;slug&#125;/inventory</span>); each
-          change makes a numbered snapshot.
+          An environment is one graph. Pushes fill it (<span className="font-mono">POST /api/v1/environments/&#123;slug&#125;/inventory</span>); each change makes a numbered
+          snapshot.
         </p>
       </Card>
 

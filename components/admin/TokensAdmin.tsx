@@ -1,64 +1,131 @@
 "use client";
-
-import { useState, type FormEvent } from "react";
-import useSWR from "swr";
+// API tokens (admin): make one (shown once), see which are live and when they were last used, revoke.
+import { createColumnHelper } from "@tanstack/react-table";
+import { useState } from "react";
 import { Button } from "@/components/ui/Button";
 import { Card } from "@/components/ui/Card";
-import { fetchJson, type ApiError } from "@/lib/client/fetcher";
+import { ConfirmButton } from "@/components/ui/ConfirmButton";
+import { CopyField } from "@/components/ui/CopyField";
+import { DataTable } from "@/components/ui/data-table/DataTable";
+import { ApiForm, FormProblem, SubmitButton, submitWith, useApiForm } from "@/components/ui/form/api-form";
+import { CheckboxGroup, InputField, SelectInput } from "@/components/ui/form/fields";
+import { When } from "@/components/ui/When";
+import { environmentsResponseSchema } from "@/lib/api/schemas/environments";
+import { createdTokenSchema, createTokenSchema, tokenInfoSchema, tokensResponseSchema, type CreatedToken, type TokenInfo } from "@/lib/api/schemas/tokens";
 import { TOKEN_SCOPES, type TokenScope } from "@/lib/auth/roles";
-import type { TokenInfo } from "@/lib/data/tokens";
-import type { EnvironmentSummary } from "@/lib/data/environments";
-import { ConfirmButton } from "./ConfirmButton";
-import { CopyField } from "./CopyField";
-import { formatWhen, sendJson, type RequestProblem } from "./request";
+import { sendJson, useApi } from "@/lib/client/api";
 
 const SCOPE_HELP: Record<TokenScope, string> = {
   "inventory:write": "push inventory files (CI jobs)",
   read: "read rankings, components and drills (scripts, dashboards)",
 };
 
-const input = "mt-1 w-full rounded-md border border-line bg-raised px-3 py-2 text-sm text-ink outline-none focus:border-brass";
+function CreateToken({ onCreated }: { onCreated: (token: CreatedToken) => Promise<void> }) {
+  const environments = useApi(environmentsResponseSchema, "/api/v1/environments");
+  const form = useApiForm(createTokenSchema, { name: "", scopes: ["inventory:write"], environment: undefined, source: undefined });
+  const onSubmit = submitWith(
+    form,
+    (values) => sendJson(createdTokenSchema, "/api/v1/tokens", "POST", values),
+    async (created) => {
+      form.reset();
+      await onCreated(created);
+    },
+  );
+  return (
+    <ApiForm form={form} onSubmit={onSubmit} label="New token" className="grid gap-4 md:grid-cols-2">
+      <InputField name="name" label="Name" maxLength={100} placeholder="storefront CI" />
+      <CheckboxGroup
+        name="scopes"
+        legend="Scopes"
+        options={TOKEN_SCOPES.map((scope) => ({
+          value: scope,
+          label: (
+            <>
+              <span className="font-mono">{scope}</span> <span className="text-muted">— {SCOPE_HELP[scope]}</span>
+            </>
+          ),
+        }))}
+      />
+      <SelectInput
+        name="environment"
+        label="Only for environment"
+        blank="absent"
+        options={[{ value: "", label: "any environment" }, ...(environments.data?.items ?? []).map((e) => ({ value: e.slug, label: e.slug }))]}
+        help="A token bound to no environment may also create new ones on first push."
+      />
+      <InputField name="source" label="Only for source" blank="absent" placeholder="storefront-repo (optional)" controlClassName="font-mono" help="Binds the token to one repository's part of the inventory." />
+      <FormProblem className="md:col-span-2" />
+      <div className="md:col-span-2">
+        <SubmitButton working="Creating…">Create token</SubmitButton>
+      </div>
+    </ApiForm>
+  );
+}
 
-function fieldError(problem: RequestProblem | null, field: string): string | undefined {
-  return problem?.issues.find((i) => i.path === field || i.path.startsWith(`${field}.`) || i.path.startsWith(`${field}[`))?.message;
+const col = createColumnHelper<TokenInfo>();
+
+function columns(revoke: (t: TokenInfo) => Promise<void>) {
+  return [
+    col.accessor("name", { header: "Name", meta: { fixed: true, className: "font-medium" } }),
+    col.accessor("prefix", { header: "Starts with", cell: (i) => <span className="font-mono">{i.getValue()}…</span> }),
+    col.accessor((t) => t.scopes.join(", "), { id: "scopes", header: "Scopes", cell: (i) => <span className="font-mono text-xs">{i.getValue()}</span> }),
+    col.accessor((t) => `${t.environment ?? ""} ${t.source ?? ""}`, {
+      id: "bound",
+      header: "Bound to",
+      cell: (i) =>
+        i.row.original.environment || i.row.original.source ? (
+          <span className="font-mono text-xs">
+            {i.row.original.environment ?? "any env"} / {i.row.original.source ?? "any source"}
+          </span>
+        ) : (
+          <span className="text-xs text-muted">not bound</span>
+        ),
+    }),
+    col.accessor("createdAt", { header: "Created", cell: (i) => <When at={i.getValue()} /> }),
+    col.accessor("lastUsedAt", { header: "Last used", cell: (i) => <When at={i.getValue()} empty="never" /> }),
+    col.accessor((t) => t.revokedAt ?? "", {
+      id: "state",
+      header: "State",
+      cell: (i) =>
+        i.row.original.revokedAt ? (
+          <span>
+            revoked <When at={i.row.original.revokedAt} />
+          </span>
+        ) : (
+          <span className="text-ok">live</span>
+        ),
+    }),
+    col.accessor("createdBy", { header: "Made by", meta: { hidden: true }, cell: (i) => i.getValue() ?? "—" }),
+    col.display({
+      id: "actions",
+      header: () => <span className="sr-only">Actions</span>,
+      meta: { fixed: true, label: "Actions", className: "text-right" },
+      cell: (i) =>
+        i.row.original.revokedAt ? null : (
+          <ConfirmButton
+            label="Revoke"
+            name={`Revoke token ${i.row.original.name}`}
+            question={
+              <>
+                Revoke <span className="font-mono">{i.row.original.name}</span>? Jobs using it start failing. This cannot be undone.
+              </>
+            }
+            confirmLabel="Yes, revoke"
+            onConfirm={() => revoke(i.row.original)}
+          />
+        ),
+    }),
+  ];
 }
 
 export function TokensAdmin() {
-  const tokens = useSWR<{ items: TokenInfo[] }, ApiError>("/api/v1/tokens", fetchJson);
-  const environments = useSWR<{ items: EnvironmentSummary[] }, ApiError>("/api/v1/environments", fetchJson);
-  const [problem, setProblem] = useState<RequestProblem | null>(null);
-  const [created, setCreated] = useState<(TokenInfo & { token: string }) | null>(null);
-  const [pending, setPending] = useState(false);
+  const tokens = useApi(tokensResponseSchema, "/api/v1/tokens");
+  const [created, setCreated] = useState<CreatedToken | null>(null);
   const [notice, setNotice] = useState<string | null>(null);
 
-  async function onCreate(event: FormEvent<HTMLFormElement>) {
-    event.preventDefault();
-    const form = event.currentTarget;
-    const data = new FormData(form);
-    const environment = String(data.get("environment") ?? "");
-    const source = String(data.get("source") ?? "").trim();
-    setPending(true);
-    setProblem(null);
-    setNotice(null);
-    const result = await sendJson<TokenInfo & { token: string }>("/api/v1/tokens", "POST", {
-      name: String(data.get("name") ?? ""),
-      scopes: data.getAll("scopes").map(String),
-      ...(environment ? { environment } : {}),
-      ...(source ? { source } : {}),
-    });
-    setPending(false);
-    if (!result.ok) {
-      setProblem(result.problem);
-      return;
-    }
-    setCreated(result.data);
-    form.reset();
-    await tokens.mutate();
-  }
-
   async function revoke(token: TokenInfo) {
-    const result = await sendJson<TokenInfo>(`/api/v1/tokens/${token.id}`, "DELETE");
-    if (!result.ok) setNotice(`Could not revoke ${token.name}: ${result.problem.message}`);
+    const result = await sendJson(tokenInfoSchema, `/api/v1/tokens/${token.id}`, "DELETE");
+    if (!result.ok) setNotice(`Could not revoke ${token.name}: ${result.error.detail}`);
     else {
       setNotice(`Revoked ${token.name} (${token.prefix}…). Requests with it are refused from now on.`);
       if (created?.id === token.id) setCreated(null);
@@ -66,7 +133,7 @@ export function TokensAdmin() {
     await tokens.mutate();
   }
 
-  const items = tokens.data?.items ?? [];
+  const items = tokens.data?.items;
   return (
     <div className="space-y-6">
       {created && (
@@ -88,126 +155,34 @@ export function TokensAdmin() {
       )}
 
       <Card title="New token">
-        <form onSubmit={onCreate} className="grid gap-4 md:grid-cols-2" noValidate>
-          <label className="block">
-            <span className="text-sm font-medium">Name</span>
-            <input name="name" required maxLength={100} placeholder="storefront CI" className={input} aria-invalid={!!fieldError(problem, "name")} />
-            {fieldError(problem, "name") && <span className="mt-1 block text-xs text-down">{fieldError(problem, "name")}</span>}
-          </label>
-          <fieldset>
-            <legend className="text-sm font-medium">Scopes</legend>
-            <div className="mt-1 space-y-1">
-              {TOKEN_SCOPES.map((scope) => (
-                <label key={scope} className="flex items-start gap-2 text-sm">
-                  <input type="checkbox" name="scopes" value={scope} defaultChecked={scope === "inventory:write"} className="mt-1 accent-[var(--pp-brass)]" />
-                  <span>
-                    <span className="font-mono">{scope}</span> <span className="text-muted">— {SCOPE_HELP[scope]}</span>
-                  </span>
-                </label>
-              ))}
-            </div>
-            {fieldError(problem, "scopes") && <span className="mt-1 block text-xs text-down">{fieldError(problem, "scopes")}</span>}
-          </fieldset>
-          <label className="block">
-            <span className="text-sm font-medium">Only for environment</span>
-            <select name="environment" className={input} defaultValue="">
-              <option value="">any environment</option>
-              {environments.data?.items.map((e) => (
-                <option key={e.slug} value={e.slug}>
-                  {e.slug}
-                </option>
-              ))}
-            </select>
-            <span className="mt-1 block text-xs text-muted">A token bound to no environment may also create new ones on first push.</span>
-            {fieldError(problem, "environment") && <span className="mt-1 block text-xs text-down">{fieldError(problem, "environment")}</span>}
-          </label>
-          <label className="block">
-            <span className="text-sm font-medium">Only for source</span>
-            <input name="source" placeholder="storefront-repo (optional)" className={`${input} font-mono`} />
-            <span className="mt-1 block text-xs text-muted">Binds the token to one repository&apos;s part of the inventory.</span>
-            {fieldError(problem, "source") && <span className="mt-1 block text-xs text-down">{fieldError(problem, "source")}</span>}
-          </label>
-          {problem && (
-            <p role="alert" className="rounded-md border border-down/50 bg-down/10 px-3 py-2 text-sm md:col-span-2">
-              {problem.message}
-              {problem.issues.length > 0 && `: ${problem.issues.map((i) => `${i.path} ${i.message}`).join("; ")}`}
-            </p>
-          )}
-          <div className="md:col-span-2">
-            <Button type="submit" variant="primary" disabled={pending}>
-              {pending ? "Creating…" : "Create token"}
-            </Button>
-          </div>
-        </form>
+        <CreateToken
+          onCreated={async (token) => {
+            setNotice(null);
+            setCreated(token);
+            await tokens.mutate();
+          }}
+        />
       </Card>
 
-      <Card title={`Tokens (${items.length})`}>
+      <Card title={`Tokens (${items?.length ?? "…"})`}>
         {notice && (
           <p role="status" className="mb-3 rounded-md border border-line bg-raised px-3 py-2 text-sm">
             {notice}
           </p>
         )}
-        {tokens.error && <p role="alert" className="text-sm text-down">Could not load tokens: {tokens.error.message}</p>}
-        {tokens.isLoading ? (
-          <p className="text-sm text-muted">Loading…</p>
-        ) : items.length === 0 ? (
-          <p className="text-sm text-muted">No tokens yet. CI jobs need one to push their inventory.</p>
-        ) : (
-          <div className="overflow-x-auto">
-            <table className="w-full text-left text-sm">
-              <thead className="text-xs uppercase tracking-wide text-faint">
-                <tr>
-                  <th className="py-2 pr-4 font-medium">Name</th>
-                  <th className="py-2 pr-4 font-medium">Starts with</th>
-                  <th className="py-2 pr-4 font-medium">Scopes</th>
-                  <th className="py-2 pr-4 font-medium">Bound to</th>
-                  <th className="py-2 pr-4 font-medium">Created</th>
-                  <th className="py-2 pr-4 font-medium">Last used</th>
-                  <th className="py-2 pr-4 font-medium">State</th>
-                  <th className="py-2 font-medium"><span className="sr-only">Actions</span></th>
-                </tr>
-              </thead>
-              <tbody>
-                {items.map((t) => (
-                  <tr key={t.id} data-testid={`token-row-${t.name}`} className={`border-t border-line align-middle ${t.revokedAt ? "text-faint" : ""}`}>
-                    <td className="py-2 pr-4 font-medium">{t.name}</td>
-                    <td className="py-2 pr-4 font-mono">{t.prefix}…</td>
-                    <td className="py-2 pr-4 font-mono text-xs">{t.scopes.join(", ")}</td>
-                    <td className="py-2 pr-4 text-xs">
-                      {t.environment || t.source ? (
-                        <span className="font-mono">
-                          {t.environment ?? "any env"} / {t.source ?? "any source"}
-                        </span>
-                      ) : (
-                        <span className="text-muted">not bound</span>
-                      )}
-                    </td>
-                    <td className="py-2 pr-4 whitespace-nowrap">{formatWhen(t.createdAt)}</td>
-                    <td className="py-2 pr-4 whitespace-nowrap">{t.lastUsedAt ? formatWhen(t.lastUsedAt) : <span className="text-muted">never</span>}</td>
-                    <td className="py-2 pr-4 whitespace-nowrap">
-                      {t.revokedAt ? <span>revoked {formatWhen(t.revokedAt)}</span> : <span className="text-ok">live</span>}
-                    </td>
-                    <td className="py-2 text-right">
-                      {!t.revokedAt && (
-                        <ConfirmButton
-                          label="Revoke"
-                          name={`Revoke token ${t.name}`}
-                          question={
-                            <>
-                              Revoke <span className="font-mono">{t.name}</span>? Jobs using it start failing. This cannot be undone.
-                            </>
-                          }
-                          confirmLabel="Yes, revoke"
-                          onConfirm={() => revoke(t)}
-                        />
-                      )}
-                    </td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
-          </div>
-        )}
+        <DataTable
+          id="tokens"
+          caption="API tokens"
+          columns={columns(revoke)}
+          data={items}
+          rowKey={(t) => t.id}
+          rowTestId={(t) => `token-row-${t.name}`}
+          rowClassName={(t) => (t.revokedAt ? "text-faint" : "")}
+          error={tokens.error}
+          paging={{ mode: "client", pageSize: 50, search: { label: "Find a token", placeholder: "name, environment or source" } }}
+          noun={["token", "tokens"]}
+          empty="No tokens yet. CI jobs need one to push their inventory."
+        />
       </Card>
     </div>
   );

@@ -1,7 +1,7 @@
 // Where the numbers come from and how far to trust them (DESIGN §9), shown above rankings and drills.
 import { Badge } from "@/components/ui/Badge";
 import { ageFromSeconds, percent, plural } from "@/components/ui/format";
-import type { AnalysisMetaBlock } from "./api-types";
+import type { AnalysisMeta } from "@/lib/api/schemas/analysis";
 
 const VIEW_TEXT = {
   declared: { label: "declared needs", title: "Analysed on the needs the inventory files declare (and infer); calls seen only in traces are left out" },
@@ -10,7 +10,7 @@ const VIEW_TEXT = {
 } as const;
 
 /** Which needs the numbers come from (DESIGN §10): declared, seen in traces, or both. */
-export function GraphViewBadge({ graphView }: { graphView: AnalysisMetaBlock["graphView"] }) {
+export function GraphViewBadge({ graphView }: { graphView: AnalysisMeta["graphView"] }) {
   if (!graphView) return null;
   const t = VIEW_TEXT[graphView.view];
   return (
@@ -21,7 +21,7 @@ export function GraphViewBadge({ graphView }: { graphView: AnalysisMetaBlock["gr
   );
 }
 
-export function SnapshotMeta({ meta, what = "rankings", counts = true }: { meta: AnalysisMetaBlock; what?: "rankings" | "drill"; counts?: boolean }) {
+export function SnapshotMeta({ meta, what = "rankings", counts = true }: { meta: AnalysisMeta; what?: "rankings" | "drill"; counts?: boolean }) {
   const { snapshot, analysis, latest } = meta;
   const stale = snapshot.ageSeconds > 7 * 24 * 3600;
   return (

@@ -1,50 +1,74 @@
 "use client";
-// The audit log: who did what, when, with before and after. Filters live in the URL so a view
-// of the log can be pasted into an incident channel.
-import { usePathname, useRouter } from "next/navigation";
-import { dateTime } from "@/components/ui/format";
-import { useState } from "react";
-import useSWR from "swr";
+// The audit log: who did what, when, with before and after; paged, sorted and filtered on the
+// server. The filters are a form (the same rules as the route: calendar days, `from` not after
+// `to`) and live in the URL, so a view of the log can be pasted into an incident channel.
+import { createColumnHelper } from "@tanstack/react-table";
 import { Button } from "@/components/ui/Button";
 import { Card } from "@/components/ui/Card";
-import { FormError, Label, Select, TextInput } from "@/components/ui/Field";
-import { fetchJson, type ApiError } from "@/lib/client/fetcher";
-import type { AuditPage } from "@/lib/data/audit-log";
+import { DataTable } from "@/components/ui/data-table/DataTable";
+import { useListState } from "@/components/ui/data-table/list-state";
+import { ApiForm, FormProblem, SubmitButton, useApiForm } from "@/components/ui/form/api-form";
+import { InputField } from "@/components/ui/form/fields";
+import { Label, Select } from "@/components/ui/Field";
+import { When } from "@/components/ui/When";
+import { AUDIT_FILTERS, AUDIT_LIST, auditFiltersSchema, auditPageSchema, type AuditEntry } from "@/lib/api/schemas/reviews";
+import { useApi } from "@/lib/client/api";
+import { useFormContext } from "react-hook-form";
 import { AuditDiff } from "./AuditDiff";
-import { AUDIT_FILTERS, type AuditFilters } from "./filters";
 
-const PAGE = 25;
+const filtersFormSchema = auditFiltersSchema.refine((q) => !q.from || !q.to || q.from <= q.to, { message: "`from` is after `to`", path: ["from"] });
 
-function toQuery(filters: AuditFilters, offset: number): string {
-  const q = new URLSearchParams();
-  for (const f of AUDIT_FILTERS) {
-    const v = filters[f]?.trim();
-    if (v) q.set(f, v);
-  }
-  if (offset) q.set("offset", String(offset));
-  return q.toString();
+const col = createColumnHelper<AuditEntry>();
+
+const COLUMNS = [
+  col.accessor("at", { header: "When", meta: { fixed: true, className: "text-xs text-muted" }, cell: (i) => <When at={i.getValue()} seconds /> }),
+  col.accessor("action", { header: "Action", cell: (i) => <span className="font-mono text-xs text-ink" data-testid="audit-action">{i.getValue()}</span> }),
+  col.accessor("actorLabel", {
+    id: "actor",
+    header: "Who",
+    cell: (i) => (
+      <span className="block max-w-56 truncate text-xs text-muted" title={i.getValue()}>
+        {i.row.original.actorType === "user" ? "" : `${i.row.original.actorType} · `}
+        {i.getValue()}
+      </span>
+    ),
+  }),
+  col.accessor((e) => `${e.targetType} ${e.targetId}`, { id: "target", header: "Target", cell: (i) => <span className="font-mono text-xs text-faint">{i.getValue()}</span> }),
+  col.accessor((e) => e.environment ?? "", { id: "environment", header: "Environment", cell: (i) => <span className="font-mono text-xs text-faint">{i.getValue() || "—"}</span> }),
+  col.display({ id: "change", header: "Before → after", meta: { className: "min-w-96" }, cell: (i) => <AuditDiff before={i.row.original.before} after={i.row.original.after} /> }),
+];
+
+/** Families (review, team, …) and every action recorded, as the filter's choices. */
+function ActionSelect({ actions }: { actions: string[] }) {
+  const { register } = useFormContext();
+  const families = [...new Set(actions.map((a) => a.split(".")[0] ?? a))];
+  return (
+    <div>
+      <Label htmlFor="f-action">Action</Label>
+      <Select id="f-action" {...register("action", { setValueAs: (v: string) => v || undefined })}>
+        <option value="">any</option>
+        {families.map((family) => (
+          <optgroup key={family} label={family}>
+            <option value={family}>{family} (all)</option>
+            {actions
+              .filter((a) => a.startsWith(`${family}.`))
+              .map((a) => (
+                <option key={a} value={a}>
+                  {a}
+                </option>
+              ))}
+          </optgroup>
+        ))}
+      </Select>
+    </div>
+  );
 }
 
-const when = (iso: string) => dateTime(iso, { seconds: true });
-
-export function AuditLog({ initial, initialOffset }: { initial: AuditFilters; initialOffset: number }) {
-  const router = useRouter();
-  const pathname = usePathname();
-  const [filters, setFilters] = useState<AuditFilters>(initial);
-  const [draft, setDraft] = useState<AuditFilters>(initial);
-  const [offset, setOffset] = useState(initialOffset);
-  const query = toQuery(filters, offset);
-  const { data, error, isLoading } = useSWR<AuditPage, ApiError>(`/api/v1/audit?${query}${query ? "&" : ""}limit=${PAGE}`, fetchJson, { keepPreviousData: true });
-
-  function apply(next: AuditFilters, nextOffset: number) {
-    setFilters(next);
-    setOffset(nextOffset);
-    const q = toQuery(next, nextOffset);
-    router.replace(q ? `${pathname}?${q}` : pathname, { scroll: false });
-  }
-
-  const set = (f: keyof AuditFilters) => (e: { target: { value: string } }) => setDraft((d) => ({ ...d, [f]: e.target.value }));
-  const total = data?.total ?? 0;
+export function AuditLog() {
+  const list = useListState(AUDIT_LIST, { filters: AUDIT_FILTERS, pageSize: 25 });
+  const { data, error, isValidating } = useApi(auditPageSchema, `/api/v1/audit?${list.query}`, { keepPreviousData: true });
+  const form = useApiForm(filtersFormSchema, list.filters);
+  const onSubmit = form.handleSubmit((values) => list.setFilters(Object.fromEntries(AUDIT_FILTERS.map((f) => [f, values[f] ?? null]))));
 
   return (
     <div className="space-y-6">
@@ -53,108 +77,43 @@ export function AuditLog({ initial, initialOffset }: { initial: AuditFilters; in
         <p className="mt-1 text-sm text-muted">Every change made in Pinchpoint: pushes, owners, reviews, weights, teams, roles and tokens. Append-only.</p>
       </div>
       <Card>
-        <form
-          aria-label="Filter the audit log"
-          className="grid gap-3 md:grid-cols-7"
-          onSubmit={(e) => {
-            e.preventDefault();
-            apply(draft, 0);
-          }}
-        >
-          <div>
-            <Label htmlFor="f-action">Action</Label>
-            <Select id="f-action" value={draft.action ?? ""} onChange={set("action")}>
-              <option value="">any</option>
-              {[...new Set((data?.actions ?? []).map((a) => a.split(".")[0] ?? a))].map((family) => (
-                <optgroup key={family} label={family}>
-                  <option value={family}>{family} (all)</option>
-                  {(data?.actions ?? [])
-                    .filter((a) => a.startsWith(`${family}.`))
-                    .map((a) => (
-                      <option key={a} value={a}>
-                        {a}
-                      </option>
-                    ))}
-                </optgroup>
-              ))}
-            </Select>
-          </div>
-          <div>
-            <Label htmlFor="f-actor">Who</Label>
-            <TextInput id="f-actor" value={draft.actor ?? ""} onChange={set("actor")} placeholder="e-mail or token" />
-          </div>
-          <div>
-            <Label htmlFor="f-environment">Environment</Label>
-            <TextInput id="f-environment" value={draft.environment ?? ""} onChange={set("environment")} placeholder="production" className="font-mono" />
-          </div>
-          <div>
-            <Label htmlFor="f-target">Target</Label>
-            <TextInput id="f-target" value={draft.target ?? ""} onChange={set("target")} placeholder="key, team, token…" className="font-mono" />
-          </div>
-          <div>
-            <Label htmlFor="f-from">From (UTC day)</Label>
-            <TextInput id="f-from" type="date" value={draft.from ?? ""} onChange={set("from")} />
-          </div>
-          <div>
-            <Label htmlFor="f-to">To (UTC day)</Label>
-            <TextInput id="f-to" type="date" value={draft.to ?? ""} onChange={set("to")} />
-          </div>
-          <div className="flex items-end gap-2">
-            <Button type="submit" variant="primary">
-              Filter
-            </Button>
+        <ApiForm form={form} onSubmit={onSubmit} label="Filter the audit log" className="grid gap-3 md:grid-cols-7">
+          <ActionSelect actions={data?.actions ?? []} />
+          <InputField name="actor" label="Who" placeholder="e-mail or token" blank="absent" />
+          <InputField name="environment" label="Environment" placeholder="production" blank="absent" controlClassName="font-mono" />
+          <InputField name="target" label="Target" placeholder="key, team, token…" blank="absent" controlClassName="font-mono" />
+          <InputField name="from" label="From (UTC day)" type="date" blank="absent" />
+          <InputField name="to" label="To (UTC day)" type="date" blank="absent" />
+          <div className="flex items-start gap-2 pt-5">
+            <SubmitButton>Filter</SubmitButton>
             <Button
               type="button"
               variant="ghost"
               onClick={() => {
-                setDraft({});
-                apply({}, 0);
+                form.reset(Object.fromEntries(AUDIT_FILTERS.map((f) => [f, undefined])));
+                list.clearFilters();
               }}
             >
               Reset
             </Button>
           </div>
-        </form>
+          <FormProblem className="md:col-span-7" />
+        </ApiForm>
       </Card>
-      {error && <FormError message={`Could not load the log: ${error.message}`} />}
-      <Card
-        title={<span data-testid="audit-total">{isLoading && !data ? "Loading…" : `${total} event${total === 1 ? "" : "s"}`}</span>}
-        action={
-          total > PAGE && (
-            <div className="flex items-center gap-2 text-xs text-muted">
-              <Button variant="ghost" disabled={offset === 0} onClick={() => apply(filters, Math.max(0, offset - PAGE))}>
-                ← Newer
-              </Button>
-              <span className="font-mono">
-                {offset + 1}–{Math.min(offset + PAGE, total)} of {total}
-              </span>
-              <Button variant="ghost" disabled={offset + PAGE >= total} onClick={() => apply(filters, offset + PAGE)}>
-                Older →
-              </Button>
-            </div>
-          )
-        }
-      >
-        {data && data.items.length === 0 && <p className="text-sm text-muted">Nothing matches these filters.</p>}
-        <ol className="divide-y divide-line" data-testid="audit-events">
-          {data?.items.map((e) => (
-            <li key={e.id} className="grid gap-2 py-3 md:grid-cols-[14rem_1fr]">
-              <div className="text-xs">
-                <div className="font-mono text-ink">{e.action}</div>
-                <div className="mt-0.5 text-muted">{when(e.at)}</div>
-                <div className="mt-0.5 truncate text-muted" title={e.actorLabel}>
-                  {e.actorType === "user" ? "" : `${e.actorType} · `}
-                  {e.actorLabel}
-                </div>
-                <div className="mt-0.5 font-mono text-faint">
-                  {e.targetType} {e.targetId}
-                  {e.environment && ` · ${e.environment}`}
-                </div>
-              </div>
-              <AuditDiff before={e.before} after={e.after} />
-            </li>
-          ))}
-        </ol>
+      <Card title={<span data-testid="audit-total">{!data ? "Loading…" : `${data.total} event${data.total === 1 ? "" : "s"}`}</span>}>
+        <DataTable
+          id="audit"
+          testId="audit-events"
+          caption="Audit events, newest first"
+          columns={COLUMNS}
+          data={data?.items}
+          rowKey={(e) => e.id}
+          error={error}
+          loading={isValidating}
+          paging={{ mode: "server", list, total: data?.total }}
+          noun={["event", "events"]}
+          empty="Nothing matches these filters."
+        />
       </Card>
     </div>
   );

@@ -5,17 +5,13 @@
 // printed. A runbook drawn from the declared inventory, not a guarantee.
 import Link from "next/link";
 import { useMemo, useState } from "react";
-import useSWR from "swr";
 import { Badge } from "@/components/ui/Badge";
 import { Button } from "@/components/ui/Button";
 import { Card, Stat } from "@/components/ui/Card";
 import { ageOf, dateTime, plural } from "@/components/ui/format";
 import { Notice } from "@/components/ui/Notice";
-import type { AnalysisMetaBlock } from "@/components/rankings/api-types";
-import { fetchJson, type ApiError } from "@/lib/client/fetcher";
-import type { BootOrderView } from "@/lib/data/analysis-results";
-
-type BootOrderResponse = AnalysisMetaBlock & BootOrderView & { startupNeeds?: Record<string, string[]> };
+import { bootOrderResponseSchema } from "@/lib/api/schemas/analysis";
+import { useApi } from "@/lib/client/api";
 
 /** Stages longer than this open folded on screen (a 20,000-component estate has stages of thousands). */
 const FOLD_AT = 150;
@@ -35,7 +31,7 @@ function Key({ env, k }: { env: string; k: string }) {
 }
 
 export function ColdStart({ env }: { env: string }) {
-  const boot = useSWR<BootOrderResponse, ApiError>(`/api/v1/environments/${env}/boot-order?components=true`, fetchJson);
+  const boot = useApi(bootOrderResponseSchema, `/api/v1/environments/${env}/boot-order?components=true`);
   const [unfolded, setUnfolded] = useState<Set<number>>(new Set());
   // Fixed when the page is opened, so that the printed sheet says when it was taken.
   const [openedAt] = useState(() => new Date().toISOString());

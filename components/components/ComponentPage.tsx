@@ -3,33 +3,24 @@
 // measures in plain words, and which snapshots changed it.
 import Link from "next/link";
 import type { ReactNode } from "react";
-import useSWR from "swr";
 import { ReviewBadge } from "@/components/reviews/ReviewBadge";
 import { useReviews } from "@/components/reviews/useReviews";
 import { dependencyChangeLine, dependencyLine, fieldChanges } from "@/components/history/diff-lines";
-import { MEASURE_HELP } from "@/components/rankings/measures";
+import { MEASURE_HELP } from "@/components/analysis/measures";
 import { Badge } from "@/components/ui/Badge";
 import { Card } from "@/components/ui/Card";
-import { ageOf, betweennessPct, convergedMeasure, dateTime, measure, NOT_CONVERGED, pinchScore, plural, safeHref, trafficLine } from "@/components/ui/format";
+import { betweennessPct, convergedMeasure, dateTime, measure, NOT_CONVERGED, pinchScore, plural, safeHref, trafficLine } from "@/components/ui/format";
 import { Notice } from "@/components/ui/Notice";
-import { fetchJson, type ApiError } from "@/lib/client/fetcher";
-import type { ComponentHistoryEntry } from "@/lib/data/component-history";
-import type { ComponentDetail, ComponentEdge, getComponentMetrics } from "@/lib/data/component-detail";
-
-type Metrics = NonNullable<Awaited<ReturnType<typeof getComponentMetrics>>>;
-type Convergence = { converged: boolean; reason: string | null } | null;
-type DetailResponse = ComponentDetail & {
-  metrics: Metrics | null;
-  snapshot: { number: number; createdAt: string } | null;
-  /** for an entry point: what every path from it passes through */
-  fromHere: { reached: number; total: number; through: Array<{ key: string; dominated: number }> } | null;
-  measures: { pagerank: Convergence; eigenvector: Convergence; dominators: { entries: number; complete: boolean; entriesAnalysed: number } | null };
-};
-interface HistoryResponse {
-  key: string;
-  scanned: number;
-  items: ComponentHistoryEntry[];
-}
+import { When } from "@/components/ui/When";
+import {
+  componentDetailResponseSchema,
+  componentHistoryResponseSchema,
+  type ComponentDetailResponse as DetailResponse,
+  type ComponentEdge,
+  type ComponentHistoryResponse as HistoryResponse,
+  type ComponentMetrics as Metrics,
+} from "@/lib/api/schemas/components";
+import { useApi } from "@/lib/client/api";
 
 function Field({ label, children }: { label: string; children: ReactNode }) {
   return (
@@ -88,8 +79,8 @@ function EdgeList({ env, edges, empty }: { env: string; edges: ComponentEdge[]; 
 
 export function ComponentPage({ env, componentKey }: { env: string; componentKey: string }) {
   const base = `/api/v1/environments/${env}/components/${encodeURIComponent(componentKey)}`;
-  const detail = useSWR<DetailResponse, ApiError>(base, fetchJson);
-  const history = useSWR<HistoryResponse, ApiError>(`${base}/history`, fetchJson);
+  const detail = useApi(componentDetailResponseSchema, base);
+  const history = useApi(componentHistoryResponseSchema, `${base}/history`);
   const reviews = useReviews(env);
   const d = detail.data;
 
@@ -177,13 +168,27 @@ export function ComponentPage({ env, componentKey }: { env: string; componentKey
             <Field label="Owner">{d.team ? <Link href={`/teams/${d.team}`} className="text-info underline">{d.team}</Link> : <Badge tone="degraded">unowned</Badge>}</Field>
             <Field label="Declared team">{d.declaredTeam ?? "—"} {d.team !== d.declaredTeam && d.team && <span className="text-xs text-muted">(assigned in Pinchpoint)</span>}</Field>
             <Field label="Notes">{d.notes ? <span className="whitespace-pre-wrap">{d.notes}</span> : <span className="text-muted">none</span>}</Field>
-            {d.annotationUpdatedAt && <Field label="Updated">{ageOf(d.annotationUpdatedAt)}</Field>}
+            {d.annotationUpdatedAt && (
+              <Field label="Updated">
+                <When at={d.annotationUpdatedAt} />
+              </Field>
+            )}
           </dl>
           <p className="mt-2 text-xs text-faint">Owners and notes are edited in the map&apos;s inspector or on the team screen.</p>
         </Card>
       </div>
 
-      <Card title={d.snapshot ? `Measures (snapshot #${d.snapshot.number}, pushed ${ageOf(d.snapshot.createdAt)})` : "Measures"}>
+      <Card
+        title={
+          d.snapshot ? (
+            <>
+              Measures (snapshot #{d.snapshot.number}, pushed <When at={d.snapshot.createdAt} />)
+            </>
+          ) : (
+            "Measures"
+          )
+        }
+      >
         {m ? (
           <ul className="grid gap-2 text-sm md:grid-cols-2" data-testid="measures">
             <li>
@@ -344,7 +349,7 @@ function HistoryCard({ env, data }: { env: string; data: HistoryResponse }) {
                   snapshot #{h.number}
                 </Link>{" "}
                 <span className="text-muted">
-                  {dateTime(h.createdAt)} · {h.source ?? "?"} · {h.actor ?? "unknown"}
+                  <When at={h.createdAt} /> · {h.source ?? "?"} · {h.actor ?? "unknown"}
                 </span>
               </p>
               <ul className="mt-1 space-y-0.5 font-mono text-xs text-muted">

@@ -2,18 +2,19 @@
 // Drift: traced calls against declared needs. Two lists, each an action for someone: a call
 // nobody declared belongs in the calling component's file; a declared need no trace shows is
 // worth a second look, never an automatic removal.
+import { createColumnHelper } from "@tanstack/react-table";
 import Link from "next/link";
 import { useState, type ReactNode } from "react";
-import useSWR from "swr";
 import { Badge } from "@/components/ui/Badge";
 import { Card, Stat } from "@/components/ui/Card";
+import { DataTable, type Columns } from "@/components/ui/data-table/DataTable";
+import { ListSearch } from "@/components/ui/data-table/filters";
+import { useListState, type ListState } from "@/components/ui/data-table/list-state";
 import { dateTime, plural, trafficLine } from "@/components/ui/format";
 import { Notice } from "@/components/ui/Notice";
-import { fetchJson, type ApiError } from "@/lib/client/fetcher";
-import type { AliasProposalRow, DeclaredNotSeen, Drift, SeenNotDeclared } from "@/lib/data/drift";
-
-const th = "whitespace-nowrap px-2 py-1.5 font-medium";
-const td = "px-2 py-1.5 align-top";
+import { When } from "@/components/ui/When";
+import { DRIFT_DECLARED_LIST, DRIFT_SEEN_LIST, driftResponseSchema, type AliasProposal, type DeclaredNotSeen, type DriftResponse, type SeenNotDeclared } from "@/lib/api/schemas/drift";
+import { useApi } from "@/lib/client/api";
 
 function ComponentRef({ env, componentKey, known }: { env: string; componentKey: string; known: boolean }) {
   // Every traced name is a component of the graph (known only from traces until a file declares it), so it has a page.
@@ -124,145 +125,161 @@ function SnippetButton({ snippet, label, testId }: { snippet: string; label: str
 
 const ms = (v: number | null): string => (v === null ? "—" : v < 10 ? v.toFixed(1) : Math.round(v).toLocaleString());
 
-function SeenNotDeclaredTable({ env, rows }: { env: string; rows: SeenNotDeclared[] }) {
-  if (rows.length === 0) return <p className="text-sm text-muted">None: every call the traces show is declared.</p>;
-  return (
-    <div className="overflow-x-auto">
-      <table className="w-full text-sm" data-testid="seen-not-declared">
-        <caption className="sr-only">Calls seen in traces that no inventory declares, most calls first</caption>
-        <thead className="text-left text-xs text-muted">
-          <tr>
-            <th scope="col" className={th}>Caller → called</th>
-            <th scope="col" className={`${th} text-right`} title="Calls over the trace window, and calls per minute since the window opened or the call was first seen">Traffic</th>
-            <th scope="col" className={`${th} text-right`} title="Duration the caller saw, median and 95th percentile, in milliseconds">p50 / p95 ms</th>
-            <th scope="col" className={th}>Evidence</th>
-            <th scope="col" className={th} title="First and last time a span of this call arrived (UTC)">First / last seen</th>
-            <th scope="col" className={th}>Who should declare it</th>
-          </tr>
-        </thead>
-        <tbody>
-          {rows.map((r) => (
-            <tr key={`${r.from}→${r.to}`} className="border-t border-line/60" data-testid="seen-not-declared-row">
-              <td className={td}>
-                <Edge env={env} from={r.from} to={r.to} fromKnown={r.fromKnown} toKnown={r.toKnown} />
-              </td>
-              <td className={`${td} text-right font-mono tabular-nums`} data-testid="drift-traffic">
-                <span className="block text-ink">{r.calls.toLocaleString()}</span>
-                <span className={`block text-xs ${r.errorRate >= 0.01 ? "text-degraded" : "text-muted"}`}>{trafficLine(r)}</span>
-              </td>
-              <td className={`${td} whitespace-nowrap text-right font-mono text-xs tabular-nums text-muted`}>
-                {ms(r.p50Ms)} / {ms(r.p95Ms)}
-              </td>
-              <td className={td}>
-                <span className="flex flex-wrap gap-1">
-                  {r.evidence.map((e) => (
-                    <Badge key={e}>{e}</Badge>
-                  ))}
-                  {r.async && (
-                    <Badge tone="info" title="A message hand-off: the producer needs the destination, never the consumer">
-                      asynchronous
-                    </Badge>
-                  )}
-                </span>
-              </td>
-              <td className={`${td} whitespace-nowrap font-mono text-xs text-muted`}>
-                <span className="block">{dateTime(r.firstSeenAt)}</span>
-                <span className="block">{dateTime(r.lastSeenAt)}</span>
-              </td>
-              <td className={td}>
-                <DeclareHint row={r} />
-                <SnippetButton snippet={r.snippet} label="Declare this need" testId="declare-need" />
-              </td>
-            </tr>
+const seenCol = createColumnHelper<SeenNotDeclared>();
+
+function seenColumns(env: string) {
+  return [
+    seenCol.accessor("from", {
+      header: "Caller → called",
+      meta: { fixed: true },
+      cell: (i) => <Edge env={env} from={i.row.original.from} to={i.row.original.to} fromKnown={i.row.original.fromKnown} toKnown={i.row.original.toKnown} />,
+    }),
+    seenCol.accessor("to", { header: "Called", meta: { hidden: true, className: "font-mono" } }),
+    seenCol.accessor("calls", {
+      header: "Traffic",
+      meta: { numeric: true, help: "Calls over the trace window, and calls per minute since the window opened or the call was first seen" },
+      cell: (i) => (
+        <span data-testid="drift-traffic">
+          <span className="block text-ink">{i.getValue().toLocaleString()}</span>
+          <span className={`block text-xs ${i.row.original.errorRate >= 0.01 ? "text-degraded" : "text-muted"}`}>{trafficLine(i.row.original)}</span>
+        </span>
+      ),
+    }),
+    seenCol.accessor("errorRate", { header: "Errors", meta: { numeric: true, hidden: true }, cell: (i) => `${(i.getValue() * 100).toFixed(1)}%` }),
+    seenCol.accessor("p95Ms", {
+      header: "p50 / p95 ms",
+      meta: { numeric: true, help: "Duration the caller saw, median and 95th percentile, in milliseconds" },
+      cell: (i) => (
+        <span className="whitespace-nowrap text-xs text-muted">
+          {ms(i.row.original.p50Ms)} / {ms(i.row.original.p95Ms)}
+        </span>
+      ),
+    }),
+    seenCol.display({
+      id: "evidence",
+      header: "Evidence",
+      cell: (i) => (
+        <span className="flex flex-wrap gap-1">
+          {i.row.original.evidence.map((e) => (
+            <Badge key={e}>{e}</Badge>
           ))}
-        </tbody>
-      </table>
-    </div>
-  );
+          {i.row.original.async && (
+            <Badge tone="info" title="A message hand-off: the producer needs the destination, never the consumer">
+              asynchronous
+            </Badge>
+          )}
+        </span>
+      ),
+    }),
+    seenCol.accessor("lastSeenAt", {
+      header: "First / last seen",
+      meta: { help: "First and last time a span of this call arrived (UTC)", className: "font-mono text-xs text-muted" },
+      cell: (i) => (
+        <>
+          <span className="block">
+            <When at={i.row.original.firstSeenAt} />
+          </span>
+          <span className="block">
+            <When at={i.row.original.lastSeenAt} />
+          </span>
+        </>
+      ),
+    }),
+    seenCol.display({
+      id: "declare",
+      header: "Who should declare it",
+      cell: (i) => (
+        <>
+          <DeclareHint row={i.row.original} />
+          <SnippetButton snippet={i.row.original.snippet} label="Declare this need" testId="declare-need" />
+        </>
+      ),
+    }),
+  ];
 }
 
-function DeclaredNotSeenTable({ env, rows }: { env: string; rows: DeclaredNotSeen[] }) {
-  if (rows.length === 0) return <p className="text-sm text-muted">None: every declared need of a traced caller appeared in the traces.</p>;
-  return (
-    <div className="overflow-x-auto">
-      <table className="w-full text-sm" data-testid="declared-not-seen">
-        <caption className="sr-only">Declared needs of traced callers that no trace shows</caption>
-        <thead className="text-left text-xs text-muted">
-          <tr>
-            <th scope="col" className={th}>Dependent → needs</th>
-            <th scope="col" className={th}>Strength</th>
-            <th scope="col" className={th}>Declared by</th>
-          </tr>
-        </thead>
-        <tbody>
-          {rows.map((r) => (
-            <tr key={`${r.from}→${r.to}`} className="border-t border-line/60" data-testid="declared-not-seen-row">
-              <td className={td}>
-                <span className="inline-flex flex-wrap items-center gap-1.5">
-                  <Edge env={env} from={r.from} to={r.to} />
-                  {r.anyOf && (
-                    <Badge tone="info" title="One of several alternatives: an alternative not in use is expected to be missing from traces">
-                      any of
-                    </Badge>
-                  )}
-                </span>
-              </td>
-              <td className={td}>
-                <Badge tone="muted">{r.strength}</Badge>
-              </td>
-              <td className={`${td} text-xs text-muted`}>
-                source <span className="font-mono text-ink">{r.source}</span>
-                {r.team && (
-                  <>
-                    {" "}
-                    · team <span className="font-mono text-ink">{r.team}</span>
-                  </>
-                )}
-              </td>
-            </tr>
-          ))}
-        </tbody>
-      </table>
-    </div>
-  );
+const declaredCol = createColumnHelper<DeclaredNotSeen>();
+
+function declaredColumns(env: string) {
+  return [
+    declaredCol.accessor("from", {
+      header: "Dependent → needs",
+      meta: { fixed: true },
+      cell: (i) => (
+        <span className="inline-flex flex-wrap items-center gap-1.5">
+          <Edge env={env} from={i.row.original.from} to={i.row.original.to} />
+          {i.row.original.anyOf && (
+            <Badge tone="info" title="One of several alternatives: an alternative not in use is expected to be missing from traces">
+              any of
+            </Badge>
+          )}
+        </span>
+      ),
+    }),
+    declaredCol.accessor("to", { header: "Needs", meta: { hidden: true, className: "font-mono" } }),
+    declaredCol.accessor("strength", { header: "Strength", cell: (i) => <Badge tone="muted">{i.getValue()}</Badge> }),
+    declaredCol.accessor("source", {
+      header: "Declared by",
+      cell: (i) => (
+        <span className="text-xs text-muted">
+          source <span className="font-mono text-ink">{i.getValue()}</span>
+          {i.row.original.team && (
+            <>
+              {" "}
+              · team <span className="font-mono text-ink">{i.row.original.team}</span>
+            </>
+          )}
+        </span>
+      ),
+    }),
+  ];
 }
 
-function AliasProposals({ env, rows }: { env: string; rows: AliasProposalRow[] }) {
+const aliasCol = createColumnHelper<AliasProposal>();
+
+function AliasProposals({ env, rows }: { env: string; rows: AliasProposal[] }) {
   if (rows.length === 0) return null;
+  const columns = [
+    aliasCol.accessor("alias", { header: "Traced as", meta: { fixed: true, className: "font-mono" } }),
+    aliasCol.accessor("key", {
+      header: "Looks like",
+      cell: (i) => (
+        <>
+          <ComponentRef env={env} componentKey={i.getValue()} known />
+          <span className="block text-xs text-muted">
+            source <span className="font-mono text-ink">{i.row.original.source}</span>
+            {i.row.original.team ? ` · team ${i.row.original.team}` : ""}
+          </span>
+        </>
+      ),
+    }),
+    aliasCol.accessor("reason", {
+      header: "Why",
+      cell: (i) => (
+        <span className="text-xs text-muted">
+          {i.getValue()}
+          <SnippetButton snippet={i.row.original.snippet} label="Add this alias" testId="add-alias" />
+        </span>
+      ),
+    }),
+  ];
   return (
     <Card title={`Names that look like a component (${rows.length})`}>
       <p className="mb-3 text-sm text-muted">
         Traces call these by a name that is neither a key nor an alias, but it looks like exactly one declared component. Once the component lists it as an alias,
         its calls count on that component. A guess from naming habits: confirm with the owning team.
       </p>
-      <table className="w-full text-sm" data-testid="alias-proposals">
-        <caption className="sr-only">Proposed aliases: a trace name and the declared component it looks like</caption>
-        <thead className="text-left text-xs text-muted">
-          <tr>
-            <th scope="col" className={th}>Traced as</th>
-            <th scope="col" className={th}>Looks like</th>
-            <th scope="col" className={th}>Why</th>
-          </tr>
-        </thead>
-        <tbody>
-          {rows.map((r) => (
-            <tr key={`${r.alias}→${r.key}`} className="border-t border-line/60" data-testid="alias-proposal-row">
-              <td className={`${td} font-mono`}>{r.alias}</td>
-              <td className={td}>
-                <ComponentRef env={env} componentKey={r.key} known />
-                <span className="block text-xs text-muted">
-                  source <span className="font-mono text-ink">{r.source}</span>
-                  {r.team ? ` · team ${r.team}` : ""}
-                </span>
-              </td>
-              <td className={`${td} text-xs text-muted`}>
-                {r.reason}
-                <SnippetButton snippet={r.snippet} label="Add this alias" testId="add-alias" />
-              </td>
-            </tr>
-          ))}
-        </tbody>
-      </table>
+      <DataTable
+        id="alias-proposals"
+        caption="Proposed aliases: a trace name and the declared component it looks like"
+        columns={columns}
+        data={rows}
+        rowKey={(r) => `${r.alias}>${r.key}`}
+        rowTestId={() => "alias-proposal-row"}
+        paging={{ mode: "client", pageSize: 25, search: { label: "Find a name", placeholder: "alias or key" } }}
+        noun={["proposal", "proposals"]}
+        empty="None matches."
+      />
     </Card>
   );
 }
@@ -303,10 +320,40 @@ function NoTraces({ env }: { env: string }) {
   );
 }
 
+type Source = DriftResponse["observedSources"][number];
+const sourceCol = createColumnHelper<Source>();
+const SOURCE_COLUMNS = [
+  sourceCol.accessor("source", { header: "Source", meta: { fixed: true, className: "font-mono" } }),
+  sourceCol.accessor("edges", { header: "Caller → called pairs", meta: { numeric: true }, cell: (i) => plural(i.getValue(), "pair") }),
+  sourceCol.accessor("lastSeenAt", { header: "Last seen", cell: (i) => <When at={i.getValue()} /> }),
+];
+
+function ListOf<T>({ id, list, caption, data, total, columns, rowKey, rowTestId, empty, search }: { id: string; list: ListState; caption: string; data: T[] | undefined; total: number | undefined; columns: Columns<T>; rowKey: (r: T) => string; rowTestId: string; empty: string; search: string }) {
+  return (
+    <DataTable
+      id={id}
+      caption={caption}
+      columns={columns}
+      data={data}
+      rowKey={rowKey}
+      rowTestId={() => rowTestId}
+      paging={{ mode: "server", list, total }}
+      noun={["need", "needs"]}
+      empty={list.filters.q ? "None matches." : empty}
+      filters={<ListSearch list={list} label="Find" placeholder={search} />}
+    />
+  );
+}
+
 export function DriftScreen({ env }: { env: string }) {
-  const drift = useSWR<Drift, ApiError>(`/api/v1/environments/${env}/drift`, fetchJson);
+  const seen = useListState(DRIFT_SEEN_LIST, { prefix: "seen", prefixApi: true, filters: ["q"], pageSize: 25 });
+  const declared = useListState(DRIFT_DECLARED_LIST, { prefix: "declared", prefixApi: true, filters: ["q"], pageSize: 25 });
+  const drift = useApi(driftResponseSchema, `/api/v1/environments/${env}/drift?${seen.query}&${declared.query}`, { keepPreviousData: true });
   const data = drift.data;
   const traced = data !== undefined && data.observedSources.length > 0;
+  // What each list holds (after its own search, when one is typed).
+  const seenTotal = data?.seenNotDeclared.total ?? 0;
+  const declaredTotal = data?.declaredNotSeen.total ?? 0;
 
   return (
     <div className="space-y-4">
@@ -331,50 +378,63 @@ export function DriftScreen({ env }: { env: string }) {
       {data && traced && (
         <>
           <div className="grid gap-3 sm:grid-cols-2 lg:grid-cols-4">
-            <Stat label="Seen, not declared" value={data.seenNotDeclared.length} tone={data.seenNotDeclared.length > 0 ? "degraded" : "ok"} hint="traced calls missing from the inventory" />
-            <Stat label="Declared, not seen" value={data.declaredNotSeen.length} hint="needs of traced callers absent from traces" />
+            <Stat label="Seen, not declared" value={seenTotal} tone={seenTotal > 0 ? "degraded" : "ok"} hint="traced calls missing from the inventory" />
+            <Stat label="Declared, not seen" value={declaredTotal} hint="needs of traced callers absent from traces" />
             <Stat label="Agreeing" value={data.agreeing} tone="ok" hint="declared needs the traces confirm" />
             <Stat label="Trace sources" value={data.observedSources.length} hint={`newest ${dateTime(newest(data.observedSources.map((s) => s.lastSeenAt)))}; window ${plural(data.window.days, "day")}`} />
           </div>
 
-          <Card title={`Seen in traces, never declared (${data.seenNotDeclared.length})`}>
+          <Card title={`Seen in traces, never declared (${seenTotal})`}>
             <p className="mb-3 text-sm text-muted">
               Each call is a need no file declares: it counts only in the views that include traces, and only as soft unless the environment&apos;s settings say
               otherwise. A need is declared on the calling component, in the file of the source that declares it.
             </p>
-            <SeenNotDeclaredTable env={env} rows={data.seenNotDeclared} />
+            <ListOf
+              id="seen-not-declared"
+              list={seen}
+              caption="Calls seen in traces that no inventory declares"
+              data={data.seenNotDeclared.items}
+              total={data.seenNotDeclared.total}
+              columns={seenColumns(env)}
+              rowKey={(r) => `${r.from}→${r.to}`}
+              rowTestId="seen-not-declared-row"
+              empty="None: every call the traces show is declared."
+              search="caller, callee or evidence"
+            />
           </Card>
 
           <AliasProposals env={env} rows={data.aliasProposals} />
 
-          <Card title={`Declared, never seen in traces (${data.declaredNotSeen.length})`}>
+          <Card title={`Declared, never seen in traces (${declaredTotal})`}>
             <p className="mb-3 text-sm text-muted">
               Listed only for components that the traces show calling something: a component no trace starts from tells us nothing about its needs. Check with
               the owning team before removing anything; the call may simply not have happened while traces were recorded.
             </p>
-            <DeclaredNotSeenTable env={env} rows={data.declaredNotSeen} />
+            <ListOf
+              id="declared-not-seen"
+              list={declared}
+              caption="Declared needs of traced callers that no trace shows"
+              data={data.declaredNotSeen.items}
+              total={data.declaredNotSeen.total}
+              columns={declaredColumns(env)}
+              rowKey={(r) => `${r.from}→${r.to}`}
+              rowTestId="declared-not-seen-row"
+              empty="None: every declared need of a traced caller appeared in the traces."
+              search="component, source or team"
+            />
           </Card>
 
           <Card title={`Trace sources (${data.observedSources.length})`}>
-            <table className="w-full text-sm" data-testid="observed-sources">
-              <caption className="sr-only">Sources of traces with the time a span of theirs last arrived</caption>
-              <thead className="text-left text-xs text-muted">
-                <tr>
-                  <th scope="col" className={th}>Source</th>
-                  <th scope="col" className={`${th} text-right`}>Caller → called pairs</th>
-                  <th scope="col" className={th}>Last seen</th>
-                </tr>
-              </thead>
-              <tbody>
-                {data.observedSources.map((s) => (
-                  <tr key={s.source} className="border-t border-line/60">
-                    <td className={`${td} font-mono`}>{s.source}</td>
-                    <td className={`${td} text-right font-mono tabular-nums`}>{plural(s.edges, "pair")}</td>
-                    <td className={`${td} font-mono text-xs text-muted`}>{dateTime(s.lastSeenAt)}</td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
+            <DataTable
+              id="observed-sources"
+              caption="Sources of traces with the time a span of theirs last arrived"
+              columns={SOURCE_COLUMNS}
+              data={data.observedSources}
+              rowKey={(r) => r.source}
+              paging={{ mode: "client", pageSize: 25 }}
+              noun={["source", "sources"]}
+              empty="None."
+            />
           </Card>
         </>
       )}

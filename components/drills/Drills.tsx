@@ -4,9 +4,7 @@
 import Link from "next/link";
 import { useMemo, useState } from "react";
 import useSWR from "swr";
-import type { MapGraph } from "@/components/map/types";
-import { SnapshotMeta } from "@/components/rankings/SnapshotMeta";
-import type { ComponentsResponse } from "@/components/rankings/api-types";
+import { SnapshotMeta } from "@/components/analysis/SnapshotMeta";
 import { Badge } from "@/components/ui/Badge";
 import { Button } from "@/components/ui/Button";
 import { Card, Stat } from "@/components/ui/Card";
@@ -14,18 +12,21 @@ import { CheckField } from "@/components/ui/LabelledField";
 import { MultiSelect } from "@/components/ui/MultiSelect";
 import { Notice } from "@/components/ui/Notice";
 import { useUrlState } from "@/components/ui/url-state";
-import { fetchJson, type ApiError } from "@/lib/client/fetcher";
-import type { analysisMeta } from "@/lib/data/environment-analysis";
-import type { DrillResponse } from "@/lib/data/snapshot-graph";
+import { drillResponseSchema, type DrillResponse } from "@/lib/api/schemas/analysis";
+import { componentsResponseSchema } from "@/lib/api/schemas/components";
+import { environmentResponseSchema } from "@/lib/api/schemas/environments";
+import { mapGraphSchema } from "@/lib/api/schemas/map";
+import { fetchJson, useApi, type ApiError } from "@/lib/client/api";
 import { MiniMap } from "./MiniMap";
 import { incidentSummary } from "./summary";
 
-type DrillResult = DrillResponse & ReturnType<typeof analysisMeta>;
-
 const list = (v: string | null) => (v ? v.split(",").filter(Boolean) : []);
 
-async function postDrill([url, components, zones]: [string, string[], string[]]): Promise<DrillResult> {
-  return fetchJson<DrillResult>(url, {
+/** How many matches the picker offers for what was typed: a search, not the estate. */
+const PICK_LIMIT = 20;
+
+async function postDrill([url, components, zones]: [string, string[], string[]]): Promise<DrillResponse> {
+  return fetchJson(drillResponseSchema, url, {
     method: "POST",
     headers: { "content-type": "application/json" },
     body: JSON.stringify({ fail: { ...(components.length ? { components } : {}), ...(zones.length ? { zones } : {}) } }),
@@ -36,16 +37,20 @@ export function Drills({ env }: { env: string }) {
   const url = useUrlState();
   const fail = list(url.get("fail"));
   const zones = list(url.get("zones"));
-  const components = useSWR<ComponentsResponse, ApiError>(`/api/v1/environments/${env}/components`, fetchJson);
+  // The picker asks the API for what was typed; zones come with the environment's summary.
+  const [typed, setTyped] = useState("");
+  const matches = useApi(componentsResponseSchema, `/api/v1/environments/${env}/components?${new URLSearchParams({ q: typed, limit: String(PICK_LIMIT) })}`, { keepPreviousData: true });
+  const environment = useApi(environmentResponseSchema, `/api/v1/environments/${env}`);
   const hasInput = fail.length + zones.length > 0;
-  const drill = useSWR<DrillResult, ApiError>(hasInput ? [`/api/v1/environments/${env}/drills`, fail, zones] : null, postDrill, { keepPreviousData: true, revalidateOnFocus: false });
-  const graph = useSWR<MapGraph, ApiError>(drill.data ? `/api/v1/environments/${env}/graph` : null, fetchJson, { revalidateOnFocus: false });
+  const drill = useSWR<DrillResponse, ApiError>(hasInput ? [`/api/v1/environments/${env}/drills`, fail, zones] : null, postDrill, { keepPreviousData: true, revalidateOnFocus: false });
+  // Tier, zones and placeholders of what went down come with the graph the mini-map draws anyway.
+  const graph = useApi(mapGraphSchema, drill.data ? `/api/v1/environments/${env}/graph` : null, { revalidateOnFocus: false });
   const [copied, setCopied] = useState<"idle" | "copied" | "failed">("idle");
 
-  const byKey = useMemo(() => new Map(components.data?.items.map((c) => [c.key, c]) ?? []), [components.data]);
-  const undeclared = useMemo(() => new Set(components.data?.items.filter((c) => c.kind === "undeclared").map((c) => c.key) ?? []), [components.data]);
-  const options = useMemo(() => components.data?.items.map((c) => ({ value: c.key, label: c.name, hint: [c.team ?? "unowned", `tier ${c.tier}`, c.kind].join(" · ") })) ?? [], [components.data]);
-  const allZones = useMemo(() => [...new Set(components.data?.items.flatMap((c) => c.zones) ?? [])].sort(), [components.data]);
+  const byKey = useMemo(() => new Map(graph.data?.nodes.map((c) => [c.key, c]) ?? []), [graph.data]);
+  const undeclared = useMemo(() => new Set(graph.data?.nodes.filter((c) => c.undeclared).map((c) => c.key) ?? []), [graph.data]);
+  const options = useMemo(() => matches.data?.items.map((c) => ({ value: c.key, label: c.name, hint: [c.team ?? "unowned", `tier ${c.tier}`, c.kind].join(" · ") })) ?? [], [matches.data]);
+  const allZones = environment.data?.zones ?? [];
 
   const result = drill.data;
   const summary = result ? incidentSummary({ env, result, undeclared, link: typeof window === "undefined" ? "" : window.location.href }) : "";
@@ -85,7 +90,8 @@ export function Drills({ env }: { env: string }) {
             options={options}
             selected={fail}
             onChange={(next) => url.set({ fail: next.join(",") || null })}
-            placeholder={components.isLoading ? "Loading components…" : "Type a key, e.g. dns-resolver"}
+            onText={setTyped}
+            placeholder="Type a key, e.g. dns-resolver"
           />
           <fieldset className="flex flex-col gap-1">
             <legend className="mb-1 text-xs font-medium text-muted">Zones to fail</legend>

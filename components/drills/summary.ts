@@ -1,10 +1,9 @@
 // The incident summary a responder pastes into a channel: plain text, no markup, most urgent first.
-import type { DrillResponse } from "@/lib/data/snapshot-graph";
-import type { analysisMeta } from "@/lib/data/environment-analysis";
 import { dateTime, percent } from "@/components/ui/format";
+import type { DrillResponse } from "@/lib/api/schemas/analysis";
 
 
-export function incidentSummary({ env, result, link, undeclared }: { env: string; result: DrillResponse & Pick<ReturnType<typeof analysisMeta>, "snapshot">; link: string; undeclared: ReadonlySet<string> }): string {
+export function incidentSummary({ env, result, link, undeclared }: { env: string; result: DrillResponse; link: string; undeclared: ReadonlySet<string> }): string {
   const lines: string[] = [];
   const { failed } = result;
   const what = [failed.components.length ? `component${failed.components.length > 1 ? "s" : ""} ${failed.components.join(", ")}` : "", failed.zones.length ? `zone${failed.zones.length > 1 ? "s" : ""} ${failed.zones.join(", ")}` : ""].filter(Boolean).join(" and ");

@@ -1,39 +1,98 @@
 "use client";
 // Snapshots newest first; pick any two to compare (?from=&to= in the URL); the top ranks over time.
+import { createColumnHelper } from "@tanstack/react-table";
 import Link from "next/link";
 import type { ReactNode } from "react";
-import useSWR from "swr";
-import type { RankTrendResponse } from "@/components/rankings/api-types";
 import { Badge } from "@/components/ui/Badge";
 import { Card } from "@/components/ui/Card";
-import { dateTime, ageOf } from "@/components/ui/format";
+import { DataTable } from "@/components/ui/data-table/DataTable";
+import { ListSearch } from "@/components/ui/data-table/filters";
+import { useListState } from "@/components/ui/data-table/list-state";
 import { Notice } from "@/components/ui/Notice";
 import { useUrlState } from "@/components/ui/url-state";
-import { fetchJson, type ApiError } from "@/lib/client/fetcher";
-import type { SnapshotListItem } from "@/lib/data/snapshots";
-import type { SnapshotDiff } from "@/lib/inventory/snapshot";
+import { When } from "@/components/ui/When";
+import { rankTrendResponseSchema } from "@/lib/api/schemas/analysis";
+import { diffResponseSchema, SNAPSHOT_LIST, snapshotsResponseSchema, type DiffResponse, type SnapshotListItem } from "@/lib/api/schemas/history";
+import { useApi } from "@/lib/client/api";
 import { dependencyChangeLine, dependencyLine, fieldChanges } from "./diff-lines";
 import { RankChart } from "./RankChart";
 
-interface SnapshotsResponse {
-  total: number;
-  items: SnapshotListItem[];
-}
-type DiffResponse = SnapshotDiff & { from: number; to: number };
+const col = createColumnHelper<SnapshotListItem>();
 
 const STATUS_TONE = { done: "ok", running: "info", queued: "muted", failed: "down" } as const;
 
+function columns(from: number, to: number, pick: (which: "from" | "to", n: number) => void) {
+  return [
+    col.display({
+      id: "from",
+      header: "From",
+      meta: { fixed: true },
+      cell: (i) => (
+        <input type="radio" name="diff-from" aria-label={`Compare from snapshot #${i.row.original.number}`} checked={i.row.original.number === from} onChange={() => pick("from", i.row.original.number)} className="accent-[var(--color-brass)]" />
+      ),
+    }),
+    col.display({
+      id: "to",
+      header: "To",
+      meta: { fixed: true },
+      cell: (i) => (
+        <input type="radio" name="diff-to" aria-label={`Compare to snapshot #${i.row.original.number}`} checked={i.row.original.number === to} onChange={() => pick("to", i.row.original.number)} className="accent-[var(--color-brass)]" />
+      ),
+    }),
+    col.accessor("number", { header: "#", meta: { fixed: true }, cell: (i) => <span className="font-mono">#{i.getValue()}</span> }),
+    col.accessor("createdAt", { header: "When", cell: (i) => <When at={i.getValue()} /> }),
+    col.display({
+      id: "who",
+      header: "Who · source · format",
+      cell: (i) => (
+        <span className="text-xs text-muted">
+          {i.row.original.actor ?? "unknown"} · <span className="font-mono">{i.row.original.source ?? "—"}</span> · {i.row.original.format ?? "—"}
+        </span>
+      ),
+    }),
+    col.accessor("components", {
+      header: "Components",
+      meta: { numeric: true },
+      cell: (i) => (
+        <>
+          {i.getValue()}
+          {i.row.original.undeclared > 0 && (
+            <span className="text-xs text-muted" title="needed by something, declared by no source">
+              {" "}
+              ({i.row.original.undeclared} undeclared)
+            </span>
+          )}
+        </>
+      ),
+    }),
+    col.accessor("undeclared", { header: "Undeclared", meta: { numeric: true, hidden: true } }),
+    col.accessor("dependencies", { header: "Deps", meta: { numeric: true } }),
+    col.accessor("analysis", {
+      header: "Analysis",
+      enableSorting: false,
+      cell: (i) => {
+        const a = i.getValue();
+        return <Badge tone={a && a in STATUS_TONE ? STATUS_TONE[a as keyof typeof STATUS_TONE] : "muted"}>{a ?? "not queued"}</Badge>;
+      },
+    }),
+  ];
+}
+
 export function History({ env }: { env: string }) {
   const url = useUrlState();
-  const snapshots = useSWR<SnapshotsResponse, ApiError>(`/api/v1/environments/${env}/snapshots?limit=100`, fetchJson, { refreshInterval: 15_000 });
-  const trend = useSWR<RankTrendResponse, ApiError>(`/api/v1/environments/${env}/rankings/history?top=8&count=30`, fetchJson);
-  const items = snapshots.data?.items ?? [];
+  const list = useListState(SNAPSHOT_LIST, { filters: ["q"], pageSize: 25 });
+  const snapshots = useApi(snapshotsResponseSchema, `/api/v1/environments/${env}/snapshots?${list.query}`, { refreshInterval: 15_000, keepPreviousData: true });
+  // The two newest snapshots, whatever the table shows: the comparison the screen opens on.
+  const newest = useApi(snapshotsResponseSchema, `/api/v1/environments/${env}/snapshots?limit=2`, { refreshInterval: 15_000 });
+  const trend = useApi(rankTrendResponseSchema, `/api/v1/environments/${env}/rankings/history?top=8&count=30`);
+  const items = newest.data?.items ?? [];
   // ?snapshot=N (linked from the import history) shows what that snapshot changed: N−1 → N.
   const single = Number(url.get("snapshot") ?? 0);
   const from = Number(url.get("from") ?? (single ? single - 1 : (items[1]?.number ?? 0)));
   const to = Number(url.get("to") ?? (single || (items[0]?.number ?? 0)));
   const canDiff = from > 0 && to > 0 && from !== to;
-  const diff = useSWR<DiffResponse, ApiError>(canDiff ? `/api/v1/environments/${env}/snapshots/${from}/diff/${to}` : null, fetchJson);
+  const diff = useApi(diffResponseSchema, canDiff ? `/api/v1/environments/${env}/snapshots/${from}/diff/${to}` : null);
+  const pick = (which: "from" | "to", n: number) => url.set(which === "from" ? { from: String(n), to: String(to), snapshot: null } : { to: String(n), from: String(from), snapshot: null });
 
   return (
     <div className="space-y-4">
@@ -46,7 +105,7 @@ export function History({ env }: { env: string }) {
           {snapshots.error.message}
         </Notice>
       )}
-      {snapshots.data && items.length === 0 && <Notice title="No snapshot yet">Nothing has been pushed to this environment. The first push makes snapshot #1.</Notice>}
+      {newest.data && items.length === 0 && <Notice title="No snapshot yet">Nothing has been pushed to this environment. The first push makes snapshot #1.</Notice>}
 
       <Card title="Top 8 by betweenness: rank over time">
         {trend.data ? (
@@ -64,48 +123,20 @@ export function History({ env }: { env: string }) {
 
       <div className="grid gap-4 xl:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
         <Card title={`Snapshots (${snapshots.data?.total ?? "…"})`}>
-          <div className="max-h-[32rem] overflow-auto">
-            <table className="w-full text-sm" data-testid="snapshots-table">
-              <caption className="sr-only">Snapshots, newest first; choose the two to compare in the From and To columns</caption>
-              <thead className="sticky top-0 bg-surface text-left text-xs text-muted">
-                <tr>
-                  <th scope="col" className="px-1.5 py-1.5 font-medium">From</th>
-                  <th scope="col" className="px-1.5 py-1.5 font-medium">To</th>
-                  <th scope="col" className="px-1.5 py-1.5 font-medium">#</th>
-                  <th scope="col" className="px-1.5 py-1.5 font-medium">When</th>
-                  <th scope="col" className="px-1.5 py-1.5 font-medium">Who · source · format</th>
-                  <th scope="col" className="px-1.5 py-1.5 text-right font-medium">Components</th>
-                  <th scope="col" className="px-1.5 py-1.5 text-right font-medium">Deps</th>
-                  <th scope="col" className="px-1.5 py-1.5 font-medium">Analysis</th>
-                </tr>
-              </thead>
-              <tbody>
-                {items.map((s) => (
-                  <tr key={s.id} className={`border-t border-line/60 ${s.number === from || s.number === to ? "bg-raised/70" : ""}`}>
-                    <td className="px-1.5 py-1">
-                      <input type="radio" name="diff-from" aria-label={`Compare from snapshot #${s.number}`} checked={s.number === from} onChange={() => url.set({ from: String(s.number), to: String(to) })} className="accent-[var(--color-brass)]" />
-                    </td>
-                    <td className="px-1.5 py-1">
-                      <input type="radio" name="diff-to" aria-label={`Compare to snapshot #${s.number}`} checked={s.number === to} onChange={() => url.set({ to: String(s.number), from: String(from) })} className="accent-[var(--color-brass)]" />
-                    </td>
-                    <td className="px-1.5 py-1 font-mono">#{s.number}</td>
-                    <td className="px-1.5 py-1 whitespace-nowrap text-muted" title={dateTime(s.createdAt)}>{ageOf(s.createdAt)}</td>
-                    <td className="px-1.5 py-1 text-xs text-muted">
-                      {s.actor ?? "unknown"} · <span className="font-mono">{s.source ?? "—"}</span> · {s.format ?? "—"}
-                    </td>
-                    <td className="px-1.5 py-1 text-right font-mono tabular-nums">
-                      {s.components}
-                      {s.undeclared > 0 && <span className="text-xs text-muted" title="needed by something, declared by no source"> ({s.undeclared} undeclared)</span>}
-                    </td>
-                    <td className="px-1.5 py-1 text-right font-mono tabular-nums">{s.dependencies}</td>
-                    <td className="px-1.5 py-1">
-                      <Badge tone={s.analysis && s.analysis in STATUS_TONE ? STATUS_TONE[s.analysis as keyof typeof STATUS_TONE] : "muted"}>{s.analysis ?? "not queued"}</Badge>
-                    </td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
-          </div>
+          <DataTable
+            id="snapshots"
+            testId="snapshots-table"
+            caption="Snapshots, newest first; choose the two to compare in the From and To columns"
+            columns={columns(from, to, pick)}
+            data={snapshots.data?.items}
+            rowKey={(s) => s.id}
+            rowClassName={(s) => (s.number === from || s.number === to ? "bg-raised/70" : "")}
+            error={snapshots.error}
+            paging={{ mode: "server", list, total: snapshots.data?.total }}
+            noun={["snapshot", "snapshots"]}
+            empty={list.filters.q ? "No snapshot pushed by that source or person." : "No snapshot yet."}
+            filters={<ListSearch list={list} label="Source or who" placeholder="e.g. storefront-repo" />}
+          />
         </Card>
 
         <Card title={canDiff ? `From #${from} to #${to}` : "Compare two snapshots"}>

@@ -2,7 +2,7 @@
 // How the current top pinch points' ranks moved across snapshots. recharts here (one chart per
 // page, tooltips and a legend wanted); rank 1 is drawn at the top.
 import { CartesianGrid, Legend, Line, LineChart, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
-import type { RankTrend } from "@/lib/data/rank-trend";
+import type { RankTrendResponse as RankTrend } from "@/lib/api/schemas/analysis";
 
 // Okabe–Ito colour-blind-safe set plus two viridis stops: eight lines stay distinguishable.
 const COLOURS = ["#e69f00", "#56b4e9", "#009e73", "#f0e442", "#0072b2", "#d55e00", "#cc79a7", "#5ec962"];

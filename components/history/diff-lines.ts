@@ -1,5 +1,5 @@
 // A snapshot diff as sentences a person can scan: "tier 2 → 1", "checkout now needs orders-db (hard)".
-import type { ComponentChange, DependencyChange, SnapshotDependency } from "@/lib/inventory/snapshot";
+import type { ComponentChange, DependencyChange, SnapshotDependency } from "@/lib/api/schemas/history";
 
 const show = (v: unknown): string => {
   if (v === null || v === undefined) return "none";

@@ -1,11 +1,21 @@
 "use client";
-
+// What a push would change, table by table, each sorted and paged in the browser (the dry run
+// answers the whole diff at once; the counts above the tables always tell its whole size).
+import { createColumnHelper } from "@tanstack/react-table";
 import type { ReactNode } from "react";
-import type { DiffSummary } from "@/lib/data/push";
-import type { SnapshotDependency } from "@/lib/inventory/snapshot";
+import { DataTable } from "@/components/ui/data-table/DataTable";
+import type { SnapshotDependency } from "@/lib/api/schemas/history";
+import type { DiffSummary } from "@/lib/api/schemas/inventory";
 
-/** Per table: enough to review by eye; the counts above always tell the whole size. */
-const ROW_LIMIT = 200;
+type Component = DiffSummary["componentsAdded"][number];
+interface FieldRow {
+  id: string;
+  what: string;
+  label: ReactNode;
+  field: string;
+  before: unknown;
+  after: unknown;
+}
 
 function show(value: unknown): string {
   if (value === null || value === undefined) return "—";
@@ -16,7 +26,6 @@ function show(value: unknown): string {
   }
   return String(value);
 }
-
 function Count({ label, value, tone }: { label: string; value: number; tone: "add" | "remove" | "change" }) {
   const colour = value === 0 ? "text-faint" : tone === "add" ? "text-ok" : tone === "remove" ? "text-down" : "text-degraded";
   const sign = tone === "add" ? "+" : tone === "remove" ? "−" : "~";
@@ -38,48 +47,68 @@ function Section({ title, total, children }: { title: string; total: number; chi
       <h3 className="text-sm font-semibold">
         {title} <span className="font-mono text-muted">({total})</span>
       </h3>
-      <div className="overflow-x-auto rounded-md border border-line">{children}</div>
-      {total > ROW_LIMIT && <p className="text-xs text-muted">Showing the first {ROW_LIMIT} of {total}.</p>}
+      {children}
     </section>
   );
 }
 
-const th = "px-3 py-1.5 text-left text-xs font-medium uppercase tracking-wide text-faint";
-const td = "px-3 py-1.5 align-top";
+const PAGING = { mode: "client", pageSize: 25, search: { label: "Find", placeholder: "key or field" } } as const;
 
-function Table({ headers, children }: { headers: string[]; children: ReactNode }) {
+const componentCol = createColumnHelper<Component>();
+
+function ComponentTable({ id, rows, mark }: { id: string; rows: Component[]; mark: "+" | "−" }) {
+  const columns = [
+    componentCol.accessor("key", {
+      header: "Key",
+      meta: { fixed: true },
+      cell: (i) => (
+        <span className="font-mono">
+          <span className={mark === "+" ? "text-ok" : "text-down"}>{mark} </span>
+          {i.getValue()}
+        </span>
+      ),
+    }),
+    componentCol.accessor("kind", {
+      header: "Kind",
+      cell: (i) => (i.getValue() === "undeclared" ? <span className="text-undeclared" title="needed by something, declared by no source">undeclared</span> : i.getValue()),
+    }),
+    componentCol.accessor("team", {
+      header: "Team",
+      cell: (i) => i.getValue() ?? (i.row.original.kind === "undeclared" ? <span className="text-faint">—</span> : <span className="text-degraded">unowned</span>),
+    }),
+    componentCol.accessor("tier", { header: "Tier", meta: { numeric: true } }),
+    componentCol.accessor("source", { header: mark === "+" ? "Source" : "Was declared by", cell: (i) => <span className="font-mono text-xs text-muted">{i.getValue() ?? "—"}</span> }),
+  ];
   return (
-    <table className="w-full text-sm">
-      <thead className="bg-surface">
-        <tr>
-          {headers.map((h) => (
-            <th key={h} className={th}>
-              {h}
-            </th>
-          ))}
-        </tr>
-      </thead>
-      <tbody>{children}</tbody>
-    </table>
+    <DataTable
+      id={id}
+      caption={mark === "+" ? "Components added" : "Components removed"}
+      columns={columns}
+      data={rows}
+      rowKey={(c) => c.key}
+      rowTestId={() => (mark === "+" ? "diff-added" : "diff-removed")}
+      paging={PAGING}
+      noun={["component", "components"]}
+      empty="None matches."
+    />
   );
 }
 
-/** Before → after per changed field, the label shown on the first field's row only. */
-function FieldChanges({ what, items }: { what: string; items: Array<{ id: string; label: ReactNode; changes: Record<string, { before: unknown; after: unknown } | undefined> }> }) {
-  return (
-    <Table headers={[what, "Field", "Before", "After"]}>
-      {items.slice(0, ROW_LIMIT).flatMap((item) =>
-        Object.entries(item.changes).map(([field, delta], i) => (
-          <tr key={`${item.id}.${field}`} className={i === 0 ? "border-t border-line" : ""}>
-            <td className={td}>{i === 0 ? item.label : ""}</td>
-            <td className={`${td} font-mono text-xs`}>{field}</td>
-            <td className={`${td} text-down`}>{show(delta?.before)}</td>
-            <td className={`${td} text-ok`}>{show(delta?.after)}</td>
-          </tr>
-        )),
-      )}
-    </Table>
-  );
+const fieldCol = createColumnHelper<FieldRow>();
+
+/** Before → after, one row per changed field. */
+function FieldChanges({ id, what, rows }: { id: string; what: string; rows: FieldRow[] }) {
+  const columns = [
+    fieldCol.accessor("what", { header: what, meta: { fixed: true }, cell: (i) => i.row.original.label }),
+    fieldCol.accessor("field", { header: "Field", cell: (i) => <span className="font-mono text-xs">{i.getValue()}</span> }),
+    fieldCol.accessor((r) => show(r.before), { id: "before", header: "Before", cell: (i) => <span className="text-down">{i.getValue()}</span> }),
+    fieldCol.accessor((r) => show(r.after), { id: "after", header: "After", cell: (i) => <span className="text-ok">{i.getValue()}</span> }),
+  ];
+  return <DataTable id={id} caption={`${what}: fields changed`} columns={columns} data={rows} rowKey={(r) => r.id} paging={PAGING} noun={["change", "changes"]} empty="None matches." />;
+}
+
+function fieldRows(items: Array<{ id: string; what: string; label: ReactNode; changes: Record<string, { before: unknown; after: unknown } | undefined> }>): FieldRow[] {
+  return items.flatMap((item) => Object.entries(item.changes).map(([field, delta]) => ({ id: `${item.id}.${field}`, what: item.what, label: item.label, field, before: delta?.before, after: delta?.after })));
 }
 
 function dependencyLabel(d: Pick<SnapshotDependency, "from" | "to" | "group">) {
@@ -91,29 +120,40 @@ function dependencyLabel(d: Pick<SnapshotDependency, "from" | "to" | "group">) {
   );
 }
 
-function DependencyTable({ rows, mark }: { rows: SnapshotDependency[]; mark: "+" | "−" }) {
-  return (
-    <Table headers={["Dependency (needs)", "Strength", "Via", "Source"]}>
-        {rows.slice(0, ROW_LIMIT).map((d, i) => (
-          <tr key={i} className="border-t border-line">
-            <td className={td}>
-              <span className={mark === "+" ? "text-ok" : "text-down"}>{mark} </span>
-              {dependencyLabel(d)}
-            </td>
-            <td className={td}>{d.strength === "startup" ? <span title="needed to start, not to keep running">start-up only</span> : d.strength}</td>
-            <td className={`${td} text-muted`}>
-              {d.via ?? "—"}
-              {d.provenance?.includes("inferred") && (
-                <span className="ml-2 rounded border border-line px-1 text-xs text-degraded" title="a host name in configuration named it; no file declares it outright">
-                  inferred
-                </span>
-              )}
-            </td>
-            <td className={`${td} font-mono text-xs text-muted`}>{d.source ?? "—"}</td>
-          </tr>
-        ))}
-    </Table>
-  );
+const dependencyCol = createColumnHelper<SnapshotDependency>();
+const dependencyId = (d: Pick<SnapshotDependency, "from" | "to" | "group">) => `${d.from}>${d.to}>${d.group ?? ""}`;
+
+function DependencyTable({ id, rows, mark }: { id: string; rows: SnapshotDependency[]; mark: "+" | "−" }) {
+  const columns = [
+    dependencyCol.accessor((d) => `${d.from} ${d.to}`, {
+      id: "need",
+      header: "Dependency (needs)",
+      meta: { fixed: true },
+      cell: (i) => (
+        <>
+          <span className={mark === "+" ? "text-ok" : "text-down"}>{mark} </span>
+          {dependencyLabel(i.row.original)}
+        </>
+      ),
+    }),
+    dependencyCol.accessor("strength", { header: "Strength", cell: (i) => (i.getValue() === "startup" ? <span title="needed to start, not to keep running">start-up only</span> : i.getValue()) }),
+    dependencyCol.accessor((d) => d.via ?? "", {
+      id: "via",
+      header: "Via",
+      cell: (i) => (
+        <span className="text-muted">
+          {i.getValue() || "—"}
+          {i.row.original.provenance?.includes("inferred") && (
+            <span className="ml-2 rounded border border-line px-1 text-xs text-degraded" title="a host name in configuration named it; no file declares it outright">
+              inferred
+            </span>
+          )}
+        </span>
+      ),
+    }),
+    dependencyCol.accessor("source", { header: "Source", cell: (i) => <span className="font-mono text-xs text-muted">{i.getValue() ?? "—"}</span> }),
+  ];
+  return <DataTable id={id} caption={mark === "+" ? "Dependencies added" : "Dependencies removed"} columns={columns} data={rows} rowKey={dependencyId} paging={PAGING} noun={["dependency", "dependencies"]} empty="None matches." />;
 }
 
 export function DiffPreview({ diff }: { diff: DiffSummary }) {
@@ -128,52 +168,27 @@ export function DiffPreview({ diff }: { diff: DiffSummary }) {
         <Count label="Dependencies removed" value={c.dependenciesRemoved} tone="remove" />
         <Count label="Dependencies changed" value={diff.dependenciesChanged.length} tone="change" />
       </div>
-
       <Section title="Components added" total={diff.componentsAdded.length}>
-        <Table headers={["Key", "Kind", "Team", "Tier", "Source"]}>
-            {diff.componentsAdded.slice(0, ROW_LIMIT).map((comp) => (
-              <tr key={comp.key} className="border-t border-line" data-testid="diff-added">
-                <td className={`${td} font-mono`}>
-                  <span className="text-ok">+ </span>
-                  {comp.key}
-                </td>
-                <td className={`${td} ${comp.kind === "undeclared" ? "text-undeclared" : ""}`}>{comp.kind === "undeclared" ? <span title="needed by something, declared by no source">undeclared</span> : comp.kind}</td>
-                <td className={td}>{comp.team ?? (comp.kind === "undeclared" ? <span className="text-faint">—</span> : <span className="text-degraded">unowned</span>)}</td>
-                <td className={`${td} font-mono`}>{comp.tier}</td>
-                <td className={`${td} font-mono text-xs text-muted`}>{comp.source ?? "—"}</td>
-              </tr>
-            ))}
-        </Table>
+        <ComponentTable id="diff-components-added" rows={diff.componentsAdded} mark="+" />
       </Section>
-
       <Section title="Components removed" total={diff.componentsRemoved.length}>
-        <Table headers={["Key", "Kind", "Team", "Was declared by"]}>
-            {diff.componentsRemoved.slice(0, ROW_LIMIT).map((comp) => (
-              <tr key={comp.key} className="border-t border-line">
-                <td className={`${td} font-mono`}>
-                  <span className="text-down">− </span>
-                  {comp.key}
-                </td>
-                <td className={td}>{comp.kind}</td>
-                <td className={td}>{comp.team ?? "—"}</td>
-                <td className={`${td} font-mono text-xs text-muted`}>{comp.source ?? "—"}</td>
-              </tr>
-            ))}
-        </Table>
+        <ComponentTable id="diff-components-removed" rows={diff.componentsRemoved} mark="−" />
       </Section>
-
       <Section title="Components changed" total={diff.componentsChanged.length}>
-        <FieldChanges what="Key" items={diff.componentsChanged.map((c) => ({ id: c.key, label: <span className="font-mono">{c.key}</span>, changes: c.changes }))} />
+        <FieldChanges id="diff-components-changed" what="Key" rows={fieldRows(diff.componentsChanged.map((x) => ({ id: x.key, what: x.key, label: <span className="font-mono">{x.key}</span>, changes: x.changes })))} />
       </Section>
-
       <Section title="Dependencies added" total={diff.dependenciesAdded.length}>
-        <DependencyTable rows={diff.dependenciesAdded} mark="+" />
+        <DependencyTable id="diff-dependencies-added" rows={diff.dependenciesAdded} mark="+" />
       </Section>
       <Section title="Dependencies removed" total={diff.dependenciesRemoved.length}>
-        <DependencyTable rows={diff.dependenciesRemoved} mark="−" />
+        <DependencyTable id="diff-dependencies-removed" rows={diff.dependenciesRemoved} mark="−" />
       </Section>
       <Section title="Dependencies changed" total={diff.dependenciesChanged.length}>
-        <FieldChanges what="Dependency" items={diff.dependenciesChanged.map((d) => ({ id: `${d.from}>${d.to}>${d.group ?? ""}`, label: dependencyLabel(d), changes: d.changes }))} />
+        <FieldChanges
+          id="diff-dependencies-changed"
+          what="Dependency"
+          rows={fieldRows(diff.dependenciesChanged.map((d) => ({ id: dependencyId(d), what: `${d.from} ${d.to}`, label: dependencyLabel(d), changes: d.changes })))}
+        />
       </Section>
     </div>
   );

@@ -4,15 +4,16 @@
 // and the structural changes (articulation points, cycles of hard needs, tier-1 blast radius,
 // what entry points cannot avoid). Then the push controls, which a blocking policy holds back
 // unless an architect or admin records a reason.
+import { createColumnHelper } from "@tanstack/react-table";
 import Link from "next/link";
-import { useState, type ReactNode } from "react";
+import type { ReactNode } from "react";
 import { Badge } from "@/components/ui/Badge";
 import { Button } from "@/components/ui/Button";
-import { Label, TextArea } from "@/components/ui/Field";
-import type { ImpactReport } from "@/lib/impact/report";
-
-const th = "px-3 py-1.5 text-left text-xs font-medium uppercase tracking-wide text-faint";
-const td = "px-3 py-1.5 align-top";
+import { DataTable } from "@/components/ui/data-table/DataTable";
+import { ApiForm, SubmitButton, useApiForm } from "@/components/ui/form/api-form";
+import { TextAreaField } from "@/components/ui/form/fields";
+import type { ImpactReport } from "@/lib/api/schemas/impact";
+import { overrideFormSchema } from "@/lib/api/schemas/inventory";
 const score = (x: number) => x.toFixed(1);
 const signed = (x: number) => `${x > 0 ? "+" : x < 0 ? "−" : "±"}${Math.abs(x).toFixed(1)}`;
 
@@ -61,44 +62,45 @@ function Policies({ impact, fileName }: { impact: ImpactReport; fileName: string
   );
 }
 
+type MovedRow = ImpactReport["moved"][number];
+const movedCol = createColumnHelper<MovedRow>();
+
+const MOVED_COLUMNS = [
+  movedCol.accessor("key", { header: "Component", meta: { fixed: true, className: "font-mono" } }),
+  movedCol.accessor((m) => m.tier ?? 5, { id: "tier", header: "Tier", meta: { numeric: true }, cell: (i) => i.row.original.tier ?? "—" }),
+  movedCol.accessor((m) => (m.after?.pinchScore ?? 0) - (m.before?.pinchScore ?? 0), {
+    id: "pinchScore",
+    header: "Pinch score",
+    meta: { className: "font-mono tabular-nums" },
+    cell: (i) => {
+      const m = i.row.original;
+      if (m.before && m.after)
+        return (
+          <>
+            {score(m.before.pinchScore)} → {score(m.after.pinchScore)} <span className={m.after.pinchScore > m.before.pinchScore ? "text-down" : "text-ok"}>({signed(m.after.pinchScore - m.before.pinchScore)})</span>
+          </>
+        );
+      return m.after ? <>new: {score(m.after.pinchScore)}</> : <>removed (was {score(m.before!.pinchScore)})</>;
+    },
+  }),
+  movedCol.accessor((m) => m.after?.rank ?? Infinity, {
+    id: "rank",
+    header: "Rank",
+    meta: { className: "font-mono tabular-nums" },
+    cell: (i) => {
+      const m = i.row.original;
+      return m.before && m.after ? `${m.before.rank} → ${m.after.rank}` : m.after ? `new at ${m.after.rank}` : `was ${m.before!.rank}`;
+    },
+  }),
+];
+
 function Moved({ impact }: { impact: ImpactReport }) {
   if (impact.moved.length === 0) return <p className="text-sm text-muted">No component&apos;s pinch score or rank moves by more than the thresholds.</p>;
   return (
-    <div className="overflow-x-auto rounded-md border border-line">
-      <table className="w-full text-sm" data-testid="impact-moved">
-        <thead className="bg-surface">
-          <tr>
-            {["Component", "Tier", "Pinch score", "Rank"].map((h) => (
-              <th key={h} className={th}>
-                {h}
-              </th>
-            ))}
-          </tr>
-        </thead>
-        <tbody>
-          {impact.moved.slice(0, 25).map((m) => (
-            <tr key={m.key} className="border-t border-line">
-              <td className={`${td} font-mono`}>{m.key}</td>
-              <td className={`${td} font-mono`}>{m.tier ?? "—"}</td>
-              <td className={`${td} font-mono tabular-nums`}>
-                {m.before && m.after ? (
-                  <>
-                    {score(m.before.pinchScore)} → {score(m.after.pinchScore)}{" "}
-                    <span className={m.after.pinchScore > m.before.pinchScore ? "text-down" : "text-ok"}>({signed(m.after.pinchScore - m.before.pinchScore)})</span>
-                  </>
-                ) : m.after ? (
-                  <>new: {score(m.after.pinchScore)}</>
-                ) : (
-                  <>removed (was {score(m.before!.pinchScore)})</>
-                )}
-              </td>
-              <td className={`${td} font-mono tabular-nums`}>{m.before && m.after ? `${m.before.rank} → ${m.after.rank}` : m.after ? `new at ${m.after.rank}` : `was ${m.before!.rank}`}</td>
-            </tr>
-          ))}
-        </tbody>
-      </table>
-      {impact.summary.moved > 25 && <p className="px-3 py-1.5 text-xs text-muted">Showing 25 of {impact.summary.moved}; the API answer lists more.</p>}
-    </div>
+    <>
+      <DataTable id="impact-moved" caption="What moved in the ranking" columns={MOVED_COLUMNS} data={impact.moved} rowKey={(m) => m.key} paging={{ mode: "client", pageSize: 25 }} noun={["component", "components"]} empty="None." />
+      {impact.summary.moved > impact.moved.length && <p className="text-xs text-muted">The impact lists {impact.moved.length} of {impact.summary.moved}; the API answer says how many in all.</p>}
+    </>
   );
 }
 
@@ -172,7 +174,6 @@ export function ImpactPanel({ impact, fileName, env }: { impact: ImpactReport; f
  * may push anyway with a reason (the server checks the role and audits the reason).
  */
 export function GatedPush({ impact, env, canOverride, busy, onPush }: { impact: ImpactReport | undefined; env: string; canOverride: boolean; busy: boolean; onPush: (overrideReason: string | null) => void }) {
-  const [reason, setReason] = useState("");
   if (!impact?.blocked) {
     return (
       <Button type="button" variant="primary" disabled={busy} onClick={() => onPush(null)} data-testid="push-button">
@@ -190,17 +191,29 @@ export function GatedPush({ impact, env, canOverride, busy, onPush }: { impact: 
       </p>
     );
   }
-  const ok = reason.trim().length >= 10;
+  return <OverrideForm env={env} busy={busy} onPush={onPush} />;
+}
+
+/** Why an architect or admin pushes past a blocking policy: the reason is kept in the audit log. */
+function OverrideForm({ env, busy, onPush }: { env: string; busy: boolean; onPush: (overrideReason: string) => void }) {
+  const form = useApiForm(overrideFormSchema, { override_reason: "" });
+  const onSubmit = form.handleSubmit((v) => onPush(v.override_reason));
   return (
-    <div className="w-full space-y-2" data-testid="push-override">
-      <Label htmlFor="override-reason" hint="kept in the audit log with the policies it overrides">
-        A blocking policy fails. Why push it anyway?
-      </Label>
-      <TextArea id="override-reason" rows={2} maxLength={1000} value={reason} onChange={(e) => setReason(e.target.value)} placeholder="e.g. the second replica ships next sprint; accepted for the launch" />
-      <Button type="button" variant="danger" disabled={busy || !ok} onClick={() => onPush(reason.trim())} data-testid="push-override-button">
-        {busy ? "Pushing…" : `Push to ${env} despite the policy`}
-      </Button>
-      {!ok && <span className="ml-3 text-xs text-muted">At least 10 characters.</span>}
+    <div className="w-full" data-testid="push-override">
+      <ApiForm form={form} onSubmit={onSubmit} label="Push despite the policy" className="space-y-2">
+        <TextAreaField
+          name="override_reason"
+          label="A blocking policy fails. Why push it anyway?"
+          hint="kept in the audit log with the policies it overrides"
+          rows={2}
+          maxLength={1000}
+          placeholder="e.g. the second replica ships next sprint; accepted for the launch"
+          help="At least 10 characters."
+        />
+        <SubmitButton variant="danger" disabled={busy} testId="push-override-button">
+          {busy ? "Pushing…" : `Push to ${env} despite the policy`}
+        </SubmitButton>
+      </ApiForm>
     </div>
   );
 }

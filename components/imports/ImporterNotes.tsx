@@ -1,9 +1,31 @@
 "use client";
+// What the importer read into the files beyond what they say outright, grouped by kind, each note
+// with its reason and where in the files it comes from.
+import { createColumnHelper } from "@tanstack/react-table";
+import { DataTable } from "@/components/ui/data-table/DataTable";
+import type { ImportNote } from "@/lib/api/schemas/inventory";
+import type { FilePosition, ImportNoteKind } from "@/lib/inventory/types";
 
-import type { FilePosition, ImportNote, ImportNoteKind } from "@/lib/inventory/types";
+type Row = ImportNote & { id: string };
+const col = createColumnHelper<Row>();
 
-/** Per group: enough to review by eye; the count in the heading tells the whole size. */
-const ROW_LIMIT = 100;
+function columns(showTarget: boolean) {
+  return [
+    col.accessor((n) => `${n.component} ${n.target ?? ""}`, {
+      id: "component",
+      header: showTarget ? "Need" : "Component",
+      meta: { fixed: true, className: "whitespace-nowrap font-mono" },
+      cell: (i) => (
+        <>
+          {i.row.original.component}
+          {showTarget && i.row.original.target ? <> → {i.row.original.target}</> : null}
+        </>
+      ),
+    }),
+    col.accessor("reason", { header: "Why" }),
+    col.accessor((n) => where(n.at), { id: "where", header: "Where", meta: { className: "whitespace-nowrap font-mono text-xs text-muted" } }),
+  ];
+}
 
 // What each kind of note means and how to change it, in the order a reviewer should read them.
 const GROUPS: { kinds: ImportNoteKind[]; title: string; explain: string; showTarget: boolean }[] = [
@@ -48,7 +70,7 @@ export function ImporterNotes({ notes }: { notes: ImportNote[] }) {
         <p className="text-xs text-muted">Not written out in the files, so check each one: the rankings are only as good as these guesses.</p>
       </div>
       {GROUPS.map((g) => {
-        const rows = notes.filter((n) => g.kinds.includes(n.kind));
+        const rows = notes.filter((n) => g.kinds.includes(n.kind)).map((n, i) => ({ ...n, id: String(i) }));
         if (rows.length === 0) return null;
         return (
           <div key={g.title} className="space-y-1.5" data-testid={`notes-${g.kinds[0]}`}>
@@ -56,30 +78,16 @@ export function ImporterNotes({ notes }: { notes: ImportNote[] }) {
               {g.title} <span className="font-mono text-muted">({rows.length})</span>
             </h4>
             <p className="text-xs text-muted">{g.explain}</p>
-            <div className="overflow-x-auto rounded-md border border-line">
-              <table className="w-full text-sm">
-                <thead className="bg-surface">
-                  <tr>
-                    <th className="px-3 py-1.5 text-left text-xs font-medium uppercase tracking-wide text-faint">{g.showTarget ? "Need" : "Component"}</th>
-                    <th className="px-3 py-1.5 text-left text-xs font-medium uppercase tracking-wide text-faint">Why</th>
-                    <th className="px-3 py-1.5 text-left text-xs font-medium uppercase tracking-wide text-faint">Where</th>
-                  </tr>
-                </thead>
-                <tbody>
-                  {rows.slice(0, ROW_LIMIT).map((n, i) => (
-                    <tr key={i} className="border-t border-line">
-                      <td className="whitespace-nowrap px-3 py-1.5 align-top font-mono">
-                        {n.component}
-                        {g.showTarget && n.target ? <> → {n.target}</> : null}
-                      </td>
-                      <td className="px-3 py-1.5 align-top">{n.reason}</td>
-                      <td className="whitespace-nowrap px-3 py-1.5 align-top font-mono text-xs text-muted">{where(n.at)}</td>
-                    </tr>
-                  ))}
-                </tbody>
-              </table>
-            </div>
-            {rows.length > ROW_LIMIT && <p className="text-xs text-muted">Showing the first {ROW_LIMIT} of {rows.length}.</p>}
+            <DataTable
+              id={`notes-${g.kinds[0]}-table`}
+              caption={g.title}
+              columns={columns(g.showTarget)}
+              data={rows}
+              rowKey={(n) => n.id}
+              paging={{ mode: "client", pageSize: 25, search: { label: "Find", placeholder: "component or reason" } }}
+              noun={["note", "notes"]}
+              empty="None matches."
+            />
           </div>
         );
       })}

@@ -1,18 +1,21 @@
 "use client";
-
+// Upload an inventory file (or a layered Compose project), see what it would change and what it
+// does to the failure points (a dry run with impact), then push it; the history of pushes below.
 import Link from "next/link";
 import { useRef, useState, type DragEvent } from "react";
+import { useWatch } from "react-hook-form";
 import { useSWRConfig } from "swr";
 import { Button } from "@/components/ui/Button";
 import { Card } from "@/components/ui/Card";
+import { ApiForm, SubmitButton, useApiForm } from "@/components/ui/form/api-form";
+import { InputField, SelectInput } from "@/components/ui/form/fields";
+import { uploadSettingsSchema, type PushResult, type UploadSettings } from "@/lib/api/schemas/inventory";
 import { ROLE_LABELS, roleHas, type Role } from "@/lib/auth/roles";
-import type { PushResult } from "@/lib/data/push";
 import { MAX_BODY_BYTES } from "@/lib/inventory/limits";
-import type { ImportFormat } from "@/lib/inventory/types";
 import { FORMATS, detectFormat, sourceNamedIn, suggestSource, type Detection } from "./detect";
 import { DiffPreview } from "./DiffPreview";
 import { GatedPush, ImpactPanel } from "./ImpactPanel";
-import { ImportHistory } from "./ImportHistory";
+import { ImportHistory, importsKeyPrefix } from "./ImportHistory";
 import { InferredNeeds } from "./InferredNeeds";
 import { ImporterNotes } from "./ImporterNotes";
 import { IssueList } from "./IssueList";
@@ -36,8 +39,6 @@ type Stage =
   | { step: "pushed"; result: PushResult }
   | { step: "push-failed"; outcome: PushOutcome };
 
-const SOURCE_RE = /^[a-z0-9][a-z0-9._-]{0,127}$/;
-const field = "mt-1 w-full rounded-md border border-line bg-raised px-3 py-2 text-sm text-ink outline-none focus:border-brass";
 
 function size(bytes: number) {
   return bytes < 1024 ? `${bytes} B` : bytes < 1024 * 1024 ? `${(bytes / 1024).toFixed(1)} KiB` : `${(bytes / 1024 / 1024).toFixed(1)} MiB`;
@@ -122,33 +123,32 @@ export function ImportsScreen({ env, canUpload, role }: { env: string; canUpload
   const { mutate } = useSWRConfig();
   const picker = useRef<HTMLInputElement>(null);
   const [file, setFile] = useState<Picked | null>(null);
-  const [format, setFormat] = useState<ImportFormat>("pinchpoint");
-  const [source, setSource] = useState("");
-  const [profiles, setProfiles] = useState("");
   const [stage, setStage] = useState<Stage>({ step: "idle" });
   const [dragging, setDragging] = useState(false);
   const [readError, setReadError] = useState<string | null>(null);
-
+  const form = useApiForm(uploadSettingsSchema, { format: "pinchpoint", source: "", profiles: "" });
+  const format = useWatch({ control: form.control, name: "format" });
   const needsSource = format !== "pinchpoint";
-  const sourceOk = !needsSource || SOURCE_RE.test(source);
+  // Any change to the settings makes the last dry run stale.
+  const changed = () => setStage({ step: "idle" });
 
-  async function check(next: { file: Picked; format: ImportFormat; source: string; profiles: string }) {
-    if (next.format !== "pinchpoint" && !SOURCE_RE.test(next.source)) {
-      setStage({ step: "idle" });
-      return;
-    }
+  async function check(picked: Picked, settings: UploadSettings) {
     setStage({ step: "checking" });
     const outcome = await pushFile({
       env,
-      format: next.format,
-      source: next.format === "pinchpoint" ? "" : next.source,
-      text: next.file.text,
-      files: next.file.files,
-      profiles: next.profiles,
+      format: settings.format,
+      source: settings.format === "pinchpoint" ? "" : (settings.source ?? ""),
+      text: picked.text,
+      files: picked.files,
+      profiles: settings.profiles ?? "",
       dryRun: true,
     });
     setStage({ step: "checked", outcome });
   }
+
+  const checkAgain = form.handleSubmit(async (settings) => {
+    if (file) await check(file, settings);
+  });
 
   async function choose(list: FileList | File[] | null | undefined) {
     const picked = [...(list ?? [])];
@@ -168,21 +168,32 @@ export function ImportsScreen({ env, canUpload, role }: { env: string; canUpload
     const name = files.length === 1 ? (main?.name ?? "") : `${main?.name ?? ""} and ${files.length - 1} more`;
     const detected: Detection = files.length > 1 ? { format: "compose", why: "several files: a layered Compose project, merged in the order chosen" } : detectFormat(main?.name ?? "", text);
     const next: Picked = { name, size: total, text, files, detected };
-    const nextSource = detected.format === "pinchpoint" ? "" : (detected.format === "compose" ? sourceNamedIn(text) : null) ?? (source || suggestSource(main?.name ?? "upload"));
+    const current = form.getValues();
+    const nextSource = detected.format === "pinchpoint" ? "" : ((detected.format === "compose" ? sourceNamedIn(text) : null) ?? (current.source || suggestSource(main?.name ?? "upload")));
     setFile(next);
-    setFormat(detected.format);
-    setSource(nextSource);
-    await check({ file: next, format: detected.format, source: nextSource, profiles });
+    form.reset({ format: detected.format, source: nextSource, profiles: current.profiles ?? "" });
+    // A guessed setting that does not validate (a source name the user must still give) waits for "Check again".
+    await form.handleSubmit((settings) => check(next, settings), () => setStage({ step: "idle" }))();
   }
 
   async function push(preview: PushResult, overrideReason: string | null = null) {
     if (!file) return;
+    const settings = form.getValues();
     setStage({ step: "pushing", preview });
-    const outcome = await pushFile({ env, format, source: needsSource ? source : "", text: file.text, files: file.files, profiles, dryRun: false, overrideReason });
+    const outcome = await pushFile({
+      env,
+      format: settings.format,
+      source: needsSource ? (settings.source ?? "") : "",
+      text: file.text,
+      files: file.files,
+      profiles: settings.profiles ?? "",
+      dryRun: false,
+      overrideReason,
+    });
     if (outcome.kind === "ok") {
       setStage({ step: "pushed", result: outcome.result });
-      // The history's first page now has a new row.
-      await mutate((key) => typeof key === "string" && key.startsWith(`/api/v1/environments/${env}/imports`));
+      // The history's pages now have a new row.
+      await mutate((key) => typeof key === "string" && key.startsWith(importsKeyPrefix(env)));
     } else setStage({ step: "push-failed", outcome });
   }
 
@@ -255,7 +266,7 @@ export function ImportsScreen({ env, canUpload, role }: { env: string; canUpload
             )}
 
             {file && (
-              <div className="grid gap-4 md:grid-cols-[1.3fr_1fr_1fr_auto] md:items-end">
+              <ApiForm form={form} onSubmit={checkAgain} label="Upload settings" className="grid gap-4 md:grid-cols-[1.3fr_1fr_1fr_auto] md:items-start">
                 <div>
                   <div className="text-sm font-medium">File</div>
                   <div className="mt-1 truncate font-mono text-sm" data-testid="picked-file">
@@ -265,66 +276,42 @@ export function ImportsScreen({ env, canUpload, role }: { env: string; canUpload
                     Read as {FORMATS.find((f) => f.value === file.detected.format)?.label.toLowerCase()}: {file.detected.why}
                   </div>
                 </div>
-                <label className="block">
-                  <span className="text-sm font-medium">Format</span>
-                  <select
-                    className={field}
-                    value={format}
-                    onChange={(e) => {
-                      const next = e.target.value as ImportFormat;
-                      setFormat(next);
-                      if (next !== "pinchpoint" && !source) setSource(suggestSource(file.name));
-                      setStage({ step: "idle" });
-                    }}
-                  >
-                    {FORMATS.map((f) => (
-                      <option key={f.value} value={f.value}>
-                        {f.label}
-                      </option>
-                    ))}
-                  </select>
-                  <span className="mt-1 block text-xs text-muted">{FORMATS.find((f) => f.value === format)?.hint}</span>
-                </label>
-                <label className="block">
-                  <span className="text-sm font-medium">Source name</span>
-                  <input
-                    className={`${field} font-mono`}
-                    value={needsSource ? source : ""}
-                    disabled={!needsSource}
-                    placeholder={needsSource ? "e.g. storefront-repo" : "taken from the file"}
-                    onChange={(e) => {
-                      setSource(e.target.value.trim());
-                      setStage({ step: "idle" });
-                    }}
-                    aria-invalid={needsSource && !sourceOk}
-                  />
-                  <span className={`mt-1 block text-xs ${needsSource && !sourceOk ? "text-down" : "text-muted"}`}>
-                    {needsSource
-                      ? sourceOk
-                        ? "This upload replaces what this source declared before."
-                        : "Lower-case letters, digits, dot, dash or underscore."
-                      : "A Pinchpoint file names its own source."}
-                  </span>
-                </label>
+                <SelectInput
+                  name="format"
+                  label="Format"
+                  options={FORMATS.map((f) => ({ value: f.value, label: f.label }))}
+                  help={FORMATS.find((f) => f.value === format)?.hint}
+                  onChange={(e: { target: { value: string } }) => {
+                    if (e.target.value !== "pinchpoint" && !form.getValues("source")) form.setValue("source", suggestSource(file.name));
+                    changed();
+                  }}
+                />
+                <InputField
+                  name="source"
+                  label="Source name"
+                  controlClassName="font-mono"
+                  disabled={!needsSource}
+                  placeholder={needsSource ? "e.g. storefront-repo" : "taken from the file"}
+                  help={needsSource ? "This upload replaces what this source declared before." : "A Pinchpoint file names its own source."}
+                  onChange={changed}
+                />
+                <div className="md:pt-5">
+                  <SubmitButton variant="secondary" working="Checking…" disabled={stage.step === "pushing"}>
+                    Check again
+                  </SubmitButton>
+                </div>
                 {format === "compose" && (
-                  <label className="block md:col-span-2">
-                    <span className="text-sm font-medium">Profiles</span>
-                    <input
-                      className={`${field} font-mono`}
-                      value={profiles}
-                      placeholder="none: services with no profile only"
-                      onChange={(e) => {
-                        setProfiles(e.target.value.replace(/\s+/g, ""));
-                        setStage({ step: "idle" });
-                      }}
-                    />
-                    <span className="mt-1 block text-xs text-muted">Compose profiles to include, separated by commas (e.g. debug,test).</span>
-                  </label>
+                  <InputField
+                    name="profiles"
+                    label="Profiles"
+                    className="md:col-span-2"
+                    controlClassName="font-mono"
+                    placeholder="none: services with no profile only"
+                    help="Compose profiles to include, separated by commas (e.g. debug,test)."
+                    onChange={changed}
+                  />
                 )}
-                <Button type="button" disabled={!sourceOk || stage.step === "checking" || stage.step === "pushing"} onClick={() => void check({ file, format, source, profiles })}>
-                  {stage.step === "checking" ? "Checking…" : "Check again"}
-                </Button>
-              </div>
+              </ApiForm>
             )}
           </div>
         </Card>

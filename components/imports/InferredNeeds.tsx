@@ -1,16 +1,36 @@
 "use client";
+// Needs read from configuration rather than declared: each with the variable or key and the reason, to check before pushing.
+import { createColumnHelper } from "@tanstack/react-table";
+import { DataTable } from "@/components/ui/data-table/DataTable";
+import type { InferredNeed } from "@/lib/api/schemas/inventory";
 
-import type { InferredNeed } from "@/lib/inventory/inferred";
+const col = createColumnHelper<InferredNeed & { id: string }>();
 
-const ROW_LIMIT = 200;
-const td = "px-3 py-1.5 align-top";
-const th = "px-3 py-1.5 text-left text-xs font-medium uppercase tracking-wide text-faint";
+const columns = [
+  col.accessor((n) => `${n.from} ${n.to.join(" ")}`, {
+    id: "need",
+    header: "Need",
+    meta: { fixed: true },
+    cell: (i) => (
+      <span className="font-mono">
+        {i.row.original.from} → {i.row.original.to.length === 1 ? i.row.original.to[0] : `one of ${i.row.original.to.join(", ")}`}
+      </span>
+    ),
+  }),
+  col.accessor("strength", { header: "Strength", cell: (i) => (i.getValue() === "startup" ? "start-up only" : i.getValue()) }),
+  col.accessor((n) => n.via ?? "", { id: "via", header: "Via", cell: (i) => <span className="font-mono text-xs">{i.getValue() || "—"}</span> }),
+  col.accessor((n) => n.reason ?? "", { id: "reason", header: "Reason", cell: (i) => <span className="text-muted">{i.getValue() || "—"}</span> }),
+  col.accessor((n) => (n.at?.line !== undefined ? `${n.at.file ? `${n.at.file}:` : ""}${n.at.line}:${n.at.column ?? 1}` : ""), {
+    id: "line",
+    header: "Line",
+    cell: (i) => <span className="font-mono text-xs text-muted">{i.getValue() || "—"}</span>,
+  }),
+];
 
-/** Needs read from configuration rather than declared: each with the variable or key and the reason, to check before pushing. */
 export function InferredNeeds({ inferred }: { inferred: { total: number; needs: InferredNeed[] } }) {
-  const rows = inferred.needs.slice(0, ROW_LIMIT);
+  const rows = inferred.needs.map((n, i) => ({ ...n, id: String(i) }));
   return (
-    <section className="space-y-2" aria-label="Inferred needs" data-testid="inferred-needs">
+    <section className="space-y-2" aria-label="Inferred needs">
       <h3 className="text-sm font-semibold">
         Needs inferred from configuration <span className="font-mono text-muted">({inferred.total})</span>
       </h3>
@@ -18,33 +38,18 @@ export function InferredNeeds({ inferred }: { inferred: { total: number; needs: 
         Host names in environment variables, env files, ConfigMaps, commands and arguments that name another component. Nothing declared them: check each reason. How they count
         (hard or soft) is an environment setting.
       </p>
-      <div className="overflow-x-auto rounded-md border border-line">
-        <table className="w-full text-sm">
-          <thead className="bg-surface">
-            <tr>
-              {["Need", "Strength", "Via", "Reason", "Line"].map((h) => (
-                <th key={h} className={th}>
-                  {h}
-                </th>
-              ))}
-            </tr>
-          </thead>
-          <tbody>
-            {rows.map((n, i) => (
-              <tr key={i} className="border-t border-line" data-testid="inferred-need">
-                <td className={`${td} font-mono`}>
-                  {n.from} → {n.to.length === 1 ? n.to[0] : `one of ${n.to.join(", ")}`}
-                </td>
-                <td className={td}>{n.strength === "startup" ? "start-up only" : n.strength}</td>
-                <td className={`${td} font-mono text-xs`}>{n.via ?? "—"}</td>
-                <td className={`${td} text-muted`}>{n.reason ?? "—"}</td>
-                <td className={`${td} font-mono text-xs text-muted`}>{n.at?.line !== undefined ? `${n.at.file ? `${n.at.file}:` : ""}${n.at.line}:${n.at.column ?? 1}` : "—"}</td>
-              </tr>
-            ))}
-          </tbody>
-        </table>
-      </div>
-      {inferred.total > rows.length && <p className="text-xs text-muted">Showing the first {rows.length} of {inferred.total}.</p>}
+      <DataTable
+        id="inferred-needs"
+        caption="Needs inferred from configuration"
+        columns={columns}
+        data={rows}
+        rowKey={(n) => n.id}
+        rowTestId={() => "inferred-need"}
+        paging={{ mode: "client", pageSize: 25, search: { label: "Find", placeholder: "component, variable or reason" } }}
+        noun={["need", "needs"]}
+        empty="None matches."
+      />
+      {inferred.total > rows.length && <p className="text-xs text-muted">The dry run lists the first {rows.length} of {inferred.total}.</p>}
     </section>
   );
 }

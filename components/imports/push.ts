@@ -1,6 +1,7 @@
 // The push request from the browser (session cookie), with every answer of DESIGN §4 turned
-// into one value the screen can render.
-import type { PushResult } from "@/lib/data/push";
+// into one value the screen can render. Its body is a file, not JSON, so it is sent here rather
+// than through lib/client/api.ts; the answer is parsed with the same response schema.
+import { pushResultSchema, type PushResult } from "@/lib/api/schemas/inventory";
 import type { ImportFormat, InventoryIssue } from "@/lib/inventory/types";
 import { contentTypeFor } from "./detect";
 
@@ -58,8 +59,12 @@ export async function pushFile({
   } catch {
     return { kind: "refused", status: 0, message: "Could not reach Pinchpoint. Check the connection and try again." };
   }
-  const body = (await res.json().catch(() => null)) as { error?: string; message?: string; issues?: InventoryIssue[] } | null;
-  if (res.ok) return { kind: "ok", result: body as unknown as PushResult };
+  const json: unknown = await res.json().catch(() => null);
+  if (res.ok) {
+    const parsed = pushResultSchema.safeParse(json);
+    return parsed.success ? { kind: "ok", result: parsed.data } : { kind: "refused", status: res.status, message: "The server's answer did not have the expected shape" };
+  }
+  const body = json as { error?: string; message?: string; issues?: InventoryIssue[] } | null;
   const message = body?.message ?? `The server answered ${res.status}`;
   const issues = Array.isArray(body?.issues) ? body.issues : [];
   if (res.status === 409 && body?.error === "policy_blocked") return { kind: "blocked", message, issues };

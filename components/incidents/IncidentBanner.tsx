@@ -2,13 +2,13 @@
 // The overview's banner while alerts fire: which incident, since when, the probable origin as last
 // ranked, and the way to the live screen. Reads the light history endpoint (no origin computation).
 import Link from "next/link";
-import useSWR from "swr";
-import { dateTime, plural } from "@/components/ui/format";
-import { fetchJson, type ApiError } from "@/lib/client/fetcher";
-import type { IncidentHistoryResponse } from "@/lib/incidents/types";
+import { plural } from "@/components/ui/format";
+import { When } from "@/components/ui/When";
+import { incidentHistoryResponseSchema } from "@/lib/api/schemas/incidents";
+import { useApi } from "@/lib/client/api";
 
 export function IncidentBanner({ env }: { env: string }) {
-  const latest = useSWR<IncidentHistoryResponse, ApiError>(`/api/v1/environments/${env}/incidents?limit=1`, fetchJson, { refreshInterval: 15_000 });
+  const latest = useApi(incidentHistoryResponseSchema, `/api/v1/environments/${env}/incidents?limit=1`, { refreshInterval: 15_000 });
   const open = latest.data?.items[0]?.status === "open" ? latest.data.items[0] : null;
   if (!open) return null;
   const origin = open.ranking?.origins[0];
@@ -16,7 +16,7 @@ export function IncidentBanner({ env }: { env: string }) {
     <div role="alert" className="flex flex-wrap items-center gap-x-3 gap-y-1 rounded-md border border-down/60 bg-down/10 px-4 py-3 text-sm" data-testid="incident-banner">
       <span className="font-semibold text-down">Incident #{open.number} open</span>
       <span className="text-ink">
-        since {dateTime(open.openedAt)} · {plural(open.firingAlerts, "alert")} firing
+        since <When at={open.openedAt} /> · {plural(open.firingAlerts, "alert")} firing
         {origin ? (
           <>
             {" "}

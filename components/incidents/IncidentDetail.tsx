@@ -3,17 +3,17 @@
 // when the most components fired.
 import Link from "next/link";
 import type { ReactNode } from "react";
-import useSWR from "swr";
 import { Badge } from "@/components/ui/Badge";
 import { Card, Stat } from "@/components/ui/Card";
 import { Notice } from "@/components/ui/Notice";
-import { dateTime, safeHref } from "@/components/ui/format";
-import { fetchJson, type ApiError } from "@/lib/client/fetcher";
-import type { IncidentDetailResponse } from "@/lib/incidents/types";
+import { When } from "@/components/ui/When";
+import { incidentDetailResponseSchema } from "@/lib/api/schemas/incidents";
+import { useApi } from "@/lib/client/api";
 import { lift } from "@/lib/incidents/view";
+import { AlertsTable } from "./AlertsTable";
 
 export function IncidentDetail({ env, number }: { env: string; number: number }) {
-  const detail = useSWR<IncidentDetailResponse, ApiError>(`/api/v1/environments/${env}/incidents/${number}`, fetchJson, { refreshInterval: 30_000 });
+  const detail = useApi(incidentDetailResponseSchema, `/api/v1/environments/${env}/incidents/${number}`, { refreshInterval: 30_000 });
   const d = detail.data;
   const r = d?.incident.ranking;
   const link = (k: string) => (
@@ -32,7 +32,15 @@ export function IncidentDetail({ env, number }: { env: string; number: number })
         <h1 className="text-2xl font-semibold tracking-tight">Incident #{number}</h1>
         {d && (
           <p className="mt-1 text-sm text-muted" data-testid="incident-times">
-            Opened {dateTime(d.incident.openedAt)} · {d.incident.resolvedAt ? `resolved ${dateTime(d.incident.resolvedAt)}${d.incident.resolvedBy ? ` (${d.incident.resolvedBy})` : ""}` : "still open"}
+            Opened <When at={d.incident.openedAt} /> ·{" "}
+            {d.incident.resolvedAt ? (
+              <>
+                resolved <When at={d.incident.resolvedAt} />
+                {d.incident.resolvedBy ? ` (${d.incident.resolvedBy})` : ""}
+              </>
+            ) : (
+              "still open"
+            )}
           </p>
         )}
       </div>
@@ -62,7 +70,15 @@ export function IncidentDetail({ env, number }: { env: string; number: number })
               <Card title="Origin ranking at the peak">
                 <div className="space-y-2 text-sm" data-testid="stored-ranking">
                   <p className="text-xs text-muted">
-                    Computed {dateTime(r.computedAt)} on snapshot {r.snapshot ? `#${r.snapshot.number} (pushed ${dateTime(r.snapshot.createdAt)})` : "none"}.
+                    Computed <When at={r.computedAt} /> on snapshot{" "}
+                    {r.snapshot ? (
+                      <>
+                        #{r.snapshot.number} (pushed <When at={r.snapshot.createdAt} />)
+                      </>
+                    ) : (
+                      "none"
+                    )}
+                    .
                   </p>
                   {r.origins.length === 0 && <p className="text-muted">No firing component&apos;s failure explained another one.</p>}
                   <ol className="space-y-1">
@@ -96,33 +112,7 @@ export function IncidentDetail({ env, number }: { env: string; number: number })
             </div>
           )}
           <Card title="Alerts and their lifetimes">
-            <div className="overflow-x-auto">
-              <table className="w-full text-left text-sm" data-testid="incident-alerts">
-                <thead className="text-xs uppercase tracking-wide text-faint">
-                  <tr>
-                    <th className="py-2 pr-4 font-medium">Component</th>
-                    <th className="py-2 pr-4 font-medium">Alert</th>
-                    <th className="py-2 pr-4 font-medium">Severity</th>
-                    <th className="py-2 pr-4 font-medium">Started</th>
-                    <th className="py-2 pr-4 font-medium">Ended</th>
-                  </tr>
-                </thead>
-                <tbody className="divide-y divide-line">
-                  {d.alerts.map((a) => {
-                    const href = a.link ? safeHref(a.link) : null;
-                    return (
-                      <tr key={a.id}>
-                        <td className="py-1.5 pr-4">{a.component ? link(a.component) : <Badge tone="degraded">unknown: {a.named?.value ?? "no label"}</Badge>}</td>
-                        <td className="py-1.5 pr-4">{href ? <a href={href} className="text-info hover:underline" target="_blank" rel="noreferrer">{a.name ?? a.summary ?? a.fingerprint}</a> : (a.name ?? a.summary ?? a.fingerprint)}</td>
-                        <td className="py-1.5 pr-4">{a.severity ?? "—"}</td>
-                        <td className="py-1.5 pr-4 font-mono text-xs">{dateTime(a.startsAt)}</td>
-                        <td className="py-1.5 pr-4 font-mono text-xs">{a.endsAt ? dateTime(a.endsAt) : <Badge tone="down">firing</Badge>}</td>
-                      </tr>
-                    );
-                  })}
-                </tbody>
-              </table>
-            </div>
+            <AlertsTable env={env} alerts={d.alerts} show="history" />
           </Card>
         </>
       )}

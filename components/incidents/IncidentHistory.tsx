@@ -1,18 +1,20 @@
 "use client";
 // Every incident kept with its origin ranking, and beside the history: which components actually
 // caused incidents next to the ones the measures rank highest.
+import { createColumnHelper } from "@tanstack/react-table";
 import Link from "next/link";
-import { useState } from "react";
-import useSWR from "swr";
 import { Badge } from "@/components/ui/Badge";
-import { Button } from "@/components/ui/Button";
 import { Card } from "@/components/ui/Card";
-import { dateTime, pinchScore } from "@/components/ui/format";
-import { fetchJson, type ApiError } from "@/lib/client/fetcher";
-import type { IncidentHistoryResponse, IncidentRow } from "@/lib/incidents/types";
+import { DataTable } from "@/components/ui/data-table/DataTable";
+import { ListSelect } from "@/components/ui/data-table/filters";
+import { useListState } from "@/components/ui/data-table/list-state";
+import { pinchScore } from "@/components/ui/format";
+import { When } from "@/components/ui/When";
+import { INCIDENT_LIST, incidentHistoryResponseSchema, type IncidentRow } from "@/lib/api/schemas/incidents";
+import { useApi } from "@/lib/client/api";
 import { INCIDENT_REFRESH_MS } from "./refresh";
 
-const PAGE = 20;
+const col = createColumnHelper<IncidentRow>();
 
 function duration(row: IncidentRow): string {
   const end = row.resolvedAt ? Date.parse(row.resolvedAt) : Date.now();
@@ -20,9 +22,44 @@ function duration(row: IncidentRow): string {
   return minutes < 60 ? `${minutes} min` : `${Math.floor(minutes / 60)} h ${minutes % 60} min`;
 }
 
+function columns(env: string, link: (k: string) => React.ReactNode) {
+  return [
+    col.accessor("number", {
+      header: "#",
+      meta: { fixed: true },
+      cell: (i) => (
+        <Link href={`/environments/${env}/incidents/${i.getValue()}`} className="font-mono text-brass hover:underline">
+          #{i.getValue()}
+        </Link>
+      ),
+    }),
+    col.accessor("openedAt", { header: "Opened", cell: (i) => <When at={i.getValue()} /> }),
+    col.display({ id: "lasted", header: "Lasted", cell: (i) => (i.row.original.status === "open" ? <Badge tone="down">open, {duration(i.row.original)}</Badge> : duration(i.row.original)) }),
+    col.accessor("peakFiring", { header: "Peak", meta: { numeric: true, help: "Most components firing at once" }, cell: (i) => `${i.getValue()} firing` }),
+    col.accessor("alertCount", { header: "Alerts", meta: { numeric: true } }),
+    col.display({
+      id: "origin",
+      header: "Probable origin",
+      cell: (i) => {
+        const r = i.row.original.ranking;
+        const origin = r?.origins[0];
+        if (!origin) return <span className="text-faint">none found</span>;
+        return (
+          <>
+            {link(origin.key)} <span className="text-muted">explains {origin.explains} of {r.firing.length}</span>
+            {r.origins.length > 1 && <span className="text-muted"> (+{r.origins.length - 1} more)</span>}
+          </>
+        );
+      },
+    }),
+    col.display({ id: "snapshot", header: "Snapshot", cell: (i) => <span className="font-mono text-xs">{i.row.original.ranking?.snapshot ? `#${i.row.original.ranking.snapshot.number}` : "—"}</span> }),
+    col.accessor("resolvedBy", { header: "Closed by", meta: { hidden: true }, cell: (i) => i.getValue() ?? <span className="text-faint">its alerts</span> }),
+  ];
+}
+
 export function IncidentHistory({ env }: { env: string }) {
-  const [offset, setOffset] = useState(0);
-  const history = useSWR<IncidentHistoryResponse, ApiError>(`/api/v1/environments/${env}/incidents?limit=${PAGE}&offset=${offset}`, fetchJson, { refreshInterval: INCIDENT_REFRESH_MS, keepPreviousData: true });
+  const list = useListState(INCIDENT_LIST, { filters: ["status"], prefix: "history", pageSize: 25 });
+  const history = useApi(incidentHistoryResponseSchema, `/api/v1/environments/${env}/incidents?${list.query}`, { refreshInterval: INCIDENT_REFRESH_MS, keepPreviousData: true });
   const data = history.data;
   const link = (k: string) => (
     <Link href={`/environments/${env}/components/${encodeURIComponent(k)}`} className="font-mono text-ink hover:text-brass">
@@ -47,7 +84,7 @@ export function IncidentHistory({ env }: { env: string }) {
                   <li key={c.key} className="flex items-center gap-2">
                     {link(c.key)}
                     <span className="text-muted">
-                      {c.incidents} incident{c.incidents === 1 ? "" : "s"}, last {dateTime(c.lastAt)}
+                      {c.incidents} incident{c.incidents === 1 ? "" : "s"}, last <When at={c.lastAt} />
                     </span>
                     <span className="ml-auto">
                       {c.pinchRank !== null ? <Badge tone={c.pinchRank <= 10 ? "info" : "muted"}>rank {c.pinchRank}</Badge> : <Badge tone="degraded">not in today&apos;s ranking</Badge>}
@@ -72,67 +109,29 @@ export function IncidentHistory({ env }: { env: string }) {
           </Card>
         </div>
       )}
-      <Card title="Incidents" action={data && data.total > 0 ? <span className="text-xs text-muted">{offset + 1}–{Math.min(offset + PAGE, data.total)} of {data.total}</span> : undefined}>
-        {!data ? (
-          <p className="text-sm text-muted">Loading…</p>
-        ) : data.items.length === 0 ? (
-          <p className="text-sm text-muted">No incident yet: one opens with the first alert and closes when the last one resolves.</p>
-        ) : (
-          <div className="overflow-x-auto">
-            <table className="w-full text-left text-sm" data-testid="incident-history">
-              <thead className="text-xs uppercase tracking-wide text-faint">
-                <tr>
-                  <th className="py-2 pr-4 font-medium">#</th>
-                  <th className="py-2 pr-4 font-medium">Opened</th>
-                  <th className="py-2 pr-4 font-medium">Lasted</th>
-                  <th className="py-2 pr-4 font-medium">Peak</th>
-                  <th className="py-2 pr-4 font-medium">Probable origin</th>
-                  <th className="py-2 pr-4 font-medium">Snapshot</th>
-                </tr>
-              </thead>
-              <tbody className="divide-y divide-line">
-                {data.items.map((i) => {
-                  const origin = i.ranking?.origins[0];
-                  const firing = i.ranking?.firing.length ?? 0;
-                  return (
-                    <tr key={i.number}>
-                      <td className="py-1.5 pr-4">
-                        <Link href={`/environments/${env}/incidents/${i.number}`} className="font-mono text-brass hover:underline">
-                          #{i.number}
-                        </Link>
-                      </td>
-                      <td className="py-1.5 pr-4 font-mono text-xs">{dateTime(i.openedAt)}</td>
-                      <td className="py-1.5 pr-4">{i.status === "open" ? <Badge tone="down">open, {duration(i)}</Badge> : duration(i)}</td>
-                      <td className="py-1.5 pr-4">{i.peakFiring} firing</td>
-                      <td className="py-1.5 pr-4">
-                        {origin ? (
-                          <>
-                            {link(origin.key)} <span className="text-muted">explains {origin.explains} of {firing}</span>
-                            {(i.ranking?.origins.length ?? 0) > 1 && <span className="text-muted"> (+{(i.ranking?.origins.length ?? 1) - 1} more)</span>}
-                          </>
-                        ) : (
-                          <span className="text-faint">none found</span>
-                        )}
-                      </td>
-                      <td className="py-1.5 pr-4 font-mono text-xs">{i.ranking?.snapshot ? `#${i.ranking.snapshot.number}` : "—"}</td>
-                    </tr>
-                  );
-                })}
-              </tbody>
-            </table>
-          </div>
-        )}
-        {data && data.total > PAGE && (
-          <div className="mt-3 flex gap-2">
-            <Button type="button" disabled={offset === 0} onClick={() => setOffset(Math.max(0, offset - PAGE))}>
-              Newer
-            </Button>
-            <Button type="button" disabled={offset + PAGE >= data.total} onClick={() => setOffset(offset + PAGE)}>
-              Older
-            </Button>
-          </div>
-        )}
-      </Card>
+      <DataTable
+        id="incident-history"
+        caption="Incidents"
+        columns={columns(env, link)}
+        data={data?.items}
+        rowKey={(i) => String(i.number)}
+        error={history.error}
+        paging={{ mode: "server", list, total: data?.total }}
+        noun={["incident", "incidents"]}
+        empty={list.filters.status ? "No incident with this status." : "No incident yet: one opens with the first alert and closes when the last one resolves."}
+        filters={
+          <ListSelect
+            list={list}
+            name="status"
+            label="Status"
+            all="Open and resolved"
+            options={[
+              { value: "open", label: "Open" },
+              { value: "resolved", label: "Resolved" },
+            ]}
+          />
+        }
+      />
     </section>
   );
 }

@@ -4,17 +4,17 @@
 // alerts without a reload; the caution that this is a probability, not a diagnosis, stays on top.
 import Link from "next/link";
 import { useState } from "react";
-import useSWR from "swr";
 import { Badge } from "@/components/ui/Badge";
 import { Button } from "@/components/ui/Button";
 import { Card, Stat } from "@/components/ui/Card";
-import { FormError, Label, TextInput } from "@/components/ui/Field";
+import { ApiForm, FormProblem, SubmitButton, submitWith, useApiForm } from "@/components/ui/form/api-form";
+import { InputField } from "@/components/ui/form/fields";
 import { Notice } from "@/components/ui/Notice";
-import { ageFromSeconds, ageOf, dateTime, plural, safeHref } from "@/components/ui/format";
-import { sendJson } from "@/components/ui/send-json";
-import { fetchJson, type ApiError } from "@/lib/client/fetcher";
-import type { CurrentIncidentResponse, IncidentAlert } from "@/lib/incidents/types";
-import { lift, type PageEntry } from "@/lib/incidents/view";
+import { ageFromSeconds, dateTime, plural } from "@/components/ui/format";
+import { currentIncidentResponseSchema, resolvedIncidentSchema, resolveIncidentSchema, type PageEntry } from "@/lib/api/schemas/incidents";
+import { sendJson, useApi } from "@/lib/client/api";
+import { lift } from "@/lib/incidents/view";
+import { AlertsTable } from "./AlertsTable";
 import { IncidentHistory } from "./IncidentHistory";
 import { INCIDENT_REFRESH_MS } from "./refresh";
 import { WebhookHelp } from "./WebhookHelp";
@@ -53,59 +53,6 @@ function KeyList({ env, keys, max = 24, firing }: { env: string; keys: string[];
         </button>
       )}
     </span>
-  );
-}
-
-function AlertName({ a }: { a: IncidentAlert }) {
-  const href = a.link ? safeHref(a.link) : null;
-  const name = a.name ?? a.summary ?? a.fingerprint;
-  return href ? (
-    <a href={href} className="text-info hover:underline" target="_blank" rel="noreferrer">
-      {name}
-    </a>
-  ) : (
-    <span>{name}</span>
-  );
-}
-
-function AlertsTable({ env, alerts, resolved }: { env: string; alerts: IncidentAlert[]; resolved?: boolean }) {
-  return (
-    <div className="overflow-x-auto">
-      <table className="w-full text-left text-sm" data-testid={resolved ? "resolved-alerts" : "firing-alerts"}>
-        <thead className="text-xs uppercase tracking-wide text-faint">
-          <tr>
-            <th className="py-2 pr-4 font-medium">Component</th>
-            <th className="py-2 pr-4 font-medium">Alert</th>
-            <th className="py-2 pr-4 font-medium">Severity</th>
-            <th className="py-2 pr-4 font-medium">Since</th>
-            <th className="py-2 pr-4 font-medium">{resolved ? "Resolved" : "Last heard"}</th>
-          </tr>
-        </thead>
-        <tbody className="divide-y divide-line">
-          {alerts.map((a) => (
-            <tr key={a.id}>
-              <td className="py-1.5 pr-4">
-                {a.component ? (
-                  <KeyLink env={env} k={a.component} />
-                ) : (
-                  <span className="inline-flex items-center gap-1">
-                    <Badge tone="degraded" title="No component key or alias matches what the alert names">unknown</Badge>
-                    <span className="font-mono text-xs text-muted">{a.named ? `${a.named.label ? `${a.named.label}=` : ""}${a.named.value}` : "no component label"}</span>
-                  </span>
-                )}
-              </td>
-              <td className="py-1.5 pr-4">
-                <AlertName a={a} />
-                {a.summary && a.name && <span className="ml-2 text-xs text-muted">{a.summary}</span>}
-              </td>
-              <td className="py-1.5 pr-4">{a.severity ? <Badge tone={/crit|page|high|error/i.test(a.severity) ? "down" : "muted"}>{a.severity}</Badge> : <span className="text-faint">—</span>}</td>
-              <td className="py-1.5 pr-4 font-mono text-xs">{dateTime(a.startsAt)}</td>
-              <td className="py-1.5 pr-4 font-mono text-xs">{resolved && a.endsAt ? dateTime(a.endsAt) : ageOf(a.lastReceivedAt)}</td>
-            </tr>
-          ))}
-        </tbody>
-      </table>
-    </div>
   );
 }
 
@@ -168,43 +115,39 @@ function PageList({ env, page }: { env: string; page: PageEntry[] }) {
 
 function ResolveByHand({ env, number, onDone }: { env: string; number: number; onDone(): void }) {
   const [open, setOpen] = useState(false);
-  const [reason, setReason] = useState("");
-  const [error, setError] = useState<string | null>(null);
+  const form = useApiForm(resolveIncidentSchema, { reason: "" });
   if (!open)
     return (
       <Button type="button" variant="ghost" onClick={() => setOpen(true)}>
         Close by hand…
       </Button>
     );
+  const onSubmit = submitWith(
+    form,
+    (values) => sendJson(resolvedIncidentSchema, `/api/v1/environments/${env}/incidents/${number}/resolve`, "POST", values),
+    () => {
+      setOpen(false);
+      onDone();
+    },
+  );
   return (
-    <form
-      className="flex flex-wrap items-end gap-2"
-      aria-label="Close the incident by hand"
-      onSubmit={async (e) => {
-        e.preventDefault();
-        const res = await sendJson(`/api/v1/environments/${env}/incidents/${number}/resolve`, "POST", { reason });
-        if (!res.ok) return setError(res.message);
-        setOpen(false);
-        onDone();
-      }}
-    >
-      <div className="min-w-64 flex-1">
-        <Label htmlFor="resolve-reason" hint="its firing alerts end now; audited">Why is it over?</Label>
-        <TextInput id="resolve-reason" required value={reason} onChange={(e) => setReason(e.target.value)} placeholder="the monitor never sends resolved alerts" />
+    <ApiForm form={form} onSubmit={onSubmit} label="Close the incident by hand" className="flex flex-wrap items-start gap-2">
+      <InputField name="reason" label="Why is it over?" hint="its firing alerts end now; audited" placeholder="the monitor never sends resolved alerts" className="min-w-64 flex-1" />
+      <div className="flex gap-2 pt-5">
+        <SubmitButton variant="danger" working="Closing…">
+          Close incident
+        </SubmitButton>
+        <Button type="button" variant="ghost" onClick={() => setOpen(false)}>
+          Cancel
+        </Button>
       </div>
-      <Button type="submit" variant="danger">
-        Close incident
-      </Button>
-      <Button type="button" variant="ghost" onClick={() => setOpen(false)}>
-        Cancel
-      </Button>
-      <FormError message={error} />
-    </form>
+      <FormProblem className="basis-full" />
+    </ApiForm>
   );
 }
 
 export function IncidentScreen({ env, canWrite }: { env: string; canWrite: boolean }) {
-  const current = useSWR<CurrentIncidentResponse, ApiError>(`/api/v1/environments/${env}/incidents/current`, fetchJson, { refreshInterval: INCIDENT_REFRESH_MS });
+  const current = useApi(currentIncidentResponseSchema, `/api/v1/environments/${env}/incidents/current`, { refreshInterval: INCIDENT_REFRESH_MS });
   const [copied, setCopied] = useState<"idle" | "copied" | "failed">("idle");
   const data = current.data;
   const copy = async () => {
@@ -423,11 +366,11 @@ export function IncidentScreen({ env, canWrite }: { env: string; canWrite: boole
           </details>
 
           <Card title={`Firing alerts (${data.firingAlerts.length})`}>
-            <AlertsTable env={env} alerts={data.firingAlerts} />
+            <AlertsTable env={env} alerts={data.firingAlerts} show="firing" />
           </Card>
           {data.resolvedAlerts.length > 0 && (
             <Card title={`Resolved during this incident (${data.resolvedAlerts.length})`}>
-              <AlertsTable env={env} alerts={data.resolvedAlerts} resolved />
+              <AlertsTable env={env} alerts={data.resolvedAlerts} show="resolved" />
             </Card>
           )}
           {firingSet.size === 0 && <p className="text-sm text-muted">Every firing alert names a component this environment does not know.</p>}

@@ -4,14 +4,13 @@
 // focuses on the first origin unless the URL names a focus.
 import Link from "next/link";
 import { useMemo, type ReactNode } from "react";
-import useSWR from "swr";
 import type { IncidentMark } from "@/components/map/nodes";
-import { fetchJson, type ApiError } from "@/lib/client/fetcher";
-import type { CurrentIncidentResponse } from "@/lib/incidents/types";
+import { currentIncidentResponseSchema } from "@/lib/api/schemas/incidents";
+import { useApi } from "@/lib/client/api";
 import { INCIDENT_REFRESH_MS } from "./refresh";
 
 export function useIncidentOverlay(env: string, on: boolean): { marks: ReadonlyMap<string, IncidentMark> | undefined; focus: string | null; legend: ReactNode } {
-  const current = useSWR<CurrentIncidentResponse, ApiError>(on ? `/api/v1/environments/${env}/incidents/current` : null, fetchJson, { refreshInterval: INCIDENT_REFRESH_MS });
+  const current = useApi(currentIncidentResponseSchema, on ? `/api/v1/environments/${env}/incidents/current` : null, { refreshInterval: INCIDENT_REFRESH_MS });
   const data = current.data;
   const marks = useMemo(() => {
     if (!data) return undefined;

@@ -1,21 +1,21 @@
 "use client";
 // Side panel for one component: what its measures mean for an on-call engineer, what it
 // needs and who needs it, and (for leads, architects, admins) owner and notes.
-import { useId, useState, type FormEvent, type ReactNode } from "react";
-import { z } from "zod";
-import { SLUG_PATTERN } from "@/lib/inventory/types";
+import { useState, type ReactNode } from "react";
+import { ApiForm, FormProblem, SERVER_ERROR, SubmitButton, useApiForm } from "@/components/ui/form/api-form";
+import { SelectInput, TextAreaField } from "@/components/ui/form/fields";
 import { betweennessPct, convergedMeasure, measure, pinchScore } from "@/components/ui/format";
+import { annotateBodySchema } from "@/lib/api/schemas/components";
+import type { ApiError } from "@/lib/client/api";
 import { KIND_LABEL } from "./shapes";
 import type { MapGraph, MapMetrics, MapNode } from "./types";
 
-export const NOTES_MAX = 4000;
-
-const saveSchema = z.object({
-  key: z.string().min(1),
-  team: z.string().regex(SLUG_PATTERN).nullable(),
-  notes: z.string().max(NOTES_MAX),
-});
-export type InspectorSave = z.infer<typeof saveSchema>;
+/** What the inspector saves: the owner team (null: unowned) and the notes, as PATCH …/components/{key} takes them. */
+export interface InspectorSave {
+  key: string;
+  team: string | null;
+  notes: string | null;
+}
 
 type MeasureRow = { id: keyof MapMetrics; label: string; meaning: string; format(m: MapMetrics): string };
 
@@ -89,9 +89,11 @@ export interface InspectorProps {
   needs: MapNode[];
   dependents: MapNode[];
   teams: MapGraph["teams"];
+  /** undefined while the component's notes are still loading */
   notes?: string | null;
   canEdit: boolean;
-  onSave?(value: InspectorSave): Promise<void>;
+  /** resolves on success; an ApiError's issues go beside the fields */
+  onSave?(value: InspectorSave): Promise<ApiError | null>;
   onSelect?(key: string): void;
   onClose?(): void;
   /** shown under the key, e.g. the component's risk-review status */
@@ -141,42 +143,37 @@ function LinkList(props: { title: string; items: MapNode[]; onSelect?(key: strin
   );
 }
 
+/** Owner and notes of one component, for leads of its team, architects and admins. */
+function OwnerForm({ node, teams, notes, onSave }: { node: MapNode; teams: MapGraph["teams"]; notes: string | null | undefined; onSave(value: InspectorSave): Promise<ApiError | null> }) {
+  const form = useApiForm(annotateBodySchema, { team: node.team, notes: notes ?? null });
+  const [saved, setSaved] = useState(false);
+  const onSubmit = form.handleSubmit(async (values) => {
+    setSaved(false);
+    const error = await onSave({ key: node.key, team: values.team ?? null, notes: values.notes ?? null });
+    if (!error) return setSaved(true);
+    const field = error.issues.find((i) => /^body\.(team|notes)$/.test(i.path));
+    if (field) form.setError(field.path.slice(5) as "team" | "notes", { type: "server", message: field.message });
+    else form.setError(SERVER_ERROR, { type: "server", message: error.message });
+  });
+  return (
+    <ApiForm form={form} onSubmit={onSubmit} label={`Owner and notes of ${node.key}`} className="mt-2 space-y-2">
+      <SelectInput name="team" label="Owner team" blank="null" options={[{ value: "", label: "Unowned" }, ...teams.map((t) => ({ value: t.slug, label: t.name }))]} onChange={() => setSaved(false)} />
+      <TextAreaField name="notes" label="Notes" blank="null" rows={4} maxLength={5000} onChange={() => setSaved(false)} />
+      <div className="flex items-center gap-3">
+        <SubmitButton working="Saving…">Save</SubmitButton>
+        <span role="status" className="text-sm">
+          {saved ? <span className="text-ok">Saved</span> : null}
+        </span>
+      </div>
+      <FormProblem />
+    </ApiForm>
+  );
+}
+
 export function Inspector(props: InspectorProps) {
   const { node, canEdit } = props;
-  const formId = useId();
-  const [team, setTeam] = useState<string>(node.team ?? "");
-  const [notes, setNotes] = useState<string>(props.notes ?? "");
-  const [status, setStatus] = useState<{ kind: "idle" | "saving" | "saved" } | { kind: "error"; message: string }>({
-    kind: "idle",
-  });
-  // Reset the form when another component is inspected (state adjusted during render, not in an effect).
-  const [shownKey, setShownKey] = useState(node.key);
-  if (shownKey !== node.key) {
-    setShownKey(node.key);
-    setTeam(node.team ?? "");
-    setNotes(props.notes ?? "");
-    setStatus({ kind: "idle" });
-  }
-
   const teamName = node.team ? (props.teams.find((t) => t.slug === node.team)?.name ?? node.team) : null;
   const blastHref = `/environments/${encodeURIComponent(props.environment)}/drills?fail=${encodeURIComponent(node.key)}`;
-
-  async function submit(event: FormEvent<HTMLFormElement>) {
-    event.preventDefault();
-    const parsed = saveSchema.safeParse({ key: node.key, team: team === "" ? null : team, notes });
-    if (!parsed.success) {
-      setStatus({ kind: "error", message: parsed.error.issues[0]?.message ?? "Invalid input" });
-      return;
-    }
-    if (!props.onSave) return;
-    setStatus({ kind: "saving" });
-    try {
-      await props.onSave(parsed.data);
-      setStatus({ kind: "saved" });
-    } catch (err) {
-      setStatus({ kind: "error", message: err instanceof Error ? err.message : "Could not save" });
-    }
-  }
 
   return (
     <aside aria-label={`Inspector: ${node.name}`} className="pp-inspector flex h-full flex-col overflow-y-auto bg-surface p-4 text-ink">
@@ -246,48 +243,8 @@ export function Inspector(props: InspectorProps) {
       <section aria-label="Owner and notes" className="mt-4">
         <h3 className="text-xs font-semibold uppercase tracking-wide text-muted">Owner and notes</h3>
         {canEdit && props.onSave ? (
-          <form onSubmit={submit} className="mt-2 space-y-2" aria-describedby={`${formId}-status`}>
-            <label className="block text-sm" htmlFor={`${formId}-team`}>
-              Owner team
-            </label>
-            <select
-              id={`${formId}-team`}
-              value={team}
-              onChange={(e) => setTeam(e.target.value)}
-              className="w-full rounded border border-line bg-raised px-2 py-1 text-sm text-ink"
-            >
-              <option value="">Unowned</option>
-              {props.teams.map((t) => (
-                <option key={t.slug} value={t.slug}>
-                  {t.name}
-                </option>
-              ))}
-            </select>
-            <label className="block text-sm" htmlFor={`${formId}-notes`}>
-              Notes
-            </label>
-            <textarea
-              id={`${formId}-notes`}
-              value={notes}
-              maxLength={NOTES_MAX}
-              rows={4}
-              onChange={(e) => setNotes(e.target.value)}
-              className="w-full rounded border border-line bg-raised px-2 py-1 text-sm text-ink"
-            />
-            <div className="flex items-center gap-3">
-              <button
-                type="submit"
-                disabled={status.kind === "saving"}
-                className="rounded bg-brass px-3 py-1.5 text-sm font-semibold text-on-brass hover:bg-brass-strong disabled:opacity-60"
-              >
-                {status.kind === "saving" ? "Saving…" : "Save"}
-              </button>
-              <span id={`${formId}-status`} role="status" className="text-sm">
-                {status.kind === "saved" ? <span className="text-ok">Saved</span> : null}
-                {status.kind === "error" ? <span className="text-down">{status.message}</span> : null}
-              </span>
-            </div>
-          </form>
+          // Mounted again when another component is inspected, and once its notes have loaded.
+          <OwnerForm key={`${node.key}\u0000${props.notes === undefined ? "loading" : "loaded"}`} node={node} teams={props.teams} notes={props.notes} onSave={props.onSave} />
         ) : (
           <p className="mt-1 whitespace-pre-wrap text-sm text-muted">{props.notes ? props.notes : "No notes."}</p>
         )}

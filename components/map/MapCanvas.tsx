@@ -17,7 +17,7 @@ import {
 } from "@xyflow/react";
 import { useCallback, useEffect, useId, useMemo, useRef, useState, useSyncExternalStore, type KeyboardEvent, type ReactNode } from "react";
 import { COMPONENT_KINDS, TIERS, type ComponentKind, type Tier } from "@/lib/inventory/types";
-import { GraphViewBadge } from "@/components/rankings/SnapshotMeta";
+import { GraphViewBadge } from "@/components/analysis/SnapshotMeta";
 import { buildLegend, buildPalette, MODE_LABELS, paintNode, UNDECLARED, type Legend } from "./colour";
 import { DEFAULT_EXPORT_THEME, downloadBlob, kindSubtitle, renderSvg, svgToPng, type ExportEdge, type ExportNode, type ExportTheme } from "./export";
 import { Inspector, inspectorLinks } from "./Inspector";

@@ -3,37 +3,28 @@
 // The map screen: fetches the graph, pins and notes, and wires the canvas and inspector to the API.
 import { usePathname, useRouter, useSearchParams } from "next/navigation";
 import { useCallback, useMemo } from "react";
-import useSWR from "swr";
-import { fetchJson, type ApiError } from "@/lib/client/fetcher";
-import { ageOf, dateTime } from "@/components/ui/format";
+import { When } from "@/components/ui/When";
+import { annotationResultSchema, componentDetailResponseSchema } from "@/lib/api/schemas/components";
+import { mapGraphSchema, positionsResponseSchema } from "@/lib/api/schemas/map";
+import { sendJson, useApi } from "@/lib/client/api";
 import { ReviewBadge } from "@/components/reviews/ReviewBadge";
 import { useReviews } from "@/components/reviews/useReviews";
 import { Inspector, inspectorLinks, type InspectorSave } from "./Inspector";
 import { MapCanvas } from "./MapCanvas";
-import { mapGraphSchema, type ColourMode, type MapGraph, type PinnedPositions } from "./types";
+import type { ColourMode, MapGraph, PinnedPositions } from "./types";
 import { useIncidentOverlay } from "@/components/incidents/MapOverlay";
 
-async function fetchGraph(url: string): Promise<MapGraph> {
-  return mapGraphSchema.parse(await fetchJson<unknown>(url));
-}
-
 function InspectorFor({ env, graph, nodeKey, canEdit, onSelect }: { env: string; graph: MapGraph; nodeKey: string; canEdit: boolean; onSelect(key: string): void }) {
-  const detail = useSWR<{ notes: string | null }, ApiError>(`/api/v1/environments/${env}/components/${nodeKey}`, fetchJson);
+  const detail = useApi(componentDetailResponseSchema, `/api/v1/environments/${env}/components/${encodeURIComponent(nodeKey)}`);
   const reviews = useReviews(env);
   const node = graph.nodes.find((n) => n.key === nodeKey);
   if (!node) return null;
   const { needs, dependents } = inspectorLinks(graph, nodeKey);
   async function onSave(value: InspectorSave) {
-    const res = await fetch(`/api/v1/environments/${env}/components/${nodeKey}`, {
-      method: "PATCH",
-      headers: { "content-type": "application/json" },
-      body: JSON.stringify({ team: value.team || null, notes: value.notes || null }),
-    });
-    if (!res.ok) {
-      const body = (await res.json().catch(() => null)) as { message?: string } | null;
-      throw new Error(body?.message ?? `Saving failed (${res.status})`);
-    }
+    const res = await sendJson(annotationResultSchema, `/api/v1/environments/${env}/components/${encodeURIComponent(nodeKey)}`, "PATCH", { team: value.team, notes: value.notes });
+    if (!res.ok) return res.error;
     await detail.mutate();
+    return null;
   }
   return (
     <Inspector
@@ -42,7 +33,7 @@ function InspectorFor({ env, graph, nodeKey, canEdit, onSelect }: { env: string;
       needs={needs}
       dependents={dependents}
       teams={graph.teams}
-      notes={detail.data?.notes ?? null}
+      notes={detail.data ? detail.data.notes : undefined}
       canEdit={canEdit}
       onSave={onSave}
       onSelect={onSelect}
@@ -56,8 +47,8 @@ export function MapScreen({ env, focus, colour, canEdit, incident = false }: { e
   const router = useRouter();
   const pathname = usePathname();
   const search = useSearchParams();
-  const graph = useSWR<MapGraph, ApiError>(`/api/v1/environments/${env}/graph`, fetchGraph, { revalidateOnFocus: false });
-  const pins = useSWR<{ positions: PinnedPositions }, ApiError>(`/api/v1/environments/${env}/map/positions`, fetchJson, { revalidateOnFocus: false });
+  const graph = useApi(mapGraphSchema, `/api/v1/environments/${env}/graph`, { revalidateOnFocus: false });
+  const pins = useApi(positionsResponseSchema, `/api/v1/environments/${env}/map/positions`, { revalidateOnFocus: false });
   const pinned = useMemo(() => pins.data?.positions ?? {}, [pins.data]);
 
   const setFocusInUrl = useCallback(
@@ -74,8 +65,8 @@ export function MapScreen({ env, focus, colour, canEdit, incident = false }: { e
   const onPinPositions = useCallback(
     async (positions: PinnedPositions) => {
       if (!canEdit) return;
-      await fetch(`/api/v1/environments/${env}/map/positions`, { method: "PUT", headers: { "content-type": "application/json" }, body: JSON.stringify(positions) });
-      await pins.mutate({ positions }, { revalidate: false });
+      const res = await sendJson(positionsResponseSchema, `/api/v1/environments/${env}/map/positions`, "PUT", positions);
+      if (res.ok) await pins.mutate(res.data, { revalidate: false });
     },
     [canEdit, env, pins],
   );
@@ -92,7 +83,13 @@ export function MapScreen({ env, focus, colour, canEdit, incident = false }: { e
   return (
     <div className="flex h-[calc(100vh-7.5rem)] min-h-[520px] flex-col gap-2">
       <p className="text-xs text-muted" data-testid="map-caution">
-        {data.snapshot ? `Snapshot #${data.snapshot.number}, pushed ${ageOf(data.snapshot.createdAt)} (${dateTime(data.snapshot.createdAt)}). ` : "No snapshot yet. "}
+        {data.snapshot ? (
+          <>
+            Snapshot #{data.snapshot.number}, pushed <When at={data.snapshot.createdAt} />.{" "}
+          </>
+        ) : (
+          "No snapshot yet. "
+        )}
         The map is only as good as the inventory: it shows what was declared, nothing more; undeclared components (needed by something, declared by no source) are drawn dashed.
       </p>
       {overlay.legend}

@@ -3,29 +3,15 @@
 // Environment health at a glance: counts, the top pinch points, cycles, the last push and the
 // analysis status — each linking to the screen that says more.
 import Link from "next/link";
-import useSWR from "swr";
+import { IncidentBanner } from "@/components/incidents/IncidentBanner";
 import { Badge } from "@/components/ui/Badge";
 import { Card, Stat } from "@/components/ui/Card";
-import { fetchJson, type ApiError } from "@/lib/client/fetcher";
 import { ageOf, betweennessPct, percent, pinchScore, rankLabel } from "@/components/ui/format";
-import type { EnvironmentCounts } from "@/lib/data/components";
-import type { EnvironmentSummary } from "@/lib/data/environments";
-import type { RankingItem, RankingsResponse } from "@/components/rankings/api-types";
-import type { HealthResponse } from "@/lib/api/schemas/health";
-import { IncidentBanner } from "@/components/incidents/IncidentBanner";
-
-/** GET /api/v1/environments/{env}: the summary plus component counts. */
-type EnvironmentResponse = EnvironmentSummary & { counts: EnvironmentCounts };
-
-
-/** GET …/boot-order?stages=false: only the cycles that block a cold start. */
-interface BootCyclesResponse {
-  cycles: Array<{ members: string[]; breakCount: number | null }>;
-}
-
-interface ImportsResponse {
-  items: Array<{ createdAt: string; source: string; format: string; actor: string; changed: boolean; snapshot: number | null }>;
-}
+import { bootCyclesResponseSchema, rankingsResponseSchema, type RankingItem } from "@/lib/api/schemas/analysis";
+import { environmentResponseSchema, environmentsResponseSchema } from "@/lib/api/schemas/environments";
+import { healthResponseSchema, type HealthResponse } from "@/lib/api/schemas/health";
+import { importsResponseSchema } from "@/lib/api/schemas/history";
+import { useApi, type ApiError } from "@/lib/client/api";
 
 
 /** Analyses run in a separate worker process: say so when none has been heard from for a minute. */
@@ -79,14 +65,14 @@ function TopList({ env, title, items, error, value }: { env: string; title: stri
 export function Overview({ env }: { env: string }) {
   const refresh = { refreshInterval: 15_000 };
   // One light request for the counts and the latest snapshot; the full list only to suggest names.
-  const environment = useSWR<EnvironmentResponse, ApiError>(`/api/v1/environments/${env}`, fetchJson, refresh);
+  const environment = useApi(environmentResponseSchema, `/api/v1/environments/${env}`, refresh);
   const missing = environment.error?.status === 404;
-  const environments = useSWR<{ items: EnvironmentSummary[] }, ApiError>(missing ? "/api/v1/environments" : null, fetchJson);
-  const byPinch = useSWR<RankingsResponse, ApiError>(`/api/v1/environments/${env}/rankings?sort=pinchScore&limit=5`, fetchJson, refresh);
-  const byBetweenness = useSWR<RankingsResponse, ApiError>(`/api/v1/environments/${env}/rankings?sort=betweenness&limit=5`, fetchJson, refresh);
-  const boot = useSWR<BootCyclesResponse, ApiError>(`/api/v1/environments/${env}/boot-order?stages=false`, fetchJson, refresh);
-  const imports = useSWR<ImportsResponse, ApiError>(`/api/v1/environments/${env}/imports?limit=1`, fetchJson, refresh);
-  const health = useSWR<HealthResponse, ApiError>("/api/health", fetchJson, refresh);
+  const environments = useApi(environmentsResponseSchema, missing ? "/api/v1/environments" : null);
+  const byPinch = useApi(rankingsResponseSchema, `/api/v1/environments/${env}/rankings?sort=pinchScore&limit=5`, refresh);
+  const byBetweenness = useApi(rankingsResponseSchema, `/api/v1/environments/${env}/rankings?sort=betweenness&limit=5`, refresh);
+  const boot = useApi(bootCyclesResponseSchema, `/api/v1/environments/${env}/boot-order?stages=false`, refresh);
+  const imports = useApi(importsResponseSchema, `/api/v1/environments/${env}/imports?limit=1`, refresh);
+  const health = useApi(healthResponseSchema, "/api/health", refresh);
   const summary = environment.data;
   const counts = summary?.counts;
   const ranked = byPinch.data;

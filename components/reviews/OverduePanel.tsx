@@ -1,7 +1,7 @@
 // Reviews whose look-again date has passed, in every environment. Rendered on the server.
 import Link from "next/link";
 import { Card } from "@/components/ui/Card";
-import type { ReviewView } from "@/lib/data/reviews";
+import type { ReviewView } from "@/lib/api/schemas/reviews";
 import { ReviewBadge } from "./ReviewBadge";
 
 export function OverduePanel({ items }: { items: ReviewView[] }) {

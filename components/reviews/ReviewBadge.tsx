@@ -2,7 +2,8 @@
 // A chip saying what an architect decided about a component and when to look at it again.
 // Placed beside components on other screens; pass the review from `useReviews(env)` or from
 // `reviewsByKey` on the server. Renders nothing for a component with no review.
-import type { ReviewSummary } from "@/lib/data/reviews";
+import { day } from "@/components/ui/format";
+import type { ReviewSummary } from "@/lib/api/schemas/reviews";
 
 export const REVIEW_STATUS_LABELS: Record<ReviewSummary["status"], string> = {
   accepted: "Risk accepted",
@@ -16,16 +17,10 @@ const TONE: Record<ReviewSummary["status"], string> = {
   resolved: "border-ok/50 text-ok",
 };
 
-/** "2031-03-12" → "12 Mar 2031", read as a calendar day (no time-zone shift). */
-export function formatDay(day: string): string {
-  const d = new Date(`${day}T00:00:00Z`);
-  return d.toLocaleDateString("en-GB", { day: "numeric", month: "short", year: "numeric", timeZone: "UTC" });
-}
-
 export function ReviewBadge({ review, compact = false }: { review: ReviewSummary | null | undefined; compact?: boolean }) {
   if (!review) return null;
   const label = REVIEW_STATUS_LABELS[review.status];
-  const when = review.reviewBy ? formatDay(review.reviewBy) : null;
+  const when = review.reviewBy ? day(review.reviewBy) : null;
   const detail = review.overdue ? `look again was due ${when}` : when && review.status !== "resolved" ? `look again by ${when}` : null;
   const title = detail ? `${label}: ${detail}` : label;
   return (

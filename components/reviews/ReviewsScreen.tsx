@@ -1,34 +1,98 @@
 "use client";
 // Risk reviews of one environment: what has been decided about its pinch points, what is past
 // its date, and (for architects and admins) the form to decide and the pinch-score weights.
+import { createColumnHelper } from "@tanstack/react-table";
 import Link from "next/link";
 import { useState } from "react";
+import { UnownedQueue, type QueueViewer } from "@/components/teams/UnownedQueue";
+import { ConfirmButton } from "@/components/ui/ConfirmButton";
 import { Button } from "@/components/ui/Button";
 import { Card } from "@/components/ui/Card";
+import { DataTable } from "@/components/ui/data-table/DataTable";
 import { FormError } from "@/components/ui/Field";
-import { sendJson } from "@/components/ui/send-json";
-import { UnownedQueue, type QueueViewer } from "@/components/teams/UnownedQueue";
-import { ReviewBadge, formatDay } from "./ReviewBadge";
+import { When } from "@/components/ui/When";
+import { clearedReviewSchema, type ReviewView } from "@/lib/api/schemas/reviews";
+import { sendJson } from "@/lib/client/api";
+import { ReviewBadge } from "./ReviewBadge";
 import { ReviewForm, type ReviewDraft } from "./ReviewForm";
 import { useReviews } from "./useReviews";
 import { SettingsForm } from "./SettingsForm";
 import { WeightsForm } from "./WeightsForm";
 
+const col = createColumnHelper<ReviewView>();
+
+function columns(env: string, canWrite: boolean, change: (r: ReviewView) => void, clear: (key: string) => Promise<void>) {
+  return [
+    col.accessor("key", {
+      header: "Component",
+      meta: { fixed: true },
+      cell: (i) => (
+        <>
+          <Link href={`/environments/${env}/components/${encodeURIComponent(i.getValue())}`} className="font-mono text-ink hover:text-brass">
+            {i.getValue()}
+          </Link>
+          {i.row.original.name === null ? <div className="text-xs text-degraded">no longer declared</div> : <div className="text-xs text-muted">{i.row.original.name}</div>}
+        </>
+      ),
+    }),
+    // Sorts past-due first, then by the date to look again.
+    col.accessor((r) => `${r.overdue ? 0 : 1}${r.reviewBy ?? "9999"}`, { id: "decision", header: "Decision", cell: (i) => <ReviewBadge review={i.row.original} /> }),
+    col.accessor("rationale", { header: "Rationale", meta: { className: "max-w-md text-muted" } }),
+    col.accessor((r) => r.reviewer?.email ?? "", {
+      id: "reviewer",
+      header: "Reviewer",
+      cell: (i) => (
+        <span className="text-xs text-muted">
+          {i.getValue() || "—"}
+          <div className="text-faint">
+            <When at={i.row.original.updatedAt} />
+          </div>
+        </span>
+      ),
+    }),
+    col.accessor("createdAt", { header: "First reviewed", meta: { hidden: true }, cell: (i) => <When at={i.getValue()} /> }),
+    ...(canWrite
+      ? [
+          col.display({
+            id: "actions",
+            header: () => <span className="sr-only">Actions</span>,
+            meta: { label: "Change or clear", fixed: true, className: "whitespace-nowrap text-right" },
+            cell: (i) => (
+              <span className="inline-flex items-center gap-1">
+                <Button variant="ghost" onClick={() => change(i.row.original)} aria-label={`Change review of ${i.row.original.key}`}>
+                  Change
+                </Button>
+                <ConfirmButton
+                  label="Clear"
+                  name={`Clear review of ${i.row.original.key}`}
+                  question={<>Clear the review of {i.row.original.key}? The audit log keeps what it said.</>}
+                  confirmLabel="Yes, clear"
+                  onConfirm={() => clear(i.row.original.key)}
+                />
+              </span>
+            ),
+          }),
+        ]
+      : []),
+  ];
+}
+
 export function ReviewsScreen({ env, canWrite, canReadAudit, queueViewer }: { env: string; canWrite: boolean; canReadAudit: boolean; queueViewer: QueueViewer }) {
   const { items, error, isLoading, mutate } = useReviews(env);
   const [overdueOnly, setOverdueOnly] = useState(false);
-  const [draft, setDraft] = useState<ReviewDraft | null>(null);
+  // A new draft mounts the form again with it (no effect copying props into the form).
+  const [draft, setDraft] = useState<{ n: number; value: ReviewDraft | null }>({ n: 0, value: null });
   const [actionError, setActionError] = useState<string | null>(null);
   const [saved, setSaved] = useState<string | null>(null);
-  const overdueCount = items.filter((r) => r.overdue).length;
-  const shown = overdueOnly ? items.filter((r) => r.overdue) : items;
+  const overdueCount = (items ?? []).filter((r) => r.overdue).length;
+  const shown = overdueOnly ? items?.filter((r) => r.overdue) : items;
 
   async function clear(key: string) {
-    if (!window.confirm(`Clear the review of ${key}? The audit log keeps what it said.`)) return;
-    const res = await sendJson(`/api/v1/environments/${env}/reviews/${key}`, "DELETE");
-    setActionError(res.ok ? null : res.message);
+    const res = await sendJson(clearedReviewSchema, `/api/v1/environments/${env}/reviews/${encodeURIComponent(key)}`, "DELETE");
+    setActionError(res.ok ? null : res.error.detail);
     void mutate();
   }
+  const change = (r: ReviewView) => setDraft((d) => ({ n: d.n + 1, value: { key: r.key, status: r.status, rationale: r.rationale, reviewBy: r.reviewBy } }));
 
   return (
     <div className="space-y-6">
@@ -62,11 +126,11 @@ export function ReviewsScreen({ env, canWrite, canReadAudit, queueViewer }: { en
       {canWrite && (
         <Card title="Review a pinch point">
           <ReviewForm
+            key={draft.n}
             env={env}
-            draft={draft}
+            draft={draft.value}
             onSaved={(key) => {
               setSaved(key);
-              setDraft(null);
               void mutate();
             }}
           />
@@ -79,62 +143,29 @@ export function ReviewsScreen({ env, canWrite, canReadAudit, queueViewer }: { en
       )}
 
       <Card
-        title={`Reviews (${items.length})`}
+        title={`Reviews (${items?.length ?? "…"})`}
         action={
           <label className="flex items-center gap-2 text-sm text-muted">
             <input type="checkbox" checked={overdueOnly} onChange={(e) => setOverdueOnly(e.target.checked)} /> only past their date
           </label>
         }
       >
-        {error && <FormError message={`Could not load the reviews: ${error.message}`} />}
-        {isLoading && <p className="text-sm text-muted">Loading…</p>}
         <FormError message={actionError} />
-        {!isLoading && shown.length === 0 && <p className="text-sm text-muted">{overdueOnly ? "Nothing is past its date." : "No pinch point in this environment has been reviewed yet."}</p>}
-        {shown.length > 0 && (
-          <div className="overflow-x-auto">
-            <table className="w-full text-left text-sm" data-testid="reviews-table">
-              <thead className="text-xs uppercase tracking-wide text-faint">
-                <tr>
-                  <th className="pb-2 pr-3 font-medium">Component</th>
-                  <th className="pb-2 pr-3 font-medium">Decision</th>
-                  <th className="pb-2 pr-3 font-medium">Rationale</th>
-                  <th className="pb-2 pr-3 font-medium">Reviewer</th>
-                  {canWrite && <th className="pb-2 font-medium" />}
-                </tr>
-              </thead>
-              <tbody>
-                {shown.map((r) => (
-                  <tr key={r.key} className={`border-t border-line align-top ${r.overdue ? "bg-down/5" : ""}`} data-testid={`review-${r.key}`}>
-                    <td className="py-2 pr-3">
-                      <Link href={`/environments/${env}/components/${r.key}`} className="font-mono text-ink hover:text-brass">
-                        {r.key}
-                      </Link>
-                      {r.name === null ? <div className="text-xs text-degraded">no longer declared</div> : <div className="text-xs text-muted">{r.name}</div>}
-                    </td>
-                    <td className="py-2 pr-3">
-                      <ReviewBadge review={r} />
-                    </td>
-                    <td className="max-w-md py-2 pr-3 text-muted">{r.rationale}</td>
-                    <td className="py-2 pr-3 text-xs text-muted">
-                      {r.reviewer?.email ?? "—"}
-                      <div className="text-faint">{formatDay(r.updatedAt.slice(0, 10))}</div>
-                    </td>
-                    {canWrite && (
-                      <td className="whitespace-nowrap py-2 text-right">
-                        <Button variant="ghost" onClick={() => setDraft({ key: r.key, status: r.status, rationale: r.rationale, reviewBy: r.reviewBy ?? "" })} aria-label={`Change review of ${r.key}`}>
-                          Change
-                        </Button>
-                        <Button variant="ghost" onClick={() => void clear(r.key)} aria-label={`Clear review of ${r.key}`}>
-                          Clear
-                        </Button>
-                      </td>
-                    )}
-                  </tr>
-                ))}
-              </tbody>
-            </table>
-          </div>
-        )}
+        <DataTable
+          id="reviews"
+          testId="reviews-table"
+          caption="Risk reviews"
+          columns={columns(env, canWrite, change, clear)}
+          data={shown}
+          rowKey={(r) => r.key}
+          rowTestId={(r) => `review-${r.key}`}
+          rowClassName={(r) => (r.overdue ? "bg-down/5" : "")}
+          error={error}
+          loading={isLoading}
+          paging={{ mode: "client", pageSize: 25, initialSort: [{ id: "decision", desc: false }], search: { label: "Find a review", placeholder: "component or rationale" } }}
+          noun={["review", "reviews"]}
+          empty={overdueOnly ? "Nothing is past its date." : "No pinch point in this environment has been reviewed yet."}
+        />
       </Card>
 
       <div className="grid gap-6 xl:grid-cols-2">

@@ -1,13 +1,15 @@
 "use client";
 // Pinch-score weights of one environment: score = 100 × (b·B + r·R + s·S) (DESIGN §3).
-import { useEffect, useState } from "react";
-import useSWR from "swr";
+import { useState } from "react";
+import { useWatch } from "react-hook-form";
 import { Button } from "@/components/ui/Button";
 import { Card } from "@/components/ui/Card";
-import { FormError, Label, TextInput } from "@/components/ui/Field";
-import { sendJson } from "@/components/ui/send-json";
-import { fetchJson, type ApiError } from "@/lib/client/fetcher";
-import type { WeightsView } from "@/lib/data/weights";
+import { FormError } from "@/components/ui/Field";
+import { ApiForm, FormProblem, SubmitButton, submitWith, useApiForm } from "@/components/ui/form/api-form";
+import { InputField } from "@/components/ui/form/fields";
+import { pinchWeightsSchema } from "@/lib/analysis/types";
+import { weightsViewSchema, type WeightsView } from "@/lib/api/schemas/reviews";
+import { sendJson, useApi } from "@/lib/client/api";
 
 type Weights = WeightsView["weights"];
 const FIELDS: Array<{ name: keyof Weights; label: string; hint: string }> = [
@@ -16,79 +18,75 @@ const FIELDS: Array<{ name: keyof Weights; label: string; hint: string }> = [
   { name: "single", label: "S · single instance", hint: "one replica or fewer than two zones" },
 ];
 
+const savedMessage = (v: WeightsView) =>
+  v.requeued ? `Saved. Snapshot #${v.requeued.snapshot} is queued for analysis with these weights; scores update when it finishes.` : "Saved. Scores use them from the next snapshot.";
+
+function Form({ view, canWrite, env, onSaved }: { view: WeightsView; canWrite: boolean; env: string; onSaved: (v: WeightsView) => void }) {
+  const form = useApiForm(pinchWeightsSchema, view.weights);
+  const values = useWatch({ control: form.control });
+  const url = `/api/v1/environments/${env}/weights`;
+  const onSubmit = submitWith(form, (weights) => sendJson(weightsViewSchema, url, "PUT", weights), onSaved);
+  const [resetError, setResetError] = useState<string | null>(null);
+  const backToDefaults = async () => {
+    const res = await sendJson(weightsViewSchema, url, "PUT", view.defaults);
+    setResetError(res.ok ? null : res.error.detail);
+    if (res.ok) onSaved(res.data);
+  };
+  const shown = (n: number | undefined, letter: string) => (n === undefined || Number.isNaN(n) ? letter : String(n));
+  return (
+    <ApiForm form={form} onSubmit={onSubmit} label="Pinch-score weights" className="space-y-3">
+      <p className="font-mono text-xs text-muted">
+        score = 100 × ({shown(values.betweenness, "b")}·B + {shown(values.reach, "r")}·R + {shown(values.single, "s")}·S)
+      </p>
+      <div className="grid gap-3 sm:grid-cols-3">
+        {FIELDS.map((f) => (
+          <InputField key={f.name} name={f.name} label={f.label} help={f.hint} number type="number" min={0} max={1} step={0.05} disabled={!canWrite} controlClassName="font-mono" />
+        ))}
+      </div>
+      <FormProblem />
+      {canWrite ? (
+        <div className="flex flex-wrap items-center gap-2">
+          <SubmitButton working="Saving…">Save and re-analyse</SubmitButton>
+          {view.custom && (
+            <Button type="button" variant="ghost" onClick={() => void backToDefaults()}>
+              Back to defaults
+            </Button>
+          )}
+        </div>
+      ) : (
+        <p className="text-xs text-muted">Architects and admins set these.</p>
+      )}
+      <FormError message={resetError} />
+    </ApiForm>
+  );
+}
+
 export function WeightsForm({ env, canWrite }: { env: string; canWrite: boolean }) {
-  const { data, error, mutate } = useSWR<WeightsView, ApiError>(`/api/v1/environments/${env}/weights`, fetchJson);
-  const [values, setValues] = useState<Record<keyof Weights, string>>({ betweenness: "", reach: "", single: "" });
+  const { data, error, mutate } = useApi(weightsViewSchema, `/api/v1/environments/${env}/weights`);
   const [message, setMessage] = useState<string | null>(null);
-  const [saveError, setSaveError] = useState<string | null>(null);
-
-  useEffect(() => {
-    if (data) setValues({ betweenness: String(data.weights.betweenness), reach: String(data.weights.reach), single: String(data.weights.single) });
-  }, [data]);
-
-  async function save(weights: Weights) {
-    const res = await sendJson<WeightsView & { requeued: { snapshot: number } | null }>(`/api/v1/environments/${env}/weights`, "PUT", weights);
-    if (!res.ok || !res.data) {
-      setMessage(null);
-      return setSaveError(res.message);
-    }
-    setSaveError(null);
-    setMessage(res.data.requeued ? `Saved. Snapshot #${res.data.requeued.snapshot} is queued for analysis with these weights; scores update when it finishes.` : "Saved. Scores use them from the next snapshot.");
-    void mutate();
-  }
-
-  const parsed: Weights = { betweenness: Number(values.betweenness), reach: Number(values.reach), single: Number(values.single) };
+  // Saved weights mount the form again with them as its starting values.
+  const [version, setVersion] = useState(0);
   return (
     <Card title="Pinch-score weights" action={data && <span className="text-xs text-muted">{data.custom ? "set for this environment" : "defaults"}</span>}>
       {error && <FormError message={`Could not load the weights: ${error.message}`} />}
-      <form
-        aria-label="Pinch-score weights"
-        onSubmit={(e) => {
-          e.preventDefault();
-          void save(parsed);
-        }}
-        className="space-y-3"
-      >
-        <p className="font-mono text-xs text-muted">
-          score = 100 × ({values.betweenness || "b"}·B + {values.reach || "r"}·R + {values.single || "s"}·S)
+      {data && (
+        <Form
+          key={version}
+          view={data}
+          canWrite={canWrite}
+          env={env}
+          onSaved={(v) => {
+            setMessage(savedMessage(v));
+            void mutate(v, { revalidate: false });
+            setVersion((n) => n + 1);
+          }}
+        />
+      )}
+      {message && (
+        <p className="mt-2 text-sm text-ok" role="status">
+          {message}
         </p>
-        <div className="grid gap-3 sm:grid-cols-3">
-          {FIELDS.map((f) => (
-            <div key={f.name}>
-              <Label htmlFor={`w-${f.name}`}>{f.label}</Label>
-              <TextInput
-                id={`w-${f.name}`}
-                type="number"
-                min={0}
-                max={1}
-                step={0.05}
-                required
-                value={values[f.name]}
-                disabled={!canWrite}
-                onChange={(e) => setValues((v) => ({ ...v, [f.name]: e.target.value }))}
-                className="font-mono"
-              />
-              <p className="mt-1 text-xs text-faint">{f.hint}</p>
-            </div>
-          ))}
-        </div>
-        {canWrite ? (
-          <div className="flex flex-wrap items-center gap-2">
-            <Button type="submit" variant="primary">
-              Save and re-analyse
-            </Button>
-            {data?.custom && (
-              <Button type="button" variant="ghost" onClick={() => void save(data.defaults)}>
-                Back to defaults
-              </Button>
-            )}
-          </div>
-        ) : (
-          <p className="text-xs text-muted">Architects and admins set these.</p>
-        )}
-        {message && <p className="text-sm text-ok" role="status">{message}</p>}
-        <FormError message={saveError} />
-      </form>
+      )}
     </Card>
   );
 }

@@ -1,72 +1,82 @@
 "use client";
 // One team: who to page, who is in it, what it owns in every environment and which of those are
 // pinch points. Leads of the team edit its contact details; admins also manage its people.
+import { createColumnHelper } from "@tanstack/react-table";
 import Link from "next/link";
 import { useState } from "react";
-import useSWR from "swr";
 import { Button } from "@/components/ui/Button";
 import { Card } from "@/components/ui/Card";
-import { FormError, Label, TextArea, TextInput } from "@/components/ui/Field";
-import { sendJson } from "@/components/ui/send-json";
-import { fetchJson, type ApiError } from "@/lib/client/fetcher";
-import type { TeamComponent, TeamDetail as TeamDetailData } from "@/lib/data/team-admin";
+import { DataTable } from "@/components/ui/data-table/DataTable";
+import { ListSearch } from "@/components/ui/data-table/filters";
+import { useListState } from "@/components/ui/data-table/list-state";
+import { FormError } from "@/components/ui/Field";
+import { ApiForm, FormProblem, SubmitButton, submitWith, useApiForm } from "@/components/ui/form/api-form";
+import { CheckboxField, InputField, TextAreaField } from "@/components/ui/form/fields";
+import {
+  addMemberSchema,
+  memberRemovedSchema,
+  OWNED_LIST,
+  teamDetailSchema,
+  teamMemberSchema,
+  teamRecordSchema,
+  updateTeamSchema,
+  type TeamComponent,
+  type TeamDetail as TeamDetailData,
+} from "@/lib/api/schemas/teams";
+import { sendJson, useApi, type ApiError } from "@/lib/client/api";
 
 function ContactForm({ team, canRename, onSaved, onCancel }: { team: TeamDetailData; canRename: boolean; onSaved: () => void; onCancel: () => void }) {
-  const [error, setError] = useState<string | null>(null);
-  const [busy, setBusy] = useState(false);
-  async function submit(form: FormData) {
-    setBusy(true);
-    const body: Record<string, string> = {
-      email: String(form.get("email") ?? ""),
-      oncall: String(form.get("oncall") ?? ""),
-      description: String(form.get("description") ?? ""),
-    };
-    if (canRename) body.name = String(form.get("name") ?? "");
-    const res = await sendJson(`/api/v1/teams/${team.slug}`, "PATCH", body);
-    setBusy(false);
-    if (!res.ok) return setError(res.message);
-    onSaved();
-  }
+  // A lead may not send the name at all (the server refuses it), so it is left out unless admins edit.
+  const form = useApiForm(updateTeamSchema, { ...(canRename ? { name: team.name } : {}), email: team.email, oncall: team.oncall, description: team.description });
+  const onSubmit = submitWith(form, (values) => sendJson(teamRecordSchema, `/api/v1/teams/${team.slug}`, "PATCH", values), onSaved);
   return (
-    <form action={submit} className="space-y-3" aria-label="Edit team contact">
-      {canRename && (
-        <div>
-          <Label htmlFor="team-name">Name</Label>
-          <TextInput id="team-name" name="name" defaultValue={team.name} required />
-        </div>
-      )}
-      <div>
-        <Label htmlFor="team-email">E-mail</Label>
-        <TextInput id="team-email" name="email" type="email" defaultValue={team.email ?? ""} />
-      </div>
-      <div>
-        <Label htmlFor="team-oncall" hint="a rota name, a phone number or a channel">
-          On-call contact
-        </Label>
-        <TextInput id="team-oncall" name="oncall" defaultValue={team.oncall ?? ""} />
-      </div>
-      <div>
-        <Label htmlFor="team-description">Description</Label>
-        <TextArea id="team-description" name="description" rows={3} defaultValue={team.description ?? ""} />
-      </div>
-      <FormError message={error} />
+    <ApiForm form={form} onSubmit={onSubmit} label="Edit team contact" className="space-y-3">
+      {canRename && <InputField name="name" label="Name" />}
+      <InputField name="email" label="E-mail" type="email" blank="null" />
+      <InputField name="oncall" label="On-call contact" hint="a rota name, a phone number or a channel" blank="null" />
+      <TextAreaField name="description" label="Description" rows={3} blank="null" />
+      <FormProblem />
       <div className="flex gap-2">
-        <Button type="submit" variant="primary" disabled={busy}>
-          Save
-        </Button>
+        <SubmitButton working="Saving…">Save</SubmitButton>
         <Button type="button" variant="ghost" onClick={onCancel}>
           Cancel
         </Button>
       </div>
-    </form>
+    </ApiForm>
+  );
+}
+
+function AddMember({ slug, onAdded }: { slug: string; onAdded: () => void }) {
+  const form = useApiForm(addMemberSchema, { email: "", lead: false });
+  const onSubmit = submitWith(
+    form,
+    (values) => sendJson(teamMemberSchema, `/api/v1/teams/${slug}/members`, "POST", values),
+    () => {
+      form.reset();
+      onAdded();
+    },
+  );
+  return (
+    <ApiForm form={form} onSubmit={onSubmit} label="Add a person" className="mt-3 flex flex-wrap items-start gap-3 border-t border-line pt-3">
+      <InputField name="email" label="Add a person by e-mail" type="email" placeholder="name@harbor-pantry.example" className="min-w-56 flex-1" />
+      <div className="pt-7">
+        <CheckboxField name="lead" label="lead" />
+      </div>
+      <div className="pt-5">
+        <SubmitButton variant="secondary" working="Adding…">
+          Add
+        </SubmitButton>
+      </div>
+      <FormProblem className="w-full" />
+    </ApiForm>
   );
 }
 
 function Members({ team, isAdmin, onChanged }: { team: TeamDetailData; isAdmin: boolean; onChanged: () => void }) {
-  const [error, setError] = useState<string | null>(null);
-  async function run(p: ReturnType<typeof sendJson>) {
+  const [error, setError] = useState<ApiError | null>(null);
+  async function run(p: Promise<{ ok: true } | { ok: false; error: ApiError }>) {
     const res = await p;
-    setError(res.ok ? null : res.message);
+    setError(res.ok ? null : res.error);
     if (res.ok) onChanged();
   }
   return (
@@ -84,10 +94,10 @@ function Members({ team, isAdmin, onChanged }: { team: TeamDetailData; isAdmin: 
             </div>
             {isAdmin && (
               <div className="flex gap-1">
-                <Button variant="ghost" onClick={() => void run(sendJson(`/api/v1/teams/${team.slug}/members`, "POST", { email: m.email, lead: !m.isLead }))}>
+                <Button variant="ghost" onClick={() => void run(sendJson(teamMemberSchema, `/api/v1/teams/${team.slug}/members`, "POST", { email: m.email, lead: !m.isLead }))}>
                   {m.isLead ? "Not lead" : "Make lead"}
                 </Button>
-                <Button variant="danger" onClick={() => void run(sendJson(`/api/v1/teams/${team.slug}/members/${m.userId}`, "DELETE"))} aria-label={`Remove ${m.email}`}>
+                <Button variant="danger" onClick={() => void run(sendJson(memberRemovedSchema, `/api/v1/teams/${team.slug}/members/${m.userId}`, "DELETE"))} aria-label={`Remove ${m.email}`}>
                   Remove
                 </Button>
               </div>
@@ -95,73 +105,56 @@ function Members({ team, isAdmin, onChanged }: { team: TeamDetailData; isAdmin: 
           </li>
         ))}
       </ul>
-      {isAdmin && (
-        <form
-          className="mt-3 flex flex-wrap items-end gap-2 border-t border-line pt-3"
-          action={(form) => void run(sendJson(`/api/v1/teams/${team.slug}/members`, "POST", { email: String(form.get("email") ?? ""), lead: form.get("lead") === "on" }))}
-        >
-          <div className="min-w-56 flex-1">
-            <Label htmlFor="add-member">Add a person by e-mail</Label>
-            <TextInput id="add-member" name="email" type="email" required placeholder="name@harbor-pantry.example" />
-          </div>
-          <label className="flex items-center gap-1.5 pb-2 text-sm text-muted">
-            <input type="checkbox" name="lead" /> lead
-          </label>
-          <Button type="submit">Add</Button>
-        </form>
-      )}
+      {isAdmin && <AddMember slug={team.slug} onAdded={onChanged} />}
       <div className="mt-2">
-        <FormError message={error} />
+        <FormError message={error?.detail} />
       </div>
     </Card>
   );
 }
 
-function ComponentsTable({ items, empty }: { items: TeamComponent[]; empty: string }) {
-  if (!items.length) return <p className="text-sm text-muted">{empty}</p>;
-  return (
-    <div className="overflow-x-auto">
-      <table className="w-full text-left text-sm">
-        <thead className="text-xs uppercase tracking-wide text-faint">
-          <tr>
-            <th className="pb-1 pr-3 font-medium">Env</th>
-            <th className="pb-1 pr-3 font-medium">Component</th>
-            <th className="pb-1 pr-3 font-medium">Tier</th>
-            <th className="pb-1 pr-3 text-right font-medium">Pinch score</th>
-            <th className="pb-1 pr-3 text-right font-medium" title="place by pinch score in its environment">
-              Rank by pinch score
-            </th>
-            <th className="pb-1 text-right font-medium" title="place by betweenness, the default ranking">
-              Rank by betweenness
-            </th>
-          </tr>
-        </thead>
-        <tbody>
-          {items.map((c) => (
-            <tr key={`${c.environment}/${c.key}`} className="border-t border-line">
-              <td className="py-1.5 pr-3 font-mono text-xs text-muted">{c.environment}</td>
-              <td className="py-1.5 pr-3">
-                <Link href={`/environments/${c.environment}/components/${c.key}`} className="font-mono text-ink hover:text-brass">
-                  {c.key}
-                </Link>
-                <span className="ml-2 text-xs text-muted">{c.kind}</span>
-              </td>
-              <td className="py-1.5 pr-3 font-mono tabular-nums">{c.tier}</td>
-              <td className={`py-1.5 pr-3 text-right font-mono tabular-nums ${c.pinchPoint ? "text-down" : ""}`}>{c.pinchScore === null ? "—" : c.pinchScore.toFixed(1)}</td>
-              <td className="py-1.5 pr-3 text-right font-mono tabular-nums">{c.pinchRank ?? "—"}</td>
-              <td className="py-1.5 text-right font-mono tabular-nums">{c.rank ?? "—"}</td>
-            </tr>
-          ))}
-        </tbody>
-      </table>
-    </div>
-  );
-}
+const col = createColumnHelper<TeamComponent>();
+
+const COMPONENT_COLUMNS = [
+  col.accessor("environment", { header: "Env", cell: (i) => <span className="font-mono text-xs text-muted">{i.getValue()}</span> }),
+  col.accessor("key", {
+    header: "Component",
+    meta: { fixed: true },
+    cell: (i) => (
+      <>
+        <Link href={`/environments/${i.row.original.environment}/components/${encodeURIComponent(i.getValue())}`} className="font-mono text-ink hover:text-brass">
+          {i.getValue()}
+        </Link>
+        <span className="ml-2 text-xs text-muted">{i.row.original.kind}</span>
+      </>
+    ),
+  }),
+  col.accessor("kind", { header: "Kind", meta: { hidden: true } }),
+  col.accessor("tier", { header: "Tier", meta: { numeric: true } }),
+  col.accessor("pinchScore", {
+    header: "Pinch score",
+    meta: { numeric: true },
+    cell: (i) => <span className={i.row.original.pinchPoint ? "text-down" : ""}>{i.getValue() === null ? "—" : i.getValue()!.toFixed(1)}</span>,
+  }),
+  col.accessor("pinchRank", { header: "Rank by pinch score", enableSorting: false, meta: { numeric: true, help: "place by pinch score in its environment" }, cell: (i) => i.getValue() ?? "—" }),
+  col.accessor("rank", { header: "Rank by betweenness", enableSorting: false, meta: { numeric: true, help: "place by betweenness, the default ranking" }, cell: (i) => i.getValue() ?? "—" }),
+];
 
 export function TeamDetail({ slug, canEdit, isAdmin }: { slug: string; canEdit: boolean; isAdmin: boolean }) {
-  const { data: team, error, mutate } = useSWR<TeamDetailData, ApiError>(`/api/v1/teams/${slug}`, fetchJson);
+  const list = useListState(OWNED_LIST, { filters: ["q"], pageSize: 25 });
+  const { data: team, error, mutate } = useApi(teamDetailSchema, `/api/v1/teams/${slug}?${list.query}`, { keepPreviousData: true });
   const [editing, setEditing] = useState(false);
-  if (error?.status === 404) return <Card title="No such team"><p className="text-muted">There is no team <span className="font-mono text-ink">{slug}</span>. <Link className="text-brass" href="/teams">All teams</Link></p></Card>;
+  if (error?.status === 404)
+    return (
+      <Card title="No such team">
+        <p className="text-muted">
+          There is no team <span className="font-mono text-ink">{slug}</span>.{" "}
+          <Link className="text-brass" href="/teams">
+            All teams
+          </Link>
+        </p>
+      </Card>
+    );
   if (error) return <FormError message={`Could not load the team: ${error.message}`} />;
   if (!team) return <p className="text-sm text-muted">Loading…</p>;
   return (
@@ -193,7 +186,15 @@ export function TeamDetail({ slug, canEdit, isAdmin }: { slug: string; canEdit: 
               </div>
               <div>
                 <dt className="text-xs uppercase tracking-wide text-faint">E-mail</dt>
-                <dd>{team.email ? <a className="font-mono text-info hover:underline" href={`mailto:${team.email}`}>{team.email}</a> : <span className="text-muted">none</span>}</dd>
+                <dd>
+                  {team.email ? (
+                    <a className="font-mono text-info hover:underline" href={`mailto:${team.email}`}>
+                      {team.email}
+                    </a>
+                  ) : (
+                    <span className="text-muted">none</span>
+                  )}
+                </dd>
               </div>
               {team.description && (
                 <div>
@@ -210,10 +211,29 @@ export function TeamDetail({ slug, canEdit, isAdmin }: { slug: string; canEdit: 
       </div>
       <Card title={`Top 10 by pinch score (${team.pinchPoints.length} of this team's)`}>
         <p className="mb-3 text-xs text-muted">This team&apos;s components in their environment&apos;s top 10 by pinch score. Scores are only as good as the inventory pushed.</p>
-        <ComponentsTable items={team.pinchPoints} empty="None of this team's components is in its environment's top 10." />
+        <DataTable
+          id="team-pinch-points"
+          caption="This team's pinch points"
+          columns={COMPONENT_COLUMNS}
+          data={team.pinchPoints}
+          rowKey={(c) => `${c.environment}/${c.key}`}
+          paging={{ mode: "client", pageSize: 25, initialSort: [{ id: "pinchScore", desc: true }] }}
+          noun={["component", "components"]}
+          empty="None of this team's components is in its environment's top 10."
+        />
       </Card>
-      <Card title={`Components (${team.components.length})`}>
-        <ComponentsTable items={team.components} empty="This team owns no components yet." />
+      <Card title={`Components (${team.components.total})`}>
+        <DataTable
+          id="team-components"
+          caption="Components this team owns"
+          columns={COMPONENT_COLUMNS}
+          data={team.components.items}
+          rowKey={(c) => `${c.environment}/${c.key}`}
+          paging={{ mode: "server", list, total: team.components.total }}
+          noun={["component", "components"]}
+          empty={list.filters.q ? "No component of this team matches." : "This team owns no components yet."}
+          filters={<ListSearch list={list} label="Find" placeholder="key or name" />}
+        />
       </Card>
     </div>
   );

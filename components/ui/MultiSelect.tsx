@@ -1,7 +1,8 @@
 "use client";
 // A searchable multi-select (ARIA combobox + listbox): type to narrow, arrows to move, Enter to
 // add, Backspace on an empty box removes the last choice. Written here because the two choices
-// that would fit (a select library or a headless UI kit) are not installed.
+// that would fit (a select library or a headless UI kit) are not installed. With `onText`, the
+// options are the caller's answer to what was typed (a server search over a large estate).
 import { useId, useMemo, useRef, useState } from "react";
 
 export interface Option {
@@ -17,6 +18,7 @@ export function MultiSelect({
   onChange,
   placeholder,
   max = 50,
+  onText,
 }: {
   label: string;
   options: Option[];
@@ -24,6 +26,8 @@ export function MultiSelect({
   onChange: (next: string[]) => void;
   placeholder?: string;
   max?: number;
+  /** the text typed so far, for a caller that looks options up as the reader types */
+  onText?: (text: string) => void;
 }) {
   const id = useId();
   const [text, setText] = useState("");
@@ -77,6 +81,7 @@ export function MultiSelect({
           placeholder={selected.length ? "" : placeholder}
           onChange={(e) => {
             setText(e.target.value);
+            onText?.(e.target.value.trim());
             setOpen(true);
             setActive(0);
           }}

@@ -33,11 +33,14 @@ export const pinchScore = (v: number): string => v.toFixed(1);
 
 export const plural = (n: number, one: string, many = `${one}s`): string => `${n} ${n === 1 ? one : many}`;
 
-/** Every time on every screen: UTC, to the minute (or second), so people in different zones quote the same string. */
+/** Every time on every screen: UTC, to the minute (or second), so people in different zones quote the same string (components/ui/When.tsx shows it with its age). */
 export function dateTime(iso: string | Date, { seconds = false }: { seconds?: boolean } = {}): string {
   const s = (iso instanceof Date ? iso : new Date(iso)).toISOString();
   return `${s.slice(0, 10)} ${s.slice(11, seconds ? 19 : 16)} UTC`;
 }
+
+/** A calendar day as the API writes it (YYYY-MM-DD), or the UTC day of an instant: written the same way as dateTime's date. */
+export const day = (value: string): string => value.slice(0, 10);
 
 /** Only http(s) and mailto links become clickable: an inventory file must not inject javascript: URLs. */
 export function safeHref(url: string): string | null {

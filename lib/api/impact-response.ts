@@ -3,6 +3,8 @@
 // stays 200 whatever the policies say (CI decides from the body); `Pinchpoint-Impact` tells the
 // verdict without parsing it.
 import { NextResponse } from "next/server";
+import { respond } from "./respond";
+import { pushResultSchema } from "./schemas/inventory";
 import { appUrl } from "@/lib/config";
 import { impactMarkdown } from "@/lib/impact/markdown";
 import { impactSarif } from "@/lib/impact/sarif";
@@ -21,7 +23,7 @@ const DEFAULT_FILE: Record<ImportFormat, string> = {
 
 export function pushResponse(result: PushResult, { impactFormat, file, format, env }: { impactFormat: ImpactFormat; file: string | undefined; format: ImportFormat; env: string }): Response {
   const impact = result.impact;
-  if (!impact || impactFormat === "json") return NextResponse.json(result);
+  if (!impact || impactFormat === "json") return respond(pushResultSchema, result);
   const verdict = { "Pinchpoint-Impact": !impact.changed ? "unchanged" : impact.blocked ? "blocked" : impact.summary.policiesFailed ? "warn" : "pass" };
   const path = file ?? DEFAULT_FILE[format];
   if (impactFormat === "markdown") {

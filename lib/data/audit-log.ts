@@ -2,31 +2,13 @@
 import "server-only";
 import { QueryTypes } from "sequelize";
 import { db } from "@/models";
-import type { AuditQuery } from "@/lib/api/schemas/reviews";
+import { orderOf } from "@/lib/api/schemas/common";
+import { AUDIT_LIST, type AuditEntry, type AuditPage, type AuditQuery } from "@/lib/api/schemas/reviews";
+import { containsPattern, orderSql } from "./list-sql";
 
-export interface AuditEntry {
-  id: string;
-  at: string;
-  actorType: "user" | "token" | "system";
-  actorLabel: string;
-  action: string;
-  targetType: string;
-  targetId: string;
-  environment: string | null;
-  before: unknown;
-  after: unknown;
-}
+export type { AuditEntry, AuditPage };
 
-export interface AuditPage {
-  total: number;
-  limit: number;
-  offset: number;
-  items: AuditEntry[];
-  /** every action recorded so far, for the filter's choices */
-  actions: string[];
-}
-
-const like = (s: string) => `%${s.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+const SORTS: Record<AuditQuery["sort"], string> = { at: "ae.created_at", action: "ae.action", actor: "ae.actor_label" };
 
 export async function listAuditEvents(query: AuditQuery): Promise<AuditPage> {
   const where: string[] = [];
@@ -39,7 +21,7 @@ export async function listAuditEvents(query: AuditQuery): Promise<AuditPage> {
   }
   if (query.actor) {
     where.push("ae.actor_label ILIKE :actor");
-    replacements.actor = like(query.actor);
+    replacements.actor = containsPattern(query.actor);
   }
   if (query.environment) {
     where.push("e.slug = :environment");
@@ -47,7 +29,7 @@ export async function listAuditEvents(query: AuditQuery): Promise<AuditPage> {
   }
   if (query.target) {
     where.push("(ae.target_id ILIKE :target OR ae.target_type = :targetExact)");
-    replacements.target = like(query.target);
+    replacements.target = containsPattern(query.target);
     replacements.targetExact = query.target;
   }
   // Dates are whole UTC days, both ends included.
@@ -77,7 +59,7 @@ export async function listAuditEvents(query: AuditQuery): Promise<AuditPage> {
        FROM audit_events ae
        LEFT JOIN environments e ON e.id = ae.environment_id
       ${where.length ? `WHERE ${where.join(" AND ")}` : ""}
-      ORDER BY ae.created_at DESC, ae.id
+      ORDER BY ${orderSql(SORTS[query.sort], orderOf(AUDIT_LIST, query), "ae.created_at DESC, ae.id")}
       LIMIT :limit OFFSET :offset`,
     { type: QueryTypes.SELECT, replacements },
   );

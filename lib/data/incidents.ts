@@ -28,6 +28,9 @@ import { nameIndex, resolveAlert, type NameIndex } from "@/lib/incidents/resolve
 import { PREDICTED_LIST_CAP, type CurrentIncidentResponse, type IncidentAlert, type IncidentDetailResponse, type IncidentHistoryResponse, type IncidentRow, type ReceiveAlertsResponse, type StoredRanking } from "@/lib/incidents/types";
 import { INCIDENT_CAUTION, incidentSummaryText, pageOrder, type PageEntry, type UnknownAlertGroup } from "@/lib/incidents/view";
 import { recordAudit, type SystemActor } from "./audit";
+import { orderSql } from "./list-sql";
+import { orderOf } from "@/lib/api/schemas/common";
+import { INCIDENT_LIST, type IncidentsQuery } from "@/lib/api/schemas/incidents";
 import { getEnvironmentOrThrow } from "./environments";
 import { effectiveOwners, getSnapshotGraph, teamContacts } from "./snapshot-graph";
 
@@ -436,11 +439,16 @@ export async function getIncident({ slug, number }: { slug: string; number: numb
   return { environment: environment.slug, incident: toIncidentRow(row, "peak"), alerts: rows.map((r) => toAlert(r, ctx)), caution: INCIDENT_CAUTION };
 }
 
-export async function listIncidents({ slug, limit, offset }: { slug: string; limit: number; offset: number }): Promise<IncidentHistoryResponse> {
+const INCIDENT_SORTS: Record<IncidentsQuery["sort"], string> = { number: "i.number", peakFiring: "i.peak_firing", alertCount: "alert_count" };
+
+export async function listIncidents({ slug, query }: { slug: string; query: IncidentsQuery }): Promise<IncidentHistoryResponse & { limit: number; offset: number }> {
   const environment = await getEnvironmentOrThrow({ slug });
   const { sequelize } = db();
+  const { limit, offset } = query;
+  const status = query.status === "open" ? " AND i.resolved_at IS NULL" : query.status === "resolved" ? " AND i.resolved_at IS NOT NULL" : "";
   const rows = await sequelize.query<IncidentDbRow & { total: string }>(
-    `${INCIDENT_SELECT.replace("FROM incidents i", ", count(*) OVER () AS total FROM incidents i")} WHERE i.environment_id = :id ORDER BY i.number DESC LIMIT :limit OFFSET :offset`,
+    `${INCIDENT_SELECT.replace("FROM incidents i", ", count(*) OVER () AS total FROM incidents i")} WHERE i.environment_id = :id${status}
+      ORDER BY ${orderSql(INCIDENT_SORTS[query.sort], orderOf(INCIDENT_LIST, query), "i.number DESC")} LIMIT :limit OFFSET :offset`,
     { type: QueryTypes.SELECT, replacements: { id: environment.id, limit, offset } },
   );
   // What actually caused incidents (the first probable origin at each incident's peak), over the
@@ -465,6 +473,8 @@ export async function listIncidents({ slug, limit, offset }: { slug: string; lim
     environment: environment.slug,
     items: rows.map((r) => toIncidentRow(r, "peak")),
     total: Number(rows[0]?.total ?? 0),
+    limit,
+    offset,
     causes: causes.map((c) => ({ key: c.key, incidents: Number(c.incidents), lastAt: c.last_at.toISOString(), pinchRank: byKey.get(c.key)?.rank ?? null, pinchScore: byKey.get(c.key)?.pinch_score ?? null })),
     predicted: ranks.filter((r) => r.rank <= 10).map((r) => ({ key: r.key, pinchRank: r.rank, pinchScore: r.pinch_score, incidents: causeCount.get(r.key) ?? 0 })),
   };

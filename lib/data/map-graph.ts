@@ -3,7 +3,7 @@
 import "server-only";
 import { QueryTypes } from "sequelize";
 import { db } from "@/models";
-import type { MapGraph } from "@/components/map/types";
+import type { MapGraph } from "@/lib/api/schemas/map";
 import { METRIC_COLUMNS, getAnalysisView, getCycles, type MetricColumns } from "./analysis-results";
 import { listTeams } from "./teams";
 import { effectiveOwners, getSnapshotGraph } from "./snapshot-graph";

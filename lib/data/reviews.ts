@@ -4,7 +4,7 @@
 import "server-only";
 import { QueryTypes } from "sequelize";
 import { db } from "@/models";
-import type { ReviewStatus } from "@/models/RiskReview";
+import type { ReviewStatus } from "@/lib/review-status";
 import type { Actor } from "@/lib/auth/actor";
 import { roleHas } from "@/lib/auth/roles";
 import type { ReviewInput } from "@/lib/api/schemas/reviews";

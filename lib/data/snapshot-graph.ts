@@ -10,6 +10,8 @@ import type { SnapshotContent } from "@/lib/inventory/snapshot";
 import { AppError } from "@/lib/errors";
 import { analysisInputFromContent, analysisSettingsKey, effectiveStrength, type AnalysisSettings } from "@/lib/analysis/input";
 import { readSettings } from "@/lib/inventory/settings";
+import type { z } from "zod";
+import type { chainHopSchema, chainResponseSchema } from "@/lib/api/schemas/analysis";
 
 interface Entry {
   content: SnapshotContent;
@@ -143,26 +145,8 @@ export async function startupNeeds({ snapshotId }: { snapshotId: string }): Prom
   return out;
 }
 
-export interface ChainHop {
-  from: string;
-  to: string;
-  strength: "hard" | "soft" | "startup";
-  provenance: string[];
-  via: string | null;
-  anyOf: boolean;
-}
-
-export interface ChainResponse {
-  from: string;
-  to: string;
-  /** Keys from `from` to `to` along needs, both included; null when `from` does not depend on `to`. */
-  path: string[] | null;
-  hops: ChainHop[];
-  /** Every hop a plain hard need: `from` goes down when `to` fails (any_of groups and soft needs can stop it). */
-  hardAllTheWay: boolean;
-  /** When `from` does not depend on `to`: whether it is the other way round. */
-  reversed: boolean;
-}
+export type ChainHop = z.infer<typeof chainHopSchema>;
+export type ChainResponse = Omit<z.infer<typeof chainResponseSchema>, "snapshot">;
 
 /** Why does `from` depend on `to`? The shortest chain of runtime needs, in the snapshot's graph. */
 export async function dependencyChain({ snapshotId, from, to }: { snapshotId: string; from: string; to: string }): Promise<ChainResponse> {

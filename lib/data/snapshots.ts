@@ -1,35 +1,52 @@
-// Snapshot history and diffs between any two snapshots of an environment.
+// Snapshot history and diffs between any two snapshots of an environment, and the import history.
+// Both lists grow with every push: paged, sorted and filtered here.
 import "server-only";
+import { Op, type WhereOptions } from "sequelize";
 import { db } from "@/models";
+import { orderOf } from "@/lib/api/schemas/common";
+import { IMPORT_LIST, SNAPSHOT_LIST, type ImportRow, type SnapshotListItem } from "@/lib/api/schemas/history";
 import { diffSnapshots, type SnapshotDiff } from "@/lib/inventory/snapshot";
 import { notFound } from "@/lib/errors";
+import { containsPattern } from "./list-sql";
 
-export interface SnapshotListItem {
-  id: string;
-  number: number;
-  createdAt: string;
-  source: string | null;
-  format: string | null;
-  actor: string | null;
-  components: number;
-  dependencies: number;
-  undeclared: number;
-  analysis: string | null;
+export type { SnapshotListItem };
+
+interface ListQuery<S extends string> {
+  sort: S;
+  order?: "asc" | "desc";
+  limit: number;
+  offset: number;
+  q?: string;
 }
 
-export async function listSnapshots({ environmentId, limit, offset }: { environmentId: string; limit: number; offset: number }): Promise<{ total: number; items: SnapshotListItem[] }> {
+const SNAPSHOT_SORTS = { number: "number", components: "componentCount", dependencies: "dependencyCount", undeclared: "undeclaredCount" } as const;
+
+export async function listSnapshots({
+  environmentId,
+  query,
+}: {
+  environmentId: string;
+  query: ListQuery<keyof typeof SNAPSHOT_SORTS>;
+}): Promise<{ total: number; limit: number; offset: number; items: SnapshotListItem[] }> {
   const { Snapshot, AnalysisRun } = db().models;
+  const where: WhereOptions = query.q
+    ? { environmentId, [Op.or]: [{ sourceName: { [Op.iLike]: containsPattern(query.q) } }, { actorLabel: { [Op.iLike]: containsPattern(query.q) } }] }
+    : { environmentId };
+  const order = orderOf(SNAPSHOT_LIST, query) === "asc" ? "ASC" : "DESC";
   const { rows, count } = await Snapshot.findAndCountAll({
-    where: { environmentId },
+    where,
     attributes: ["id", "number", "createdAt", "sourceName", "format", "actorLabel", "componentCount", "dependencyCount", "undeclaredCount"],
-    order: [["number", "DESC"]],
-    limit,
-    offset,
+    order: [[SNAPSHOT_SORTS[query.sort], order], ["number", "DESC"]],
+    limit: query.limit,
+    offset: query.offset,
   });
+  const { limit, offset } = query;
   const runs = await AnalysisRun.findAll({ where: { snapshotId: rows.map((r) => r.id) }, attributes: ["snapshotId", "status"] });
   const status = new Map(runs.map((r) => [r.snapshotId, r.status]));
   return {
     total: count,
+    limit,
+    offset,
     items: rows.map((r) => ({
       id: r.id,
       number: r.number,
@@ -56,10 +73,31 @@ export async function diffBetween({ environmentId, a, b }: { environmentId: stri
   return { from: a, to: b, ...diffSnapshots(sa.content, sb.content) };
 }
 
-export async function listImports({ environmentId, limit, offset }: { environmentId: string; limit: number; offset: number }) {
-  const { rows, count } = await db().models.ImportRecord.findAndCountAll({ where: { environmentId }, order: [["createdAt", "DESC"]], limit, offset });
+const IMPORT_SORTS = { createdAt: "createdAt", source: "sourceName", actor: "actorLabel", format: "format" } as const;
+
+export async function listImports({
+  environmentId,
+  query,
+}: {
+  environmentId: string;
+  query: ListQuery<keyof typeof IMPORT_SORTS> & { format?: string };
+}): Promise<{ total: number; limit: number; offset: number; items: ImportRow[] }> {
+  const where: WhereOptions = {
+    environmentId,
+    ...(query.format ? { format: query.format } : {}),
+    ...(query.q ? { [Op.or]: [{ sourceName: { [Op.iLike]: containsPattern(query.q) } }, { actorLabel: { [Op.iLike]: containsPattern(query.q) } }] } : {}),
+  };
+  const order = orderOf(IMPORT_LIST, query) === "asc" ? "ASC" : "DESC";
+  const { rows, count } = await db().models.ImportRecord.findAndCountAll({
+    where,
+    order: [[IMPORT_SORTS[query.sort], order], ["createdAt", "DESC"], ["id", "ASC"]],
+    limit: query.limit,
+    offset: query.offset,
+  });
   return {
     total: count,
+    limit: query.limit,
+    offset: query.offset,
     items: rows.map((r) => ({
       id: r.id,
       createdAt: r.createdAt.toISOString(),

@@ -6,59 +6,30 @@ import { QueryTypes, UniqueConstraintError } from "sequelize";
 import { db } from "@/models";
 import type { Actor } from "@/lib/auth/actor";
 import { roleHas } from "@/lib/auth/roles";
-import { LEAD_EDITABLE, type AddMemberInput, type CreateTeamInput, type UpdateTeamInput } from "@/lib/api/schemas/teams";
+import { orderOf } from "@/lib/api/schemas/common";
+import {
+  LEAD_EDITABLE,
+  OWNED_LIST,
+  type AddMemberInput,
+  type CreateTeamInput,
+  type TeamComponent,
+  type TeamDetail,
+  type TeamMember,
+  type TeamOverview,
+  type TeamQuery,
+  type UnownedComponent,
+  type UpdateTeamInput,
+} from "@/lib/api/schemas/teams";
 import { AppError, forbidden, notFound } from "@/lib/errors";
 import type { ComponentKind, Tier } from "@/lib/inventory/types";
 import { recordAudit } from "./audit";
+import { containsPattern, orderSql } from "./list-sql";
 import { teamsLedBy } from "./teams";
 
 /** A component is a team's pinch point when it is in its environment's top this many by pinch score. */
 export const PINCH_POINT_TOP = 10;
 
-export interface TeamOverview {
-  slug: string;
-  name: string;
-  email: string | null;
-  oncall: string | null;
-  description: string | null;
-  memberCount: number;
-  leadCount: number;
-  /** components the team owns (assigned in Pinchpoint, else declared), summed over environments */
-  componentCount: number;
-  pinchPointCount: number;
-}
-
-export interface TeamMember {
-  userId: string;
-  name: string;
-  email: string;
-  role: string;
-  isLead: boolean;
-}
-
-export interface TeamComponent {
-  environment: string;
-  key: string;
-  name: string;
-  kind: ComponentKind;
-  tier: Tier;
-  /** null until the environment's served snapshot has been analysed with this component in it */
-  pinchScore: number | null;
-  /** position by betweenness (the default ranking) */
-  rank: number | null;
-  /** position by pinch score within the environment */
-  pinchRank: number | null;
-  pinchPoint: boolean;
-}
-
-export interface TeamDetail extends Omit<TeamOverview, "memberCount" | "leadCount" | "componentCount" | "pinchPointCount"> {
-  id: string;
-  members: TeamMember[];
-  components: TeamComponent[];
-  pinchPoints: TeamComponent[];
-}
-
-export type UnownedComponent = Omit<TeamComponent, "pinchPoint"> & { pinchPoint: boolean; declaredTeam: null };
+export type { TeamComponent, TeamDetail, TeamOverview, UnownedComponent };
 
 // The newest analysed snapshot of each environment, and each component's place by pinch score in it.
 const SCORED_CTE = `
@@ -82,19 +53,40 @@ interface ComponentRow {
   pinch_rank: string | null;
 }
 
-async function ownedComponents(where: string, replacements: Record<string, unknown>): Promise<ComponentRow[]> {
-  return db().sequelize.query<ComponentRow>(
+const OWNED_SORTS: Record<TeamQuery["sort"], string> = {
+  pinchScore: "sc.pinch_score",
+  key: "c.key",
+  environment: "e.slug",
+  tier: "c.tier",
+  kind: "c.kind::text",
+};
+
+/** Components matching `where`, over every environment, one page of them in the list's order. */
+async function ownedComponents(
+  where: string[],
+  replacements: Record<string, unknown>,
+  query: Pick<TeamQuery, "sort" | "order" | "limit" | "offset" | "environment" | "q">,
+): Promise<{ total: number; rows: ComponentRow[] }> {
+  const all = [...where];
+  if (query.environment) all.push("e.slug = :environment");
+  if (query.q) all.push("(c.key ILIKE :q OR c.name ILIKE :q)");
+  const rows = await db().sequelize.query<ComponentRow & { total: string }>(
     `WITH ${SCORED_CTE}
-     SELECT e.slug AS environment, c.key, c.name, c.kind, c.tier, COALESCE(a.owner_team, c.team) AS team,
+     SELECT count(*) OVER () AS total, e.slug AS environment, c.key, c.name, c.kind, c.tier, COALESCE(a.owner_team, c.team) AS team,
             sc.pinch_score, sc.rank, sc.pinch_rank
        FROM components c
        JOIN environments e ON e.id = c.environment_id
        LEFT JOIN component_annotations a ON a.environment_id = c.environment_id AND a.key = c.key
        LEFT JOIN scored sc ON sc.environment_id = c.environment_id AND sc.key = c.key
-      WHERE ${where}
-      ORDER BY sc.pinch_score DESC NULLS LAST, e.slug, c.key`,
-    { type: QueryTypes.SELECT, replacements: { ...replacements, top: PINCH_POINT_TOP } },
+      WHERE ${all.join(" AND ")}
+      ORDER BY ${orderSql(OWNED_SORTS[query.sort], orderOf(OWNED_LIST, query), "e.slug, c.key")}
+      LIMIT :limit OFFSET :offset`,
+    {
+      type: QueryTypes.SELECT,
+      replacements: { ...replacements, top: PINCH_POINT_TOP, environment: query.environment, q: query.q ? containsPattern(query.q) : undefined, limit: query.limit, offset: query.offset },
+    },
   );
+  return { total: Number(rows[0]?.total ?? 0), rows };
 }
 
 const toComponent = (r: ComponentRow): TeamComponent => {
@@ -161,7 +153,8 @@ export async function listTeamOverview(): Promise<{ items: TeamOverview[]; unown
   };
 }
 
-export async function getTeamDetail({ slug }: { slug: string }): Promise<TeamDetail> {
+/** A team with its people, its pinch points, and one page of its components (they grow with the estate). */
+export async function getTeamDetail({ slug, query }: { slug: string; query: TeamQuery }): Promise<TeamDetail> {
   const { models } = db();
   const team = await models.Team.findOne({ where: { slug } });
   if (!team) throw notFound(`Team "${slug}"`);
@@ -172,7 +165,13 @@ export async function getTeamDetail({ slug }: { slug: string }): Promise<TeamDet
       ORDER BY m.is_lead DESC, u.name`,
     { type: QueryTypes.SELECT, replacements: { teamId: team.id } },
   );
-  const components = (await ownedComponents("COALESCE(a.owner_team, c.team) = :slug", { slug })).map(toComponent);
+  const owned = ["COALESCE(a.owner_team, c.team) = :slug"];
+  const [page, top] = await Promise.all([
+    ownedComponents(owned, { slug }, query),
+    // At most PINCH_POINT_TOP per environment, so the list stays short whatever the team owns.
+    ownedComponents([...owned, "sc.pinch_rank <= :top"], { slug }, { sort: "pinchScore", limit: 1000, offset: 0 }),
+  ]);
+  const members_: TeamMember[] = members.map((m) => ({ userId: m.user_id, name: m.name, email: m.email, role: m.role, isLead: m.is_lead }));
   return {
     id: team.id,
     slug: team.slug,
@@ -180,18 +179,16 @@ export async function getTeamDetail({ slug }: { slug: string }): Promise<TeamDet
     email: team.email,
     oncall: team.oncall,
     description: team.description,
-    members: members.map((m) => ({ userId: m.user_id, name: m.name, email: m.email, role: m.role, isLead: m.is_lead })),
-    components,
-    pinchPoints: components.filter((c) => c.pinchPoint),
+    members: members_,
+    pinchPoints: top.rows.map(toComponent),
+    components: { total: page.total, limit: query.limit, offset: query.offset, items: page.rows.map(toComponent) },
   };
 }
 
-/** Components nobody owns, in every environment (or one), most pinching first. */
-export async function listUnowned({ environment }: { environment?: string } = {}): Promise<UnownedComponent[]> {
-  const where = ["COALESCE(a.owner_team, c.team) IS NULL", "c.kind <> 'undeclared'"];
-  if (environment) where.push("e.slug = :environment");
-  const rows = await ownedComponents(where.join(" AND "), { environment });
-  return rows.map((r) => ({ ...toComponent(r), declaredTeam: null }));
+/** Components nobody owns, in every environment (or one), one page of them, most pinching first by default. */
+export async function listUnowned(query: TeamQuery): Promise<{ total: number; limit: number; offset: number; items: UnownedComponent[] }> {
+  const { total, rows } = await ownedComponents(["COALESCE(a.owner_team, c.team) IS NULL", "c.kind <> 'undeclared'"], {}, query);
+  return { total, limit: query.limit, offset: query.offset, items: rows.map(toComponent) };
 }
 
 type TeamRecord = { slug: string; name: string; email: string | null; oncall: string | null; description: string | null };

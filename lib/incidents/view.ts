@@ -2,7 +2,7 @@
 // page in order, and the plain-text summary a responder pastes into a channel. Pure: the data layer
 // supplies owners and contacts.
 import type { OriginResult } from "@/lib/analysis/origin";
-import type { TeamContact } from "@/lib/data/snapshot-graph";
+import type { TeamContact } from "@/lib/api/schemas/analysis";
 
 export type { TeamContact };
 

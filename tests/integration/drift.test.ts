@@ -6,6 +6,7 @@
 import { beforeAll, describe, expect, it } from "vitest";
 import { GET as drift } from "@/app/api/v1/environments/[env]/drift/route";
 import { importInventory } from "@/importers";
+import type { DriftResponse } from "@/lib/api/schemas/drift";
 import { getDrift, type Drift } from "@/lib/data/drift";
 import { getEnvironmentOrThrow } from "@/lib/data/environments";
 import { pushInventory } from "@/lib/data/push";
@@ -155,13 +156,41 @@ describe("drift", () => {
     expect(anon.status).toBe(401);
     const ok = await call(drift, { url: "/api/v1/environments/prod/drift", params: { env: "prod" }, as: viewer });
     expect(ok.status).toBe(200);
-    const body = ok.json as Drift;
+    const body = ok.json as DriftResponse;
     const again = await getDrift({ environmentId });
-    // Rates move with the clock between the two reads; everything else is the same.
+    // Rates move with the clock between the two reads; everything else is the same. Each list is
+    // one page of the full one (25 by default, in the same order).
     const still = (x: Drift) => ({ ...x, window: x.window.days, seenNotDeclared: strip(x.seenNotDeclared) });
-    expect(still(body)).toEqual(still(again));
-    expect(body.seenNotDeclared).toHaveLength(4);
+    expect(still({ ...body, seenNotDeclared: body.seenNotDeclared.items, declaredNotSeen: body.declaredNotSeen.items })).toEqual(still(again));
+    expect(body.seenNotDeclared).toMatchObject({ total: 4, limit: 25, offset: 0 });
+    expect(body.declaredNotSeen.total).toBe(again.declaredNotSeen.length);
     const missing = await call(drift, { url: "/api/v1/environments/nowhere/drift", params: { env: "nowhere" }, as: viewer });
     expect(missing.status).toBe(404);
+  });
+
+  it("pages, sorts and searches each list on the server, with its own prefixed parameters", async () => {
+    const full = await getDrift({ environmentId });
+    const get = async (query: string) => {
+      const res = await call(drift, { url: `/api/v1/environments/prod/drift?${query}`, params: { env: "prod" }, as: viewer });
+      expect({ query, status: res.status }).toEqual({ query, status: 200 });
+      return res.json as DriftResponse;
+    };
+    const pairs = (rows: Array<{ from: string; to: string }>) => rows.map((r) => `${r.from}>${r.to}`);
+    // The second page of two: the third and fourth calls of the whole list, most calls first.
+    const second = await get("seen_limit=2&seen_offset=2");
+    expect(second.seenNotDeclared).toMatchObject({ total: 4, limit: 2, offset: 2 });
+    expect(pairs(second.seenNotDeclared.items)).toEqual(pairs(full.seenNotDeclared.slice(2, 4)));
+    // By caller, A→Z; the declared list keeps its own (default) order.
+    const byCaller = await get("seen_sort=from&seen_order=asc");
+    expect(pairs(byCaller.seenNotDeclared.items)).toEqual(pairs([...full.seenNotDeclared].sort((a, b) => (a.from < b.from ? -1 : a.from > b.from ? 1 : 0))));
+    expect(pairs(byCaller.declaredNotSeen.items)).toEqual(pairs(full.declaredNotSeen));
+    // A search looks at both ends, any case; the total counts what it kept.
+    const search = await get("seen_q=SEARCH");
+    expect(search.seenNotDeclared.total).toBe(1);
+    expect(pairs(search.seenNotDeclared.items)).toEqual(["web>search"]);
+    // A bad parameter is a located 422 that names it.
+    const bad = await call(drift, { url: "/api/v1/environments/prod/drift?seen_limit=0", params: { env: "prod" }, as: viewer });
+    expect(bad.status).toBe(422);
+    expect((bad.json as { issues: Array<{ path: string }> }).issues.map((i) => i.path)).toEqual(["query.seen_limit"]);
   });
 });

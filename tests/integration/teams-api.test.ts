@@ -42,7 +42,7 @@ type TeamDetailBody = {
   slug: string;
   oncall: string | null;
   members: Array<{ userId: string; email: string; isLead: boolean }>;
-  components: Array<{ environment: string; key: string; pinchScore: number | null; pinchPoint: boolean }>;
+  components: { total: number; limit: number; offset: number; items: Array<{ environment: string; key: string; pinchScore: number | null; pinchPoint: boolean }> };
   pinchPoints: Array<{ key: string }>;
 };
 
@@ -148,7 +148,7 @@ describe("GET /api/v1/teams/{slug}", () => {
         expect.objectContaining({ email: users.engineer.email, isLead: false }),
       ]),
     );
-    expect(body.components).toEqual([expect.objectContaining({ environment: "staging", key: "web", pinchScore: expect.any(Number) })]);
+    expect(body.components).toEqual({ total: 1, limit: 50, offset: 0, items: [expect.objectContaining({ environment: "staging", key: "web", pinchScore: expect.any(Number) })] });
     // Four components: every analysed one is in the top ten by pinch score.
     expect(body.pinchPoints.map((p) => p.key)).toEqual(["web"]);
   });

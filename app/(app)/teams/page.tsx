@@ -1,3 +1,4 @@
+import { Suspense } from "react";
 import { OverduePanel } from "@/components/reviews/OverduePanel";
 import { TeamsList } from "@/components/teams/TeamsList";
 import { UnownedQueue } from "@/components/teams/UnownedQueue";
@@ -24,13 +25,15 @@ export default async function TeamsPage() {
       <TeamsList isAdmin={roleHas(user.role, "admin")} />
       <div className="grid gap-6 xl:grid-cols-3">
         <div className="xl:col-span-2">
-          <UnownedQueue
-            viewer={{
-              ledTeams: mayClaim ? ledTeams : [],
-              assignAny,
-              teams: teams.map((t) => ({ slug: t.slug, name: t.name })),
-            }}
-          />
+          <Suspense>
+            <UnownedQueue
+              viewer={{
+                ledTeams: mayClaim ? ledTeams : [],
+                assignAny,
+                teams: teams.map((t) => ({ slug: t.slug, name: t.name })),
+              }}
+            />
+          </Suspense>
         </div>
         <OverduePanel items={overdue} />
       </div>

@@ -1,6 +1,9 @@
+// Pushing an inventory (every format, dry runs and impact) and what a push answers.
 import { z } from "zod";
-import { IMPORT_FORMATS, SOURCE_PATTERN, type KubernetesImportOptions } from "@/lib/inventory/types";
-import { booleanParam, kindSchema, slugSchema } from "./common";
+import { IMPORT_FORMATS, IMPORT_NOTE_KINDS, type KubernetesImportOptions } from "@/lib/inventory/types";
+import { booleanParam, filePositionSchema, instantSchema, issueSchema, sourceSchema, strengthSchema } from "./common";
+import { snapshotDiffSchema } from "./history";
+import { impactReportSchema } from "./impact";
 
 export const IMPACT_FORMATS = ["json", "markdown", "sarif"] as const;
 export type ImpactFormat = (typeof IMPACT_FORMATS)[number];
@@ -8,20 +11,19 @@ export type ImpactFormat = (typeof IMPACT_FORMATS)[number];
 /** Query parameters that only the `kubernetes` format reads (importers/README.md, Kubernetes). */
 export const KUBERNETES_PUSH_PARAMS = ["cluster_domain", "team_key", "teams", "namespace_teams", "aliases"] as const;
 
-export const pushQuerySchema = z
+/** Compose profiles to include, as typed (Compose Specification, "Profiles": names are [a-zA-Z0-9][a-zA-Z0-9_.-]+). */
+export const profilesTextSchema = z.string().regex(/^[a-zA-Z0-9][a-zA-Z0-9_.-]*(,[a-zA-Z0-9][a-zA-Z0-9_.-]*)*$/, "must be profile names separated by commas, e.g. debug,test");
+
+/** Why an architect or admin pushes past a blocking policy. */
+export const overrideReasonSchema = z.string().trim().min(10, "give a reason of at least 10 characters").max(1000);
+
+/** Each query parameter of a push on its own (the upload form takes some of them). */
+export const pushQueryFields = z
   .object({
     dry_run: booleanParam.optional(),
     format: z.enum(IMPORT_FORMATS).optional(),
-    source: z
-      .string()
-      .regex(SOURCE_PATTERN, 'must be a source name: 1-128 characters of a-z, 0-9, ".", "_" or "-", starting with a letter or digit')
-      .optional(),
-    // Compose profiles to include (Compose Specification, "Profiles": names are [a-zA-Z0-9][a-zA-Z0-9_.-]+).
-    profiles: z
-      .string()
-      .regex(/^[a-zA-Z0-9][a-zA-Z0-9_.-]*(,[a-zA-Z0-9][a-zA-Z0-9_.-]*)*$/, "must be profile names separated by commas, e.g. debug,test")
-      .transform((v) => v.split(","))
-      .optional(),
+    source: sourceSchema.optional(),
+    profiles: profilesTextSchema.transform((v) => v.split(",")).optional(),
     cluster_domain: z.string().max(253).optional().describe("kubernetes: the cluster's DNS domain (default cluster.local)"),
     team_key: z.string().max(317).optional().describe("kubernetes: label or annotation key naming the owning team (default team)"),
     teams: z
@@ -41,22 +43,44 @@ export const pushQuerySchema = z
       .refine((f) => [...f].every((c) => c.charCodeAt(0) >= 0x20 && c !== "\u007f"), "must be a file path without control characters")
       .optional()
       .describe("the pushed file's path in its repository, for SARIF locations and Markdown (default: a name for the format)"),
-    override_reason: z
-      .string()
-      .trim()
-      .min(10, "give a reason of at least 10 characters")
-      .max(1000)
+    override_reason: overrideReasonSchema
       .optional()
       .describe("architects and admins: why this change is pushed although a blocking policy refuses it (audited)"),
   })
-  .strict()
-  .superRefine((q, ctx) => {
-    if (q.override_reason !== undefined && q.dry_run) ctx.addIssue({ code: "custom", path: ["override_reason"], message: "a dry run stores nothing, so there is nothing to override" });
-    if ((q.format ?? "pinchpoint") === "kubernetes") return;
-    for (const p of KUBERNETES_PUSH_PARAMS) {
-      if (q[p] !== undefined) ctx.addIssue({ code: "custom", path: [p], message: `${p} is read only with format=kubernetes` });
+  .strict();
+
+export const pushQuerySchema = pushQueryFields.superRefine((q, ctx) => {
+  if (q.override_reason !== undefined && q.dry_run) ctx.addIssue({ code: "custom", path: ["override_reason"], message: "a dry run stores nothing, so there is nothing to override" });
+  if ((q.format ?? "pinchpoint") === "kubernetes") return;
+  for (const p of KUBERNETES_PUSH_PARAMS) {
+    if (q[p] !== undefined) ctx.addIssue({ code: "custom", path: [p], message: `${p} is read only with format=kubernetes` });
+  }
+});
+
+/**
+ * The upload form's settings (the imports screen): the push parameters a person chooses, as typed.
+ * Every format but `pinchpoint` needs a source: a Pinchpoint file names its own.
+ */
+export const uploadSettingsSchema = z
+  .object({
+    format: z.enum(IMPORT_FORMATS),
+    source: z.string().trim().optional(),
+    profiles: z.string().trim().optional(),
+  })
+  .superRefine((v, ctx) => {
+    if (v.format !== "pinchpoint") {
+      const ok = sourceSchema.safeParse(v.source ?? "");
+      if (!ok.success) ctx.addIssue({ code: "custom", path: ["source"], message: v.source ? (ok.error.issues[0]?.message ?? "not a source name") : "name the source this upload replaces" });
+    }
+    if (v.format === "compose" && v.profiles) {
+      const ok = profilesTextSchema.safeParse(v.profiles);
+      if (!ok.success) ctx.addIssue({ code: "custom", path: ["profiles"], message: ok.error.issues[0]?.message ?? "not a list of profiles" });
     }
   });
+export type UploadSettings = z.infer<typeof uploadSettingsSchema>;
+
+/** The override form under a blocked impact. */
+export const overrideFormSchema = z.object({ override_reason: overrideReasonSchema });
 
 /** The Kubernetes importer's settings from a parsed push query. */
 export function kubernetesOptionsOf(q: z.infer<typeof pushQuerySchema>): KubernetesImportOptions | undefined {
@@ -70,11 +94,41 @@ export function kubernetesOptionsOf(q: z.infer<typeof pushQuerySchema>): Kuberne
   };
 }
 
-export const componentsQuerySchema = z
-  .object({
-    team: slugSchema.optional(),
-    kind: kindSchema.optional(),
-    q: z.string().max(128).optional(),
-    unowned: booleanParam.optional(),
-  })
-  .strict();
+// ---------------------------------------------------------------------------------------------
+// Responses
+
+export const importNoteSchema = z.object({ kind: z.enum(IMPORT_NOTE_KINDS), component: z.string(), target: z.string().optional(), reason: z.string(), at: filePositionSchema.optional() });
+export type ImportNote = z.infer<typeof importNoteSchema>;
+
+export const inferredNeedSchema = z.object({
+  from: z.string(),
+  /** one key, or the members of an any_of group */
+  to: z.array(z.string()),
+  strength: strengthSchema,
+  via: z.string().nullable(),
+  reason: z.string().nullable(),
+  at: filePositionSchema.nullable(),
+});
+export type InferredNeed = z.infer<typeof inferredNeedSchema>;
+
+export const diffSummarySchema = snapshotDiffSchema.extend({
+  counts: z.object({ componentsAdded: z.int(), componentsRemoved: z.int(), componentsChanged: z.int(), dependenciesAdded: z.int(), dependenciesRemoved: z.int() }),
+});
+export type DiffSummary = z.infer<typeof diffSummarySchema>;
+
+/** POST …/inventory (JSON answer): what changed or would change. */
+export const pushResultSchema = z.object({
+  changed: z.boolean(),
+  dryRun: z.boolean(),
+  snapshot: z.object({ id: z.string(), number: z.int(), createdAt: instantSchema }).nullable(),
+  diff: diffSummarySchema,
+  warnings: z.array(issueSchema),
+  /** what the importer inferred beyond what the files say, each with its reason */
+  notes: z.array(importNoteSchema).optional(),
+  /** trace files: distinct observed edges, spans read, calls counted, repeated spans skipped */
+  observed: z.object({ edges: z.int(), spans: z.int(), calls: z.int(), duplicates: z.int() }).optional(),
+  /** dry runs: needs inferred from configuration */
+  inferred: z.object({ total: z.int(), needs: z.array(inferredNeedSchema) }).optional(),
+  impact: impactReportSchema.optional(),
+});
+export type PushResult = z.infer<typeof pushResultSchema>;

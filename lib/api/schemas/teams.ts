@@ -1,6 +1,6 @@
 // Requests about teams: create (admin), edit (admin, or a lead for contact fields), membership (admin).
 import { z } from "zod";
-import { slugSchema } from "./common";
+import { defineList, kindSchema, listQuery, pageOf, slugSchema, tierSchema } from "./common";
 
 /** Path words under /api/v1/teams that are routes of their own, so no team may take them as a slug. */
 export const RESERVED_TEAM_SLUGS = ["unowned"] as const;
@@ -61,4 +61,72 @@ export type AddMemberInput = z.infer<typeof addMemberSchema>;
 
 export const memberParamsSchema = z.object({ slug: slugSchema, userId: z.uuid() });
 
-export const unownedQuerySchema = z.object({ environment: slugSchema.optional() }).strict();
+/** A team's components across environments, and the unowned queue: both grow with the estate. */
+export const OWNED_LIST = defineList({
+  sorts: { pinchScore: "desc", key: "asc", environment: "asc", tier: "asc", kind: "asc" },
+  defaultSort: "pinchScore",
+  defaultLimit: 50,
+  maxLimit: 500,
+});
+const ownedFilters = {
+  environment: slugSchema.optional(),
+  /** part of the key or the name */
+  q: z.string().max(128).optional(),
+};
+export const unownedQuerySchema = listQuery(OWNED_LIST).extend(ownedFilters).strict();
+export type UnownedQuery = z.infer<typeof unownedQuerySchema>;
+export const teamQuerySchema = listQuery(OWNED_LIST).extend(ownedFilters).strict();
+export type TeamQuery = z.infer<typeof teamQuerySchema>;
+
+// ---------------------------------------------------------------------------------------------
+// Responses
+
+export const teamRecordSchema = z.object({ slug: z.string(), name: z.string(), email: z.string().nullable(), oncall: z.string().nullable(), description: z.string().nullable() });
+
+export const teamOverviewSchema = teamRecordSchema.extend({
+  memberCount: z.int(),
+  leadCount: z.int(),
+  /** components it owns (assigned in Pinchpoint, else declared), over every environment */
+  componentCount: z.int(),
+  pinchPointCount: z.int(),
+});
+export type TeamOverview = z.infer<typeof teamOverviewSchema>;
+
+/** GET /teams. */
+export const teamsResponseSchema = z.object({ items: z.array(teamOverviewSchema), unownedCount: z.int() });
+export type TeamsResponse = z.infer<typeof teamsResponseSchema>;
+
+export const teamMemberSchema = z.object({ userId: z.string(), name: z.string(), email: z.string(), role: z.string(), isLead: z.boolean() });
+export type TeamMember = z.infer<typeof teamMemberSchema>;
+
+/** DELETE /teams/{slug}/members/{userId}. */
+export const memberRemovedSchema = z.object({ removed: z.literal(true) });
+
+export const teamComponentSchema = z.object({
+  environment: z.string(),
+  key: z.string(),
+  name: z.string(),
+  kind: kindSchema,
+  tier: tierSchema,
+  /** null until its environment's served snapshot has been analysed with it */
+  pinchScore: z.number().nullable(),
+  /** place by betweenness (the default ranking) */
+  rank: z.int().nullable(),
+  /** place by pinch score in its environment */
+  pinchRank: z.int().nullable(),
+  pinchPoint: z.boolean(),
+});
+export type TeamComponent = z.infer<typeof teamComponentSchema>;
+
+/** GET /teams/{slug}: members, contact, its pinch points, and one page of its components. */
+export const teamDetailSchema = teamRecordSchema.extend({
+  id: z.string(),
+  members: z.array(teamMemberSchema),
+  pinchPoints: z.array(teamComponentSchema),
+  components: pageOf(teamComponentSchema),
+});
+export type TeamDetail = z.infer<typeof teamDetailSchema>;
+
+/** GET /teams/unowned. */
+export const unownedResponseSchema = pageOf(teamComponentSchema);
+export type UnownedComponent = TeamComponent;

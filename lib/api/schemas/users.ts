@@ -1,6 +1,7 @@
 // Requests of the admin user routes and the invite acceptance route.
 import { z } from "zod";
 import { ROLES } from "@/lib/auth/roles";
+import { instantSchema } from "./common";
 
 export const roleSchema = z.enum(ROLES);
 
@@ -38,3 +39,35 @@ export const acceptInviteSchema = z
   })
   .strict();
 export type AcceptInviteInput = z.infer<typeof acceptInviteSchema>;
+
+// ---------------------------------------------------------------------------------------------
+// Responses
+
+export const adminUserSchema = z.object({
+  id: z.string(),
+  email: z.string(),
+  name: z.string(),
+  role: roleSchema,
+  active: z.boolean(),
+  createdAt: instantSchema,
+  /** `invited`: no password yet and an open link; `invite-expired`: no password and every link has lapsed */
+  status: z.enum(["active", "invited", "invite-expired", "deactivated"]),
+  inviteExpiresAt: instantSchema.nullable(),
+});
+export type AdminUser = z.infer<typeof adminUserSchema>;
+
+/** GET /users. */
+export const usersResponseSchema = z.object({ items: z.array(adminUserSchema) });
+
+/** POST /users and /users/{id}/invite: the one-time link (shown once). */
+export const inviteResultSchema = z.object({ user: adminUserSchema, token: z.string(), url: z.string(), expiresAt: instantSchema });
+export type InviteResult = z.infer<typeof inviteResultSchema>;
+
+/** POST /invites/{token}. */
+export const acceptedInviteSchema = z.object({ email: z.string() });
+
+/** The sign-in form's fields (next-auth's credentials provider checks them again). */
+export const signInSchema = z.object({
+  email: z.email("enter the e-mail address you were invited with"),
+  password: z.string().min(1, "enter your password"),
+});

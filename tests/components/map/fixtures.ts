@@ -1,7 +1,7 @@
-// Seeded demo graphs in the invented Harbor Pantry estate, for tests and previews.
+// Seeded demo graphs in the invented Harbor Pantry estate, for the map tests.
 // The metrics are plausible stand-ins derived from degree, not the analysis' real values.
 import type { DeclaredKind, Tier } from "@/lib/inventory/types";
-import type { MapEdge, MapGraph, MapNode } from "./types";
+import type { MapEdge, MapGraph, MapNode } from "@/components/map/types";
 import { mulberry32 as prng } from "@/lib/analysis/random";
 
 const TEAMS = [

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { demoMapGraph } from "@/components/map/fixtures";
+import { demoMapGraph } from "./fixtures";
 import { DEFAULT_EXPORT_THEME, escapeXml, renderSvg } from "@/components/map/export";
 import { arrowDir, nextSelection } from "@/components/map/keyboard";
 import { shapePaths } from "@/components/map/shapes";

@@ -1,6 +1,6 @@
 import ELK from "elkjs/lib/elk.bundled.js";
 import { describe, expect, it } from "vitest";
-import { demoMapGraph } from "@/components/map/fixtures";
+import { demoMapGraph } from "./fixtures";
 import { buildElkGraph, findOverlap, layoutInputFromView, polylineMidpoint, readElkLayout, toFlow, type LayoutResult } from "@/components/map/layout";
 import { NODE_H, NODE_W, TEAM_NODE_W } from "@/components/map/shapes";
 import { NO_FILTERS, buildView, teamSlots, type MapView } from "@/components/map/view";

@@ -6,7 +6,7 @@ import { ReactFlowProvider } from "@xyflow/react";
 import { describe, expect, it } from "vitest";
 import { MapCanvas } from "@/components/map/MapCanvas";
 import { Inspector, inspectorLinks } from "@/components/map/Inspector";
-import { demoMapGraph } from "@/components/map/fixtures";
+import { demoMapGraph } from "./fixtures";
 import { DecorContext, ComponentNode } from "@/components/map/nodes";
 import { buildPalette } from "@/components/map/colour";
 
@@ -21,7 +21,7 @@ describe("server render", () => {
     const node = g.nodes.find((n) => n.metrics) ?? g.nodes[0];
     if (!node) throw new Error("empty fixture");
     const html = renderToString(
-      createElement(Inspector, { environment: "production", node, ...inspectorLinks(g, node.key), teams: g.teams, canEdit: true, onSave: async () => {} }),
+      createElement(Inspector, { environment: "production", node, ...inspectorLinks(g, node.key), teams: g.teams, canEdit: true, onSave: async () => null }),
     );
     expect(html).toContain("Share of the shortest dependency paths");
     expect(html).toContain(`/environments/production/drills?fail=${node.key}`);

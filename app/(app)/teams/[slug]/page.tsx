@@ -1,4 +1,5 @@
 import { notFound } from "next/navigation";
+import { Suspense } from "react";
 import { TeamDetail } from "@/components/teams/TeamDetail";
 import { requireUser } from "@/lib/auth/page";
 import { roleHas } from "@/lib/auth/roles";
@@ -18,5 +19,9 @@ export default async function TeamPage({ params }: { params: Promise<{ slug: str
   const isAdmin = roleHas(user.role, "admin");
   // Mirrors updateTeam: admins, or a lead of this team (whose role can annotate).
   const leads = roleHas(user.role, "components:annotate") && (await teamsLedBy({ userId: user.id })).includes(slug);
-  return <TeamDetail slug={slug} canEdit={isAdmin || leads} isAdmin={isAdmin} />;
+  return (
+    <Suspense>
+      <TeamDetail slug={slug} canEdit={isAdmin || leads} isAdmin={isAdmin} />
+    </Suspense>
+  );
 }

@@ -1,8 +1,8 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { InviteAcceptForm } from "@/components/admin/InviteAcceptForm";
+import { InviteAcceptForm } from "@/components/auth/InviteAcceptForm";
 import { Logo } from "@/components/ui/Logo";
-import { inviteTokenSchema, MIN_PASSWORD_LENGTH } from "@/lib/api/schemas/users";
+import { inviteTokenSchema } from "@/lib/api/schemas/users";
 import { findOpenInvite } from "@/lib/data/user-admin";
 
 export const metadata: Metadata = { title: "Set your password", referrer: "no-referrer" };
@@ -24,7 +24,7 @@ export default async function InvitePage({ params }: { params: Promise<{ token: 
                 Choose a password for <span className="font-mono text-ink">{invite.email}</span>. This link works once.
               </p>
             </div>
-            <InviteAcceptForm token={token} email={invite.email} minLength={MIN_PASSWORD_LENGTH} />
+            <InviteAcceptForm token={token} email={invite.email} />
           </>
         ) : (
           <div className="space-y-3" data-testid="invite-invalid">

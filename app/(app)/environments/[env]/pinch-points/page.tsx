@@ -1,15 +1,10 @@
-import { notFound } from "next/navigation";
 import { Suspense } from "react";
-import { PinchPoints } from "@/components/rankings/PinchPoints";
-import { requireUser } from "@/lib/auth/page";
-import { SLUG_PATTERN } from "@/lib/inventory/types";
+import { PinchPoints } from "@/components/pinch-points/PinchPoints";
 
 export const metadata = { title: "Pinch points" };
 
 export default async function PinchPointsPage({ params }: { params: Promise<{ env: string }> }) {
-  await requireUser();
   const { env } = await params;
-  if (!SLUG_PATTERN.test(env)) notFound();
   return (
     <Suspense>
       <PinchPoints env={env} />

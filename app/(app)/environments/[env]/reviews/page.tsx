@@ -1,9 +1,8 @@
-import { notFound } from "next/navigation";
+import { Suspense } from "react";
 import { ReviewsScreen } from "@/components/reviews/ReviewsScreen";
 import { requireUser } from "@/lib/auth/page";
 import { roleHas } from "@/lib/auth/roles";
 import { listTeams, teamsLedBy } from "@/lib/data/teams";
-import { SLUG_PATTERN } from "@/lib/inventory/types";
 
 export const dynamic = "force-dynamic";
 
@@ -12,21 +11,21 @@ export async function generateMetadata({ params }: { params: Promise<{ env: stri
 }
 
 export default async function ReviewsPage({ params }: { params: Promise<{ env: string }> }) {
-  const { env } = await params;
-  if (!SLUG_PATTERN.test(env)) notFound();
-  const user = await requireUser();
+  const [{ env }, user] = await Promise.all([params, requireUser()]);
   const [teams, ledTeams] = await Promise.all([listTeams(), teamsLedBy({ userId: user.id })]);
   const canWrite = roleHas(user.role, "reviews:write");
   return (
-    <ReviewsScreen
-      env={env}
-      canWrite={canWrite}
-      canReadAudit={canWrite}
-      queueViewer={{
-        ledTeams: roleHas(user.role, "components:annotate") ? ledTeams : [],
-        assignAny: canWrite,
-        teams: teams.map((t) => ({ slug: t.slug, name: t.name })),
-      }}
-    />
+    <Suspense>
+      <ReviewsScreen
+        env={env}
+        canWrite={canWrite}
+        canReadAudit={canWrite}
+        queueViewer={{
+          ledTeams: roleHas(user.role, "components:annotate") ? ledTeams : [],
+          assignAny: canWrite,
+          teams: teams.map((t) => ({ slug: t.slug, name: t.name })),
+        }}
+      />
+    </Suspense>
   );
 }

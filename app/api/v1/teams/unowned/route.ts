@@ -1,12 +1,11 @@
-// GET /api/v1/teams/unowned[?environment=] — components with no owner in any environment, most pinching first (read).
+// GET /api/v1/teams/unowned[?environment=&q=&sort=&order=&limit=&offset=] — components with no owner in any environment, most pinching first (read).
 // Claiming and assigning go through PATCH /api/v1/environments/{env}/components/{key}.
-import { NextResponse } from "next/server";
+import { respond } from "@/lib/api/respond";
 import { parseQuery } from "@/lib/api/query";
-import { unownedQuerySchema } from "@/lib/api/schemas/teams";
+import { unownedQuerySchema, unownedResponseSchema } from "@/lib/api/schemas/teams";
 import { withPermission } from "@/lib/auth/with-permission";
 import { listUnowned } from "@/lib/data/team-admin";
 
 export const GET = withPermission("read", async ({ req }) => {
-  const { environment } = parseQuery(req.url, unownedQuerySchema);
-  return NextResponse.json({ items: await listUnowned({ environment }) });
+  return respond(unownedResponseSchema, await listUnowned(parseQuery(req.url, unownedQuerySchema)));
 });

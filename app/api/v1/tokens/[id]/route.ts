@@ -1,5 +1,6 @@
 // DELETE /api/v1/tokens/{id} — revoke (admin). The row stays, marked revoked, for the audit trail.
-import { NextResponse } from "next/server";
+import { respond } from "@/lib/api/respond";
+import { tokenInfoSchema } from "@/lib/api/schemas/tokens";
 import { parseParams } from "@/lib/api/query";
 import { tokenParamsSchema } from "@/lib/api/schemas/tokens";
 import { withPermission } from "@/lib/auth/with-permission";
@@ -7,5 +8,5 @@ import { revokeTokenAsAdmin } from "@/lib/data/token-admin";
 
 export const DELETE = withPermission<{ id: string }>("admin", async ({ params, actor }) => {
   const { id } = parseParams(params, tokenParamsSchema);
-  return NextResponse.json(await revokeTokenAsAdmin({ id, actor }));
+  return respond(tokenInfoSchema, await revokeTokenAsAdmin({ id, actor }));
 });

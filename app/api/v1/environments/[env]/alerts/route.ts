@@ -1,6 +1,7 @@
 // POST /api/v1/environments/{env}/alerts — the alert webhook: Pinchpoint alerts or an Alertmanager
 // webhook body (lib/incidents/payload.ts), with `Authorization: Bearer ppt_…`; parsed whole, then applied.
-import { NextResponse } from "next/server";
+import { respond } from "@/lib/api/respond";
+import { receiveAlertsResponseSchema } from "@/lib/api/schemas/incidents";
 import { parseParams, parseQuery, readJson } from "@/lib/api/query";
 import { envParamsSchema } from "@/lib/api/schemas/common";
 import { alertsQuerySchema } from "@/lib/api/schemas/incidents";
@@ -12,5 +13,5 @@ export const POST = withPermission<{ env: string }>("inventory:write", async ({ 
   const { env } = parseParams(params, envParamsSchema);
   const { format } = parseQuery(req.url, alertsQuerySchema);
   const parsed = parseAlertPayload(await readJson(req), format);
-  return NextResponse.json(await receiveAlerts({ slug: env, actor, parsed }));
+  return respond(receiveAlertsResponseSchema, await receiveAlerts({ slug: env, actor, parsed }));
 });

@@ -1,7 +1,7 @@
 // GET /api/v1/environments/{env}/chain?from=a&to=b — why does a depend on b: the shortest chain of needs.
-import { NextResponse } from "next/server";
+import { respond } from "@/lib/api/respond";
 import { parseParams, parseQuery } from "@/lib/api/query";
-import { chainQuerySchema } from "@/lib/api/schemas/analysis";
+import { chainQuerySchema, chainResponseSchema } from "@/lib/api/schemas/analysis";
 import { envParamsSchema } from "@/lib/api/schemas/common";
 import { withPermission } from "@/lib/auth/with-permission";
 import { getServedAnalysis } from "@/lib/data/environment-analysis";
@@ -12,5 +12,5 @@ export const GET = withPermission<{ env: string }>("read", async ({ req, params 
   const { from, to } = parseQuery(req.url, chainQuerySchema);
   const served = await getServedAnalysis({ slug: env });
   const chain = await dependencyChain({ snapshotId: served.snapshot.id, from, to });
-  return NextResponse.json({ snapshot: { number: served.snapshot.number, createdAt: served.snapshot.createdAt }, ...chain });
+  return respond(chainResponseSchema, { snapshot: { number: served.snapshot.number, createdAt: served.snapshot.createdAt }, ...chain });
 });

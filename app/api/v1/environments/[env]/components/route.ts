@@ -1,19 +1,17 @@
-// GET /api/v1/environments/{env}/components[?team=&kind=&q=&unowned=true] — the component list.
-import { NextResponse } from "next/server";
+// GET /api/v1/environments/{env}/components[?team=&kind=&tier=&q=&unowned=true&sort=&order=&limit=&offset=]
+// — one page of the component list, and the environment's counts.
 import { parseParams, parseQuery } from "@/lib/api/query";
+import { respond } from "@/lib/api/respond";
 import { envParamsSchema } from "@/lib/api/schemas/common";
-import { componentsQuerySchema } from "@/lib/api/schemas/inventory";
+import { componentsQuerySchema, componentsResponseSchema } from "@/lib/api/schemas/components";
 import { withPermission } from "@/lib/auth/with-permission";
 import { countComponents, listComponents } from "@/lib/data/components";
 import { getEnvironmentOrThrow } from "@/lib/data/environments";
 
 export const GET = withPermission<{ env: string }>("read", async ({ req, params }) => {
   const { env } = parseParams(params, envParamsSchema);
-  const filter = parseQuery(req.url, componentsQuerySchema);
+  const query = parseQuery(req.url, componentsQuerySchema);
   const environment = await getEnvironmentOrThrow({ slug: env });
-  const [items, counts] = await Promise.all([
-    listComponents({ environmentId: environment.id, filter }),
-    countComponents({ environmentId: environment.id }),
-  ]);
-  return NextResponse.json({ environment: environment.slug, counts, items });
+  const [page, counts] = await Promise.all([listComponents({ environmentId: environment.id, query }), countComponents({ environmentId: environment.id })]);
+  return respond(componentsResponseSchema, { environment: environment.slug, counts, ...page });
 });

@@ -1,5 +1,6 @@
 // POST /api/v1/environments/{env}/drills — `{ fail: { components?, zones? } }` → what is down and degraded.
-import { NextResponse } from "next/server";
+import { respond } from "@/lib/api/respond";
+import { drillResponseSchema } from "@/lib/api/schemas/analysis";
 import { parseParams, readJson } from "@/lib/api/query";
 import { drillBodySchema } from "@/lib/api/schemas/analysis";
 import { envParamsSchema } from "@/lib/api/schemas/common";
@@ -13,5 +14,5 @@ export const POST = withPermission<{ env: string }>("read", async ({ req, params
   const body = parseOrThrow(drillBodySchema, await readJson(req), "body");
   const served = await getServedAnalysis({ slug: env });
   const result = await runDrill({ environmentId: served.environment.id, snapshot: served.snapshot, request: body.fail });
-  return NextResponse.json({ ...analysisMeta(served), ...result });
+  return respond(drillResponseSchema, { ...analysisMeta(served), ...result });
 });

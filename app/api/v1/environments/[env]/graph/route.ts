@@ -1,5 +1,6 @@
 // GET /api/v1/environments/{env}/graph — components, dependencies and measures for the map.
-import { NextResponse } from "next/server";
+import { respond } from "@/lib/api/respond";
+import { mapGraphSchema } from "@/lib/api/schemas/map";
 import { parseParams } from "@/lib/api/query";
 import { envParamsSchema } from "@/lib/api/schemas/common";
 import { withPermission } from "@/lib/auth/with-permission";
@@ -9,5 +10,5 @@ import { getMapGraph } from "@/lib/data/map-graph";
 export const GET = withPermission<{ env: string }>("read", async ({ params }) => {
   const { env } = parseParams(params, envParamsSchema);
   const environment = await getEnvironmentOrThrow({ slug: env });
-  return NextResponse.json(await getMapGraph({ environmentId: environment.id, slug: environment.slug }));
+  return respond(mapGraphSchema, await getMapGraph({ environmentId: environment.id, slug: environment.slug }));
 });

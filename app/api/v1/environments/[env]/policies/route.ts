@@ -1,6 +1,7 @@
 // GET /api/v1/environments/{env}/policies — the change policies in force, with the defaults (read).
 // PUT — the whole policy set (reviews:write): save and audit. Pushes are held to it from then on.
-import { NextResponse } from "next/server";
+import { respond } from "@/lib/api/respond";
+import { policiesViewSchema } from "@/lib/api/schemas/policies";
 import { parseParams, readJson } from "@/lib/api/query";
 import { envParamsSchema } from "@/lib/api/schemas/common";
 import { withPermission } from "@/lib/auth/with-permission";
@@ -12,12 +13,12 @@ import { policySetSchema } from "@/lib/impact/policies";
 export const GET = withPermission<{ env: string }>("read", async ({ params }) => {
   const { env } = parseParams(params, envParamsSchema);
   const environment = await getEnvironmentOrThrow({ slug: env });
-  return NextResponse.json(await getPolicies({ environmentId: environment.id }));
+  return respond(policiesViewSchema, await getPolicies({ environmentId: environment.id }));
 });
 
 export const PUT = withPermission<{ env: string }>("reviews:write", async ({ req, params, actor }) => {
   const { env } = parseParams(params, envParamsSchema);
   const policies = parseOrThrow(policySetSchema, await readJson(req), "body");
   const environment = await getEnvironmentOrThrow({ slug: env });
-  return NextResponse.json(await setPolicies({ environmentId: environment.id, policies, actor }));
+  return respond(policiesViewSchema, await setPolicies({ environmentId: environment.id, policies, actor }));
 });

@@ -1,9 +1,11 @@
 // GET /api/v1/environments/{env}/rankings[?sort=betweenness&order=desc&limit=50&offset=0&team=&kind=&tier=&q=]
 // Pages are prepared once per (environment, analysis and owners, query) and kept in memory
-// (lib/data/page-cache.ts); the ETag lets a client that has the page get a 304.
+// (lib/data/page-cache.ts); the ETag lets a client that has the page get a 304. The answer is spliced
+// from bytes, so its two halves are typed against rankingsResponseSchema before they are written.
 import { parseParams, parseQuery } from "@/lib/api/query";
 import { etagOf, jsonWithEtag, notModified } from "@/lib/api/http-cache";
-import { defaultRankingOrder, rankingsQuerySchema } from "@/lib/api/schemas/analysis";
+import type { z } from "zod";
+import { type analysisMetaSchema, defaultRankingOrder, rankingsQuerySchema, type rankingsResponseSchema } from "@/lib/api/schemas/analysis";
 import { envParamsSchema } from "@/lib/api/schemas/common";
 import { withPermission } from "@/lib/auth/with-permission";
 import { getRankings } from "@/lib/data/analysis-results";
@@ -23,9 +25,11 @@ export const GET = withPermission<{ env: string }>("read", async ({ req, params 
   if (unchanged) return unchanged;
   const page = await cachedPage(`rankings\u0000${served.environment.id}\u0000${served.version}\u0000${normalised}`, async () => {
     const { total, rankBy, items } = await getRankings({ ...query, order, snapshotId: served.snapshot.id, environmentId: served.environment.id });
-    return JSON.stringify({ sort: query.sort, order, rankBy, limit: query.limit, offset: query.offset, total, items }).slice(1, -1);
+    const body: Omit<z.input<typeof rankingsResponseSchema>, keyof z.input<typeof analysisMetaSchema>> = { sort: query.sort, order, rankBy, limit: query.limit, offset: query.offset, total, items };
+    return JSON.stringify(body).slice(1, -1);
   });
   // The meta block carries the snapshot's age, so it is made fresh; the page is spliced in as bytes.
-  const meta = Buffer.from(`{${JSON.stringify(analysisMeta(served)).slice(1, -1)},`, "utf8");
+  const metaBlock: z.input<typeof analysisMetaSchema> = analysisMeta(served);
+  const meta = Buffer.from(`{${JSON.stringify(metaBlock).slice(1, -1)},`, "utf8");
   return jsonWithEtag(Buffer.concat([meta, page, CLOSE]) as Uint8Array as Uint8Array<ArrayBuffer>, etag);
 });

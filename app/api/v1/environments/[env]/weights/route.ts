@@ -1,6 +1,7 @@
 // GET /api/v1/environments/{env}/weights — the pinch-score weights in use (read).
 // PUT — `{ betweenness, reach, single }` (reviews:write): save, audit and re-queue the newest snapshot's analysis.
-import { NextResponse } from "next/server";
+import { respond } from "@/lib/api/respond";
+import { weightsViewSchema } from "@/lib/api/schemas/reviews";
 import { parseParams, readJson } from "@/lib/api/query";
 import { envParamsSchema } from "@/lib/api/schemas/common";
 import { pinchWeightsSchema } from "@/lib/analysis/types";
@@ -12,12 +13,12 @@ import { parseOrThrow } from "@/lib/errors";
 export const GET = withPermission<{ env: string }>("read", async ({ params }) => {
   const { env } = parseParams(params, envParamsSchema);
   const environment = await getEnvironmentOrThrow({ slug: env });
-  return NextResponse.json(await getWeights({ environmentId: environment.id }));
+  return respond(weightsViewSchema, await getWeights({ environmentId: environment.id }));
 });
 
 export const PUT = withPermission<{ env: string }>("reviews:write", async ({ req, params, actor }) => {
   const { env } = parseParams(params, envParamsSchema);
   const weights = parseOrThrow(pinchWeightsSchema, await readJson(req), "body");
   const environment = await getEnvironmentOrThrow({ slug: env });
-  return NextResponse.json(await setWeights({ environmentId: environment.id, weights, actor }));
+  return respond(weightsViewSchema, await setWeights({ environmentId: environment.id, weights, actor }));
 });

@@ -1,8 +1,9 @@
 // GET /api/v1/environments/{env}/components/{key} — everything known about one component.
 // PATCH — `{ team?, notes? }`: owner and notes (lead of the team, architect, admin), audited.
-import { NextResponse } from "next/server";
+import { respond } from "@/lib/api/respond";
+import { annotationResultSchema, componentDetailResponseSchema } from "@/lib/api/schemas/components";
 import { parseParams, readJson } from "@/lib/api/query";
-import { annotateBodySchema } from "@/lib/api/schemas/analysis";
+import { annotateBodySchema } from "@/lib/api/schemas/components";
 import { componentParamsSchema } from "@/lib/api/schemas/common";
 import { withPermission } from "@/lib/auth/with-permission";
 import { getAnalysisView } from "@/lib/data/analysis-results";
@@ -20,7 +21,7 @@ export const GET = withPermission<{ env: string; key: string }>("read", async ({
   // An entry point also shows what every path from it passes through (one dominator tree, on demand).
   const fromHere = view.served && metrics?.entry ? await entryDominators({ snapshotId: view.served.id, entry: key }) : null;
   const summary = view.summary;
-  return NextResponse.json({
+  return respond(componentDetailResponseSchema, {
     ...detail,
     metrics,
     fromHere,
@@ -37,5 +38,5 @@ export const PATCH = withPermission<{ env: string; key: string }>("components:an
   const { env, key } = parseParams(params, componentParamsSchema);
   const input = parseOrThrow(annotateBodySchema, await readJson(req), "body");
   const environment = await getEnvironmentOrThrow({ slug: env });
-  return NextResponse.json(await annotateComponent({ environmentId: environment.id, key, input, actor }));
+  return respond(annotationResultSchema, await annotateComponent({ environmentId: environment.id, key, input, actor }));
 });

@@ -1,6 +1,7 @@
 // GET /api/v1/environments/{env}/rankings/history[?keys=a,b][&top=8][&count=20] — rank of the
 // named components (or of the current top N) over the last `count` analysed snapshots, oldest first.
-import { NextResponse } from "next/server";
+import { respond } from "@/lib/api/respond";
+import { rankTrendResponseSchema } from "@/lib/api/schemas/analysis";
 import { parseParams, parseQuery } from "@/lib/api/query";
 import { rankHistoryQuerySchema } from "@/lib/api/schemas/analysis";
 import { envParamsSchema } from "@/lib/api/schemas/common";
@@ -13,5 +14,5 @@ export const GET = withPermission<{ env: string }>("read", async ({ req, params 
   const query = parseQuery(req.url, rankHistoryQuerySchema);
   const served = await getServedAnalysis({ slug: env });
   const trend = await getRankTrend({ served, keys: query.keys, top: query.top, count: query.count });
-  return NextResponse.json({ ...analysisMeta(served), ...trend });
+  return respond(rankTrendResponseSchema, { ...analysisMeta(served), ...trend });
 });

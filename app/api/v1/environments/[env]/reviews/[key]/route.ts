@@ -1,6 +1,7 @@
 // PUT /api/v1/environments/{env}/reviews/{key} — `{ status, rationale, reviewBy? }`: set the review of a component (reviews:write), audited.
 // DELETE — clear it (reviews:write), audited with what it was.
-import { NextResponse } from "next/server";
+import { respond } from "@/lib/api/respond";
+import { clearedReviewSchema, reviewViewSchema } from "@/lib/api/schemas/reviews";
 import { parseParams, readJson } from "@/lib/api/query";
 import { componentParamsSchema } from "@/lib/api/schemas/common";
 import { reviewBodySchema } from "@/lib/api/schemas/reviews";
@@ -13,11 +14,11 @@ export const PUT = withPermission<{ env: string; key: string }>("reviews:write",
   const { env, key } = parseParams(params, componentParamsSchema);
   const input = parseOrThrow(reviewBodySchema, await readJson(req), "body");
   const environment = await getEnvironmentOrThrow({ slug: env });
-  return NextResponse.json(await putReview({ environmentId: environment.id, key, input, actor }));
+  return respond(reviewViewSchema, await putReview({ environmentId: environment.id, key, input, actor }));
 });
 
 export const DELETE = withPermission<{ env: string; key: string }>("reviews:write", async ({ params, actor }) => {
   const { env, key } = parseParams(params, componentParamsSchema);
   const environment = await getEnvironmentOrThrow({ slug: env });
-  return NextResponse.json(await clearReview({ environmentId: environment.id, key, actor }));
+  return respond(clearedReviewSchema, await clearReview({ environmentId: environment.id, key, actor }));
 });

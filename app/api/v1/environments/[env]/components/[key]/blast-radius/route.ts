@@ -1,5 +1,6 @@
 // GET /api/v1/environments/{env}/components/{key}/blast-radius — the drill for that one component.
-import { NextResponse } from "next/server";
+import { respond } from "@/lib/api/respond";
+import { drillResponseSchema } from "@/lib/api/schemas/analysis";
 import { parseParams } from "@/lib/api/query";
 import { componentParamsSchema } from "@/lib/api/schemas/common";
 import { withPermission } from "@/lib/auth/with-permission";
@@ -12,7 +13,7 @@ export const GET = withPermission<{ env: string; key: string }>("read", async ({
   const served = await getServedAnalysis({ slug: env });
   try {
     const result = await runDrill({ environmentId: served.environment.id, snapshot: served.snapshot, request: { components: [key] } });
-    return NextResponse.json({ ...analysisMeta(served), ...result });
+    return respond(drillResponseSchema, { ...analysisMeta(served), ...result });
   } catch (error) {
     // On this route an unknown key is a missing resource, not a bad body.
     if (error instanceof AppError && error.code === "invalid_request") throw new AppError("not_found", `Component "${key}" not found`);

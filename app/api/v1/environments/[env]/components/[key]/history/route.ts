@@ -1,6 +1,7 @@
 // GET /api/v1/environments/{env}/components/{key}/history — the snapshots (last 30) that added,
 // changed or removed this component or one of its dependencies, newest first.
-import { NextResponse } from "next/server";
+import { respond } from "@/lib/api/respond";
+import { componentHistoryResponseSchema } from "@/lib/api/schemas/components";
 import { parseParams } from "@/lib/api/query";
 import { componentParamsSchema } from "@/lib/api/schemas/common";
 import { withPermission } from "@/lib/auth/with-permission";
@@ -10,5 +11,5 @@ import { getEnvironmentOrThrow } from "@/lib/data/environments";
 export const GET = withPermission<{ env: string; key: string }>("read", async ({ params }) => {
   const { env, key } = parseParams(params, componentParamsSchema);
   const environment = await getEnvironmentOrThrow({ slug: env });
-  return NextResponse.json({ key, ...(await getComponentHistory({ environmentId: environment.id, key })) });
+  return respond(componentHistoryResponseSchema, { key, ...(await getComponentHistory({ environmentId: environment.id, key })) });
 });

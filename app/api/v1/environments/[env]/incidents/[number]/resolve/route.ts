@@ -1,6 +1,7 @@
 // POST /api/v1/environments/{env}/incidents/{number}/resolve — `{ reason }`: close an incident by
 // hand when its alert source never sends resolved alerts; its firing alerts end now. Audited.
-import { NextResponse } from "next/server";
+import { respond } from "@/lib/api/respond";
+import { resolvedIncidentSchema } from "@/lib/api/schemas/incidents";
 import { parseParams, readJson } from "@/lib/api/query";
 import { incidentParamsSchema, resolveIncidentSchema } from "@/lib/api/schemas/incidents";
 import { withPermission } from "@/lib/auth/with-permission";
@@ -10,5 +11,5 @@ import { parseOrThrow } from "@/lib/errors";
 export const POST = withPermission<{ env: string; number: string }>("inventory:write", async ({ req, params, actor }) => {
   const { env, number } = parseParams(params, incidentParamsSchema);
   const { reason } = parseOrThrow(resolveIncidentSchema, await readJson(req), "body");
-  return NextResponse.json({ incident: await resolveIncident({ slug: env, number, actor, reason }) });
+  return respond(resolvedIncidentSchema, { incident: await resolveIncident({ slug: env, number, actor, reason }) });
 });

@@ -146,6 +146,12 @@ describe("response schemas", () => {
       expect({ op, status: res.status }).toEqual({ op, status: w.status ?? 200 });
       expect({ op, problems: problems(schemaOf(w.p, w.method), res.json) }).toEqual({ op, problems: [] });
     }
+    // The invitee accepts a fresh link (public route, no session).
+    const link = await call(await handlerOf("/users/{id}/invite", "post"), { url: urlOf("/users/{id}/invite", { id: user!.id }), method: "POST", params: { id: user!.id }, as: admin });
+    const secret = (link.json as { token: string }).token;
+    const accepted = await call(await handlerOf("/invites/{token}", "post"), { url: `/api/v1/invites/${secret}`, method: "POST", params: { token: secret }, body: { password: "a long enough password" } });
+    expect(accepted.status).toBe(200);
+    expect(problems(schemaOf("/invites/{token}", "post"), accepted.json)).toEqual([]);
   });
 
   it("holds for the health check outside /api/v1", async () => {

@@ -1,7 +1,8 @@
 // The push request from the browser (session cookie), with every answer of DESIGN §4 turned
-// into one value the screen can render. Its body is a file, not JSON, so it is sent here rather
-// than through lib/client/api.ts; the answer is parsed with the same response schema.
+// into one value the screen can render. Its body is a file, not JSON, so it goes through
+// lib/client/api.ts's fetchJson (not sendJson), parsed with the route's response schema.
 import { pushResultSchema, type PushResult } from "@/lib/api/schemas/inventory";
+import { ApiError, fetchJson } from "@/lib/client/api";
 import type { ImportFormat, InventoryIssue } from "@/lib/inventory/types";
 import { contentTypeFor } from "./detect";
 
@@ -46,30 +47,24 @@ export async function pushFile({
   if (source) query.set("source", source);
   if (format === "compose" && profiles) query.set("profiles", profiles);
   let payload: BodyInit = text;
-  const headers: Record<string, string> = { accept: "application/json" };
+  const headers: Record<string, string> = {};
   if (files && files.length > 1) {
     const form = new FormData();
     for (const f of files) form.append("file", new Blob([f.text]), f.name);
     // fetch sets the multipart content type with its boundary itself.
     payload = form;
   } else headers["content-type"] = contentTypeFor(format, text);
-  let res: Response;
   try {
-    res = await fetch(`/api/v1/environments/${encodeURIComponent(env)}/inventory?${query}`, { method: "POST", headers, body: payload });
-  } catch {
-    return { kind: "refused", status: 0, message: "Could not reach Pinchpoint. Check the connection and try again." };
+    const result = await fetchJson(pushResultSchema, `/api/v1/environments/${encodeURIComponent(env)}/inventory?${query}`, { method: "POST", headers, body: payload });
+    return { kind: "ok", result };
+  } catch (e) {
+    // fetchJson turns every failure (offline included) into an ApiError.
+    if (!(e instanceof ApiError)) throw e;
+    const { status, message, issues } = e;
+    if (status === 409 && e.code === "policy_blocked") return { kind: "blocked", message, issues };
+    if (status === 409) return { kind: "conflict", message, issues };
+    if (status === 413) return { kind: "too-large", message, issues };
+    if (status === 422) return { kind: "invalid", status, message, issues };
+    return { kind: "refused", status, message };
   }
-  const json: unknown = await res.json().catch(() => null);
-  if (res.ok) {
-    const parsed = pushResultSchema.safeParse(json);
-    return parsed.success ? { kind: "ok", result: parsed.data } : { kind: "refused", status: res.status, message: "The server's answer did not have the expected shape" };
-  }
-  const body = json as { error?: string; message?: string; issues?: InventoryIssue[] } | null;
-  const message = body?.message ?? `The server answered ${res.status}`;
-  const issues = Array.isArray(body?.issues) ? body.issues : [];
-  if (res.status === 409 && body?.error === "policy_blocked") return { kind: "blocked", message, issues };
-  if (res.status === 409) return { kind: "conflict", message, issues };
-  if (res.status === 413) return { kind: "too-large", message, issues };
-  if (res.status === 422) return { kind: "invalid", status: res.status, message, issues };
-  return { kind: "refused", status: res.status, message };
 }

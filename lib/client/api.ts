@@ -7,6 +7,8 @@ import type { z } from "zod";
 export interface ApiIssue {
   path: string;
   message: string;
+  /** The file it is in, when a push carried several (a layered Compose project). */
+  file?: string;
   line?: number;
   column?: number;
 }

@@ -8,7 +8,8 @@ import { useMemo, useState } from "react";
 import { Badge } from "@/components/ui/Badge";
 import { Button } from "@/components/ui/Button";
 import { Card, Stat } from "@/components/ui/Card";
-import { ageOf, dateTime, plural } from "@/components/ui/format";
+import { When } from "@/components/ui/When";
+import { plural } from "@/components/ui/format";
 import { Notice } from "@/components/ui/Notice";
 import { bootOrderResponseSchema } from "@/lib/api/schemas/analysis";
 import { useApi } from "@/lib/client/api";
@@ -67,8 +68,8 @@ export function ColdStart({ env }: { env: string }) {
             Cold start <span className="font-mono text-lg text-muted">{env}</span>
           </h1>
           <p className="mt-1 text-sm text-muted" data-testid="runbook-provenance">
-            Runbook from snapshot #{d.snapshot.number} (pushed {dateTime(d.snapshot.createdAt)}, {ageOf(d.snapshot.createdAt)}){d.analysis.computedAt ? `, analysed ${dateTime(d.analysis.computedAt)}` : ""}; opened{" "}
-            {dateTime(openedAt)} UTC.
+            Runbook from snapshot #{d.snapshot.number} (pushed <When at={d.snapshot.createdAt} />){d.analysis.computedAt ? <>, analysed <When at={d.analysis.computedAt} /></> : ""}; opened{" "}
+            <When at={openedAt} />.
           </p>
           {d.latest && (
             <p className="mt-1 text-sm text-degraded print:text-ink" role="status">

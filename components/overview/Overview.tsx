@@ -6,6 +6,7 @@ import Link from "next/link";
 import { IncidentBanner } from "@/components/incidents/IncidentBanner";
 import { Badge } from "@/components/ui/Badge";
 import { Card, Stat } from "@/components/ui/Card";
+import { When } from "@/components/ui/When";
 import { ageOf, betweennessPct, percent, pinchScore, rankLabel } from "@/components/ui/format";
 import { bootCyclesResponseSchema, rankingsResponseSchema, type RankingItem } from "@/lib/api/schemas/analysis";
 import { environmentResponseSchema, environmentsResponseSchema } from "@/lib/api/schemas/environments";
@@ -111,13 +112,23 @@ export function Overview({ env }: { env: string }) {
           <span className="font-mono">{env}</span> at a glance
         </h1>
         <p className="mt-1 text-sm text-muted" data-testid="snapshot-line">
-          {summary?.latestSnapshot
-            ? `Snapshot #${summary.latestSnapshot.number}, pushed ${ageOf(summary.latestSnapshot.createdAt)}`
-            : environment.isLoading
-              ? "Loading…"
-              : "No snapshot yet"}
+          {summary?.latestSnapshot ? (
+            <>
+              Snapshot #{summary.latestSnapshot.number}, pushed <When at={summary.latestSnapshot.createdAt} />
+            </>
+          ) : environment.isLoading ? (
+            "Loading…"
+          ) : (
+            "No snapshot yet"
+          )}
           {summary?.analysis && ` · analysis ${summary.analysis.status}${summary.analysis.status === "running" ? ` (${Math.round(summary.analysis.progress * 100)}%)` : ""}`}
-          {lastPush && ` · last push by ${lastPush.actor} from ${lastPush.source}, ${ageOf(lastPush.createdAt)}${lastPush.changed ? "" : " (no change)"}`}
+          {lastPush && (
+            <>
+              {` · last push by ${lastPush.actor} from ${lastPush.source}, `}
+              <When at={lastPush.createdAt} />
+              {lastPush.changed ? "" : " (no change)"}
+            </>
+          )}
         </p>
         {ranked?.latest && (
           <p className="mt-1 text-sm text-degraded" role="status">

@@ -1,6 +1,7 @@
 // One message of the sink: its headers, then the HTML part in a sandboxed frame or the text part.
 import Link from "next/link";
 import { Card } from "@/components/ui/Card";
+import { When } from "@/components/ui/When";
 import type { SinkMessage } from "@/lib/mail/sink-store";
 
 // The HTML is data, not our page: an empty sandbox runs no script, submits no form and gets an
@@ -40,7 +41,7 @@ export function MessageView({ message, view }: { message: SinkMessage; view: "ht
         <dt className="text-faint">To</dt>
         <dd className="font-mono text-xs leading-5 text-ink" data-testid="mail-to">{message.to}</dd>
         <dt className="text-faint">Date</dt>
-        <dd className="font-mono text-xs leading-5 text-ink">{message.date ? message.date.toISOString().replace("T", " ").slice(0, 19) + " UTC" : "unknown"}</dd>
+        <dd className="font-mono text-xs leading-5 text-ink"><When at={message.date} seconds empty="unknown" /></dd>
         <dt className="text-faint">Size</dt>
         <dd className="font-mono text-xs leading-5 text-muted">{(message.bytes / 1024).toFixed(1)} KiB · {message.id}.eml</dd>
       </dl>

@@ -1,6 +1,6 @@
 // Guess an upload's format from its name and first bytes, so the common case needs no choice;
 // the user can always override. Pure, so the guess is testable without a browser.
-import type { ImportFormat } from "@/lib/inventory/types";
+import { SOURCE_PATTERN, type ImportFormat } from "@/lib/inventory/types";
 
 export const FORMATS: { value: ImportFormat; label: string; hint: string }[] = [
   { value: "pinchpoint", label: "Pinchpoint inventory", hint: "YAML or JSON, format 1 — names its own source" },
@@ -53,6 +53,6 @@ export function suggestSource(fileName: string): string {
 /** The source a Compose file names for itself (`x-pinchpoint: { source: … }` at the top level), if any. */
 export function sourceNamedIn(text: string): string | null {
   const block = /^x-pinchpoint:[ \t]*(\{[^}\n]*\}|\n(?:[ \t]+.*\n?|[ \t]*\n)*)/m.exec(head(text));
-  const m = block ? /(?:^|[\s{,])source:[ \t]*["']?([a-z0-9][a-z0-9._-]{0,127})["']?/m.exec(block[1] ?? "") : null;
-  return m?.[1] ?? null;
+  const m = block ? /(?:^|[\s{,])source:[ \t]*["']?([^"'\s,}]+)["']?/m.exec(block[1] ?? "") : null;
+  return m?.[1] && SOURCE_PATTERN.test(m[1]) ? m[1] : null;
 }

@@ -1,5 +1,6 @@
 // The main navigation: every screen of DESIGN §6 at its stable URL.
 import type { Permission } from "@/lib/auth/roles";
+import { SLUG_PATTERN } from "@/lib/inventory/types";
 
 export interface NavItem {
   label: string;
@@ -31,6 +32,6 @@ export const NAV: NavItem[] = [
 ];
 
 export function envFromPath(path: string, fallback: string): string {
-  const match = /^\/environments\/([a-z0-9][a-z0-9-]{0,62})/.exec(path);
-  return match?.[1] ?? fallback;
+  const segment = /^\/environments\/([^/?#]+)/.exec(path)?.[1];
+  return segment && SLUG_PATTERN.test(segment) ? segment : fallback;
 }

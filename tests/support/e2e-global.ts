@@ -8,7 +8,7 @@ import { migrateToLatest } from "@/models/migrate";
 import { drainAnalysisQueue } from "@/lib/jobs/analysis";
 import { seedDemo } from "@/lib/data/seed";
 import { dropDatabase, urlFor, withAdmin } from "./test-db";
-import { startOidcStandIn } from "../../scripts/standins/oidc";
+import { startOidcStandIn } from "../../scripts/oidc-standin";
 import { startMailSink } from "@/lib/mail/sink";
 
 const DB = "pp_e2e";

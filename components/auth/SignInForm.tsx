@@ -40,11 +40,11 @@ export function SignInForm({ callbackUrl, initialError, ssoName }: { callbackUrl
         <InputField name="email" label="E-mail" type="email" autoComplete="username" />
         <InputField name="password" label="Password" type="password" autoComplete="current-password" />
         {initial && !form.formState.errors.root && (
-          <p role="alert" className="rounded-md border border-down/50 bg-down/10 px-3 py-2 text-sm text-ink">
+          <p id="signin-error" role="alert" className="rounded-md border border-down/50 bg-down/10 px-3 py-2 text-sm text-ink">
             {initial}
           </p>
         )}
-        <FormProblem />
+        <FormProblem id="signin-error" />
         <SubmitButton className="w-full py-2" working="Signing in…">
           Sign in
         </SubmitButton>

@@ -90,13 +90,13 @@ export function ApiForm<S extends FormSchema>({
 }
 
 /** The form-wide error (what no field is about), where the form wants it. */
-export function FormProblem({ className }: { className?: string }) {
+export function FormProblem({ className, id }: { className?: string; id?: string }) {
   const { formState } = useFormContext();
   const message = (formState.errors.root as { server?: { message?: string } } | undefined)?.server?.message;
   if (!message) return null;
   return (
     <div className={className}>
-      <FormError message={message} />
+      <FormError id={id} message={message} />
     </div>
   );
 }

@@ -11,7 +11,7 @@ import { sendJson, useApi } from "@/lib/client/api";
 
 const VIEW_LABEL = { auto: "both when both exist (default)", declared: "declared and inferred needs only", observed: "traced calls only", both: "both" } as const;
 
-function Form({ env, view, canWrite, onSaved }: { env: string; view: SettingsView; canWrite: boolean; onSaved: (v: SettingsView) => void }) {
+function Form({ env, view, canWrite, saved, onSaved }: { env: string; view: SettingsView; canWrite: boolean; saved: string | null; onSaved: (v: SettingsView) => void }) {
   const s = view.settings;
   const form = useApiForm(settingsFormSchema, { ...s, analysisView: s.analysisView ?? "auto", alertLabels: s.alertLabels.join(", ") });
   const onSubmit = submitWith(form, (settings) => sendJson(settingsViewSchema, `/api/v1/environments/${env}/settings`, "PATCH", settings), onSaved);
@@ -52,6 +52,12 @@ function Form({ env, view, canWrite, onSaved }: { env: string; view: SettingsVie
       </div>
       <FormProblem />
       {canWrite ? <SubmitButton working="Saving…">Save</SubmitButton> : <p className="text-xs text-muted">Architects and admins set these.</p>}
+      {/* Inside the form (which remounts with the saved values), so it reads as this form's answer. */}
+      {saved && (
+        <p className="text-sm text-ok" role="status">
+          {saved}
+        </p>
+      )}
     </ApiForm>
   );
 }
@@ -69,17 +75,13 @@ export function SettingsForm({ env, canWrite }: { env: string; canWrite: boolean
           env={env}
           view={data}
           canWrite={canWrite}
+          saved={message}
           onSaved={(v) => {
             setMessage(v.requeued ? `Saved. Snapshot #${v.requeued.snapshot} is queued for analysis under these settings.` : "Saved.");
             void mutate(v, { revalidate: false });
             setVersion((n) => n + 1);
           }}
         />
-      )}
-      {message && (
-        <p className="mt-2 text-sm text-ok" role="status">
-          {message}
-        </p>
       )}
     </Card>
   );

@@ -32,10 +32,10 @@ describe("admin environments screen", () => {
     await expect.poll(async () => (await row.textContent()) ?? "").toContain("E2E scratch");
     expect(await row.textContent()).toContain("no push yet");
 
-    // A taken slug is refused with a message beside the form.
+    // A taken slug is refused with the server's issue beside the slug field.
     await page.getByLabel("Slug").fill(SLUG);
     await page.getByRole("button", { name: "Create environment" }).click();
-    await expect.poll(async () => (await page.getByRole("alert").allTextContents()).join(" ")).toContain("already exists");
+    await expect.poll(async () => (await page.getByTestId("error-slug").textContent()) ?? "").toContain("already taken");
     await page.getByLabel("Slug").fill("");
 
     await row.getByRole("button", { name: `Rename ${SLUG}` }).click();

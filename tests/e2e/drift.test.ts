@@ -4,7 +4,7 @@
 // declared needs no trace shows. A second environment with no traces shows how to send some.
 import type { Page } from "playwright-core";
 import { beforeAll, describe, expect, it } from "vitest";
-import type { Drift } from "@/lib/data/drift";
+import type { DriftResponse as Drift } from "@/lib/api/schemas/drift";
 import { baseUrl, browserForFile, screenshot } from "./browser";
 import { signedInPage } from "./pages/signin";
 
@@ -98,7 +98,7 @@ describe("drift screen", () => {
 
     const api = (await (await page.request.get(`${baseUrl()}/api/v1/environments/${ENV}/drift`)).json()) as Drift;
     expect(api.agreeing).toBe(2);
-    expect(api.declaredNotSeen).toEqual([{ from: "storefront-bff", to: "session-service", strength: "hard", source: "storefront-repo", team: "storefront", anyOf: false }]);
+    expect(api.declaredNotSeen.items).toEqual([{ from: "storefront-bff", to: "session-service", strength: "hard", source: "storefront-repo", team: "storefront", anyOf: false }]);
     expect(await page.getByTestId("declared-not-seen-row").count()).toBe(1);
     expect(await page.getByRole("heading", { name: "Declared, never seen in traces (1)" }).count()).toBe(1);
     expect(await page.getByTestId("observed-sources").textContent()).toContain("e2e-traces");

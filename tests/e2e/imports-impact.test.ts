@@ -73,7 +73,10 @@ describe("imports screen: impact before push", () => {
     const page = await signedIn("architect");
     await upload(page, RISKY);
     await page.getByTestId("push-override").waitFor();
-    expect(await page.getByTestId("push-override-button").isDisabled()).toBe(true);
+    // Without a reason the form says so beside the field and pushes nothing.
+    await page.getByTestId("push-override-button").click();
+    await expect.poll(async () => (await page.getByTestId("error-override_reason").textContent()) ?? "").not.toBe("");
+    expect(await page.getByTestId("push-result").count()).toBe(0);
     await page.getByLabel(/Why push it anyway/).fill("The datastore gets a second zone next sprint; accepted for the pilot");
     await screenshot(page, "imports-impact-override-architect");
     await page.getByTestId("push-override-button").click();

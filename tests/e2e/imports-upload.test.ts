@@ -110,7 +110,7 @@ describe("imports screen", () => {
     }, text);
     await page.dispatchEvent('[data-testid="dropzone"]', "drop", { dataTransfer: transfer });
     await page.getByTestId("preview-title").waitFor({ timeout: 15_000 });
-    expect(await page.getByLabel("Format").inputValue()).toBe("kubernetes");
+    expect(await page.getByRole("form", { name: "Upload settings" }).getByLabel("Format").inputValue()).toBe("kubernetes");
     expect(await page.getByTestId("picked-file").locator("xpath=..").textContent()).toMatch(/read as kubernetes manifests/i);
     const rows = await page.getByTestId("inferred-need").allTextContents();
     expect(rows).toHaveLength(3);

@@ -10,7 +10,7 @@ import { resourceFromAttributes } from "@opentelemetry/resources";
 import { BasicTracerProvider, SimpleSpanProcessor } from "@opentelemetry/sdk-trace-base";
 import type { Page } from "playwright-core";
 import { beforeAll, describe, expect, it } from "vitest";
-import type { Drift } from "@/lib/data/drift";
+import type { DriftResponse as Drift } from "@/lib/api/schemas/drift";
 import { baseUrl, browserForFile, screenshot } from "./browser";
 import { signedInPage } from "./pages/signin";
 
@@ -58,7 +58,7 @@ describe("the official SDK exporting to the receiver", () => {
       .poll(async () => {
         const res = await page.request.get(`${baseUrl()}/api/v1/environments/${ENV}/drift`);
         if (res.status() !== 200) return [];
-        return ((await res.json()) as Drift).seenNotDeclared.map((r) => `${r.from}>${r.to}:${r.calls}:${r.evidence.join(",")}`).sort();
+        return ((await res.json()) as Drift).seenNotDeclared.items.map((r) => `${r.from}>${r.to}:${r.calls}:${r.evidence.join(",")}`).sort();
       }, { timeout: 30_000, interval: 500 })
       .toEqual(["sdk-cart>sdk-redis:5:server.address", "sdk-frontend>sdk-cart:5:child-span"]);
 

@@ -15,11 +15,14 @@ describe("risk reviews", () => {
   it("lets an architect accept a pinch point with a date and shows the badge", async () => {
     const page = await signedIn("architect");
     await page.goto(`${baseUrl()}/environments/production/reviews`);
-    await page.getByLabel("Component").fill("legacy-ftp-drop");
-    await page.getByLabel("Decision").selectOption("accepted");
-    await page.getByLabel("Look again by").fill(inDays(60));
-    // No rationale yet: the browser's own check stops the form; the server would refuse it too.
-    await page.getByLabel("Rationale").fill("Supplier moves to the feed API next quarter; until then the drop box stays single-zone.");
+    const form = page.getByRole("form", { name: "Review a pinch point" });
+    await form.getByLabel("Component").fill("legacy-ftp-drop");
+    await form.getByLabel("Decision").selectOption("accepted");
+    await form.getByLabel("Look again by").fill(inDays(60));
+    // No rationale yet: the form's own check (the route's schema) stops it, beside the field.
+    await page.getByRole("button", { name: "Save review" }).click();
+    await expect.poll(async () => (await form.getByTestId("error-rationale").textContent()) ?? "").not.toBe("");
+    await form.getByLabel("Rationale").fill("Supplier moves to the feed API next quarter; until then the drop box stays single-zone.");
     await page.getByRole("button", { name: "Save review" }).click();
     const row = page.getByTestId("review-legacy-ftp-drop");
     await row.waitFor({ timeout: 10_000 });

@@ -1,6 +1,6 @@
 #!/usr/bin/env bash
 # npm run bench: the benchmark sections of scripts/bench.ts. Sections that need PostgreSQL (push, kubernetes, compose,
-# responsiveness, scale, http) get a cluster of their own (.data/pg-bench, never the demo's or the tests'), on
+# responsiveness, scale, http, components-list) get a cluster of their own (.data/pg-bench, never the demo's or the tests'), on
 # the first free port from 54349 up, stopped again when the run ends; `--edge-list FILE` and the
 # in-memory sections need none. Arguments go to scripts/bench.ts.
 set -euo pipefail
@@ -18,7 +18,7 @@ for a in "$@"; do
   prev=$a
 done
 case "$args" in *" --edge-list "*) needs_db=0 ;; esac
-case " $only " in "  " | " push " | " impact " | " kubernetes " | " compose " | " traces " | " responsiveness " | " scale " | " http ") ;; *) needs_db=0 ;; esac
+case " $only " in "  " | " push " | " impact " | " kubernetes " | " compose " | " traces " | " responsiveness " | " scale " | " http " | " components-list ") ;; *) needs_db=0 ;; esac
 
 if [ "$needs_db" = 1 ]; then
   export PINCHPOINT_PG_NAME=pg-bench
@@ -31,7 +31,7 @@ if [ "$needs_db" = 1 ]; then
   export PINCHPOINT_BENCH_ADMIN_URL=$DATABASE_URL
   unset DATABASE_URL
 fi
-# The HTTP section serves the production build.
-if [ "$needs_db" = 1 ] && { [ -z "$only" ] || [ "$only" = http ]; } && needs_build; then log "building the app for the HTTP section"; npx next build >/dev/null; fi
+# The HTTP and components-list sections serve the production build.
+if [ "$needs_db" = 1 ] && { [ -z "$only" ] || [ "$only" = http ] || [ "$only" = components-list ]; } && needs_build; then log "building the app for the HTTP section"; npx next build >/dev/null; fi
 # bench.ts reaches lib/data, whose modules import "server-only" (empty under the react-server condition).
 node_modules/.bin/tsx --conditions=react-server scripts/bench.ts "$@"

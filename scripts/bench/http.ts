@@ -15,7 +15,7 @@ import { inventoryYaml, withBenchDatabase } from "./push";
 
 const root = resolve(__dirname, "../..");
 
-async function freePort(): Promise<number> {
+export async function freePort(): Promise<number> {
   return new Promise((res, rej) => {
     const srv = createServer();
     srv.once("error", rej);
@@ -27,7 +27,7 @@ async function freePort(): Promise<number> {
   });
 }
 
-async function waitFor(url: string, timeoutMs: number): Promise<void> {
+export async function waitFor(url: string, timeoutMs: number): Promise<void> {
   const deadline = Date.now() + timeoutMs;
   while (Date.now() < deadline) {
     try {

@@ -79,7 +79,12 @@ const STORE = (id: string) => `pinchpoint.table.${id}.hidden`;
 
 function initialVisibility<T>(columns: Columns<T>): VisibilityState {
   const out: VisibilityState = {};
-  for (const c of columns) if (c.id && c.meta?.hidden) out[c.id] = false;
+  for (const c of columns) {
+    // An accessor column made from a key (col.accessor("name", …)) has no id of its own: TanStack
+    // names it after the key.
+    const columnId = c.id ?? ("accessorKey" in c && typeof c.accessorKey === "string" ? c.accessorKey : undefined);
+    if (columnId && c.meta?.hidden) out[columnId] = false;
+  }
   return out;
 }
 

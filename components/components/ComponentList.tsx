@@ -15,8 +15,8 @@ import { COMPONENT_LIST, componentsResponseSchema, type ComponentListItem } from
 import { teamsResponseSchema } from "@/lib/api/schemas/teams";
 import { useApi } from "@/lib/client/api";
 import { COMPONENT_KINDS } from "@/lib/inventory/types";
+import { COMPONENT_FILTERS, COMPONENT_PAGE_SIZE, componentsUrl } from "./list";
 
-const FILTERS = ["q", "team", "kind", "tier", "unowned"] as const;
 const col = createColumnHelper<ComponentListItem>();
 
 export const componentHref = (env: string, key: string) => `/environments/${env}/components/${encodeURIComponent(key)}`;
@@ -80,8 +80,10 @@ function columns(env: string) {
 }
 
 export function ComponentList({ env }: { env: string }) {
-  const list = useListState(COMPONENT_LIST, { filters: FILTERS, pageSize: 50 });
-  const page = useApi(componentsResponseSchema, `/api/v1/environments/${env}/components?${list.query}`, { keepPreviousData: true });
+  const list = useListState(COMPONENT_LIST, { filters: COMPONENT_FILTERS, pageSize: COMPONENT_PAGE_SIZE });
+  // The page (app/(app)/environments/[env]/components/page.tsx) puts the first answer in swr's
+  // cache under this URL, so the first rows come with the HTML.
+  const page = useApi(componentsResponseSchema, componentsUrl(env, list.query), { keepPreviousData: true });
   const teams = useApi(teamsResponseSchema, "/api/v1/teams");
   const cols = useMemo(() => columns(env), [env]);
   const counts = page.data?.counts;

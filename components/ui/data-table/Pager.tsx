@@ -1,7 +1,7 @@
 "use client";
 // Where in a list the reader is, and the way to the next page: "26–50 of 45,375 components".
 import { Button } from "@/components/ui/Button";
-import { PAGE_SIZES } from "./list-state";
+import { PAGE_SIZES } from "./list-query";
 
 export function Pager({
   label,

@@ -6,6 +6,7 @@
 import type { SortingState } from "@tanstack/react-table";
 import { useUrlState } from "@/components/ui/url-state";
 import type { ListSpec, SortOrder } from "@/lib/api/schemas/common";
+import { listQueryOf } from "./list-query";
 
 export interface ListState<S extends string = string> {
   spec: ListSpec<S>;
@@ -28,8 +29,6 @@ export interface ListState<S extends string = string> {
   clearFilters: () => void;
 }
 
-export const PAGE_SIZES = [25, 50, 100] as const;
-
 export function useListState<S extends string>(
   spec: ListSpec<S>,
   {
@@ -41,25 +40,7 @@ export function useListState<S extends string>(
 ): ListState<S> {
   const url = useUrlState();
   const name = (n: string) => (prefix ? `${prefix}_${n}` : n);
-  const api = (n: string) => (prefixApi ? name(n) : n);
-  const sortParam = url.get(name("sort"));
-  const sort = sortParam !== null && sortParam in spec.sorts ? (sortParam as S) : spec.defaultSort;
-  const orderParam = url.get(name("order"));
-  const order: SortOrder = orderParam === "asc" || orderParam === "desc" ? orderParam : spec.sorts[sort];
-  const page = Math.max(1, Math.floor(Number(url.get(name("page")) ?? 1)) || 1);
-  const sizeParam = Number(url.get(name("size")));
-  const pageSize = (PAGE_SIZES as readonly number[]).includes(sizeParam) ? Math.min(sizeParam, spec.maxLimit) : defaultSize;
-  const filters: Record<string, string> = {};
-  for (const f of filterNames) {
-    const v = url.get(name(f));
-    if (v) filters[f] = v;
-  }
-  const query = new URLSearchParams();
-  query.set(api("sort"), sort);
-  query.set(api("order"), order);
-  query.set(api("limit"), String(pageSize));
-  query.set(api("offset"), String((page - 1) * pageSize));
-  for (const [f, v] of Object.entries(filters)) query.set(api(f), v);
+  const { sort, order, page, pageSize, filters, query } = listQueryOf(spec, (n) => url.get(n), { filters: filterNames, prefix, prefixApi, pageSize: defaultSize });
   const firstPage = { [name("page")]: null };
   return {
     spec,

@@ -12,8 +12,8 @@ export const metadata: Metadata = {
 
 export const viewport: Viewport = { colorScheme: "dark light" };
 
-// Runs before paint so a stored light theme does not flash dark first.
-const themeScript = `try{var t=localStorage.getItem("pp-theme");if(t==="light"||t==="dark")document.documentElement.dataset.theme=t}catch(e){}`;
+// Runs before paint so the theme does not flash: the user's stored choice, else the operating system's preference.
+const themeScript = `try{var t=localStorage.getItem("pp-theme");if(t!=="light"&&t!=="dark")t=window.matchMedia&&window.matchMedia("(prefers-color-scheme: light)").matches?"light":"dark";document.documentElement.dataset.theme=t}catch(e){}`;
 
 export default async function RootLayout({ children }: { children: ReactNode }) {
   // The page's Content-Security-Policy allows only scripts with this request's nonce (proxy.ts).

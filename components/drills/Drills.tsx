@@ -18,7 +18,8 @@ import { environmentResponseSchema } from "@/lib/api/schemas/environments";
 import { mapGraphSchema } from "@/lib/api/schemas/map";
 import { fetchJson, useApi, type ApiError } from "@/lib/client/api";
 import { MiniMap } from "./MiniMap";
-import { incidentSummary } from "./summary";
+import { ChainView } from "@/components/analysis/Chain";
+import { drillPageOrder, failedWords, incidentSummary } from "./summary";
 
 const list = (v: string | null) => (v ? v.split(",").filter(Boolean) : []);
 
@@ -36,6 +37,9 @@ async function postDrill([url, components, zones]: [string, string[], string[]])
 export function Drills({ env }: { env: string }) {
   const url = useUrlState();
   const fail = list(url.get("fail"));
+  // Opened from the header's "What is down?": the same result, worded as an outage, not a rehearsal.
+  const outage = url.get("down") === "1";
+  const [why, setWhy] = useState<string | null>(null);
   const zones = list(url.get("zones"));
   // The picker asks the API for what was typed; zones come with the environment's summary.
   const [typed, setTyped] = useState("");
@@ -53,7 +57,10 @@ export function Drills({ env }: { env: string }) {
   const allZones = environment.data?.zones ?? [];
 
   const result = drill.data;
-  const summary = result ? incidentSummary({ env, result, undeclared, link: typeof window === "undefined" ? "" : window.location.href }) : "";
+  const summary = result ? incidentSummary({ env, result, undeclared, outage, tierOf: (k) => byKey.get(k)?.tier, link: typeof window === "undefined" ? "" : window.location.href }) : "";
+  const teams = result ? drillPageOrder(result) : [];
+  const failedSet = new Set(result?.failed.components ?? []);
+  const what = failedWords({ components: fail, zones });
 
   const copy = async () => {
     try {
@@ -66,27 +73,50 @@ export function Drills({ env }: { env: string }) {
   };
 
   const keyLink = (k: string) => (
-    <li key={k} className="flex items-center gap-1.5">
+    <li key={k} className="flex flex-wrap items-center gap-1.5">
       <Link href={`/environments/${env}/components/${encodeURIComponent(k)}`} className="font-mono text-ink hover:underline">
         {k}
       </Link>
       {undeclared.has(k) && <Badge tone="undeclared" title="needed by something, declared by no source">undeclared</Badge>}
       {result?.failed.components.includes(k) && <Badge tone="down">failed</Badge>}
-      {byKey.get(k) && <span className="text-xs text-faint">tier {byKey.get(k)!.tier}</span>}
+      {byKey.get(k) && <span className="text-xs text-muted">tier {byKey.get(k)!.tier}</span>}
+      {fail.length > 0 && !failedSet.has(k) && (
+        <button type="button" className="text-xs text-info underline" aria-expanded={why === k} aria-label={`Why is ${k} ${result?.down.includes(k) ? "down" : "degraded"}?`} onClick={() => setWhy(why === k ? null : k)}>
+          why?
+        </button>
+      )}
+      {why === k && (
+        <div className="basis-full rounded border border-line bg-canvas p-2">
+          {fail.map((f) => (
+            <ChainView key={f} env={env} from={k} to={f} compact />
+          ))}
+        </div>
+      )}
     </li>
   );
 
   return (
     <div className="space-y-4">
       <div>
-        <h1 className="text-2xl font-semibold tracking-tight">Drills</h1>
-        <p className="mt-1 text-sm text-muted">Fail components or whole zones on paper and see what goes with them and who to page.</p>
+        {outage && hasInput ? (
+          <>
+            <h1 className="text-2xl font-semibold tracking-tight">
+              <span className="font-mono">{what}</span> {fail.length + zones.length === 1 ? "is" : "are"} down
+            </h1>
+            <p className="mt-1 text-sm text-muted">What goes down with it, which tier 1 components are hit, and whom to page first. Ask “why?” beside any component to see the chain of needs.</p>
+          </>
+        ) : (
+          <>
+            <h1 className="text-2xl font-semibold tracking-tight">{hasInput ? <>Drill: if <span className="font-mono">{what}</span> {fail.length + zones.length === 1 ? "fails" : "fail"}</> : "Drills"}</h1>
+            <p className="mt-1 text-sm text-muted">Fail components or whole zones on paper and see what goes with them and who to page.</p>
+          </>
+        )}
       </div>
 
-      <Card title="What fails">
+      <Card title={outage ? "What is down" : "What fails"}>
         <div className="grid gap-4 md:grid-cols-[2fr_1fr]">
           <MultiSelect
-            label="Components to fail"
+            label={outage ? "Components that are down" : "Components to fail"}
             options={options}
             selected={fail}
             onChange={(next) => url.set({ fail: next.join(",") || null })}
@@ -157,13 +187,27 @@ export function Drills({ env }: { env: string }) {
 
           <section aria-labelledby="teams-heading" className="space-y-3">
             <h2 id="teams-heading" className="text-lg font-semibold">
-              Who to page <span className="text-sm font-normal text-muted">({result.teams.length} teams, unowned first, then most affected)</span>
+              Who to page <span className="text-sm font-normal text-muted">({result.teams.length} teams: the owners of what failed first, then the most affected; unowned last)</span>
             </h2>
             <div className="grid gap-3 lg:grid-cols-2">
-              {result.teams.map((t) => (
+              {teams.map((t, n) => (
                 <section key={t.team ?? "(none)"} className="rounded-lg border border-line bg-surface p-4" data-testid="drill-team">
                   <header className="flex flex-wrap items-baseline justify-between gap-2">
-                    <h3 className="font-semibold">{t.team ? (t.contact?.name ?? t.team) : <span className="text-degraded">Unowned — nobody is paged</span>}</h3>
+                    <h3 className="font-semibold">
+                      {t.team ? (
+                        <>
+                          <span className="mr-1.5 font-mono text-sm text-muted">{n + 1}.</span>
+                          {t.contact?.name ?? t.team}
+                          {t.down.some((k) => failedSet.has(k)) && (
+                            <span className="ml-2">
+                              <Badge tone="down">owns what failed</Badge>
+                            </span>
+                          )}
+                        </>
+                      ) : (
+                        <span className="text-degraded">Unowned — nobody is paged</span>
+                      )}
+                    </h3>
                     <span className="text-sm text-muted">
                       <span className="text-down">{t.down.length} down</span> · <span className="text-degraded">{t.degraded.length} degraded</span>
                     </span>

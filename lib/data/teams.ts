@@ -1,5 +1,6 @@
 // Teams and memberships.
 import "server-only";
+import { roleHas, type Role } from "@/lib/auth/roles";
 import { db } from "@/models";
 
 export interface TeamInput {
@@ -41,4 +42,14 @@ export async function teamsLedBy({ userId }: { userId: string }): Promise<string
   if (!rows.length) return [];
   const teams = await Team.findAll({ where: { id: rows.map((r) => r.teamId) } });
   return teams.map((t) => t.slug);
+}
+
+/**
+ * Who may hand out ownership on a screen, with the same rule annotateComponent applies: leads claim
+ * for the teams they lead, architects and admins assign any team.
+ */
+export async function ownerViewerFor(user: { id: string; role: Role }): Promise<{ ledTeams: string[]; assignAny: boolean; teams: Array<{ slug: string; name: string }> }> {
+  const mayClaim = roleHas(user.role, "components:annotate");
+  const [teams, led] = await Promise.all([listTeams(), mayClaim ? teamsLedBy({ userId: user.id }) : Promise.resolve([])]);
+  return { ledTeams: led, assignAny: roleHas(user.role, "reviews:write"), teams: teams.map((t) => ({ slug: t.slug, name: t.name })) };
 }

@@ -5,6 +5,8 @@ import { UnownedQueue } from "@/components/teams/UnownedQueue";
 import { requireUser } from "@/lib/auth/page";
 import { roleHas } from "@/lib/auth/roles";
 import { listOverdueReviews } from "@/lib/data/reviews";
+import { defaultEnvironment } from "@/lib/config";
+import { listEnvironments } from "@/lib/data/environments";
 import { listTeams, teamsLedBy } from "@/lib/data/teams";
 
 export const metadata = { title: "Teams" };
@@ -12,7 +14,7 @@ export const dynamic = "force-dynamic";
 
 export default async function TeamsPage() {
   const user = await requireUser();
-  const [teams, ledTeams, overdue] = await Promise.all([listTeams(), teamsLedBy({ userId: user.id }), listOverdueReviews()]);
+  const [teams, ledTeams, overdue, environments] = await Promise.all([listTeams(), teamsLedBy({ userId: user.id }), listOverdueReviews(), listEnvironments()]);
   // The same rule annotateComponent applies on the server: leads claim for their teams, architects and admins assign any.
   const assignAny = roleHas(user.role, "reviews:write");
   const mayClaim = roleHas(user.role, "components:annotate");
@@ -27,6 +29,8 @@ export default async function TeamsPage() {
         <div className="xl:col-span-2">
           <Suspense>
             <UnownedQueue
+              defaultEnvironment={defaultEnvironment()}
+              environments={environments.map((e) => e.slug)}
               viewer={{
                 ledTeams: mayClaim ? ledTeams : [],
                 assignAny,

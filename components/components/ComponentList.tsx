@@ -3,7 +3,8 @@
 // the view kept in the URL. An estate of tens of thousands of components loads one page.
 import { createColumnHelper } from "@tanstack/react-table";
 import Link from "next/link";
-import { useMemo } from "react";
+import { useMemo, useState } from "react";
+import { ClaimOwner, ClaimUndo, ownerChoices, type Claim, type OwnerViewer } from "@/components/teams/ClaimOwner";
 import { Badge } from "@/components/ui/Badge";
 import { Button } from "@/components/ui/Button";
 import { Stat } from "@/components/ui/Card";
@@ -21,7 +22,8 @@ const col = createColumnHelper<ComponentListItem>();
 
 export const componentHref = (env: string, key: string) => `/environments/${env}/components/${encodeURIComponent(key)}`;
 
-function columns(env: string) {
+function columns(env: string, viewer: OwnerViewer | undefined, onClaimed: (c: Claim) => void) {
+  const mayClaim = viewer !== undefined && ownerChoices(viewer).length > 0;
   return [
     col.accessor("key", {
       header: "Component",
@@ -42,7 +44,16 @@ function columns(env: string) {
     }),
     col.accessor("team", {
       header: "Team",
-      cell: (i) => i.getValue() ?? (i.row.original.kind === "undeclared" ? <span className="text-faint">—</span> : <Badge tone="degraded">unowned</Badge>),
+      cell: (i) =>
+        i.getValue() ??
+        (i.row.original.kind === "undeclared" ? (
+          <span className="text-muted">—</span>
+        ) : (
+          <div className="flex flex-wrap items-center gap-2">
+            <Badge tone="degraded">unowned</Badge>
+            {mayClaim && <ClaimOwner env={env} componentKey={i.row.original.key} viewer={viewer} onClaimed={onClaimed} />}
+          </div>
+        )),
     }),
     col.accessor("tier", { header: "Tier", meta: { numeric: true } }),
     col.accessor("replicas", { header: "Replicas", meta: { numeric: true } }),
@@ -79,13 +90,22 @@ function columns(env: string) {
   ];
 }
 
-export function ComponentList({ env }: { env: string }) {
+export function ComponentList({ env, viewer }: { env: string; viewer?: OwnerViewer }) {
   const list = useListState(COMPONENT_LIST, { filters: COMPONENT_FILTERS, pageSize: COMPONENT_PAGE_SIZE });
   // The page (app/(app)/environments/[env]/components/page.tsx) puts the first answer in swr's
   // cache under this URL, so the first rows come with the HTML.
   const page = useApi(componentsResponseSchema, componentsUrl(env, list.query), { keepPreviousData: true });
   const teams = useApi(teamsResponseSchema, "/api/v1/teams");
-  const cols = useMemo(() => columns(env), [env]);
+  const [claim, setClaim] = useState<Claim | null>(null);
+  const { mutate } = page;
+  const cols = useMemo(
+    () =>
+      columns(env, viewer, (c) => {
+        setClaim(c);
+        void mutate();
+      }),
+    [env, viewer, mutate],
+  );
   const counts = page.data?.counts;
   const error = page.error;
   const filtered = Object.keys(list.filters).length > 0;
@@ -104,6 +124,13 @@ export function ComponentList({ env }: { env: string }) {
         <Stat label="Unowned" value={counts?.unowned.toLocaleString() ?? "—"} tone={counts?.unowned ? "degraded" : "ink"} hint="nobody to page" />
         <Stat label="Undeclared" value={counts?.undeclared.toLocaleString() ?? "—"} tone={counts?.undeclared ? "degraded" : "ink"} hint="needed by something, declared by no source" />
       </div>
+      <ClaimUndo
+        claim={claim}
+        onUndone={() => {
+          setClaim(null);
+          void mutate();
+        }}
+      />
       {error && (
         <Notice tone={error.status === 404 ? "info" : "error"} title={error.status === 404 ? "Nothing here yet" : "Could not load the components"}>
           {error.message}

@@ -2,7 +2,13 @@
 // One component: what is declared about it, who owns it, what it needs and what needs it, its
 // measures in plain words, and which snapshots changed it.
 import Link from "next/link";
-import type { ReactNode } from "react";
+import { useState, type ReactNode } from "react";
+import { z } from "zod";
+import { ChainView } from "@/components/analysis/Chain";
+import { ClaimOwner, ClaimUndo, ownerChoices, type Claim, type OwnerViewer } from "@/components/teams/ClaimOwner";
+import { ApiForm, SubmitButton, useApiForm } from "@/components/ui/form/api-form";
+import { InputField } from "@/components/ui/form/fields";
+import { keySchema } from "@/lib/api/schemas/common";
 import { ReviewBadge } from "@/components/reviews/ReviewBadge";
 import { useReviews } from "@/components/reviews/useReviews";
 import { dependencyChangeLine, dependencyLine, fieldChanges } from "@/components/history/diff-lines";
@@ -20,6 +26,7 @@ import {
   type ComponentHistoryResponse as HistoryResponse,
   type ComponentMetrics as Metrics,
 } from "@/lib/api/schemas/components";
+import { componentsResponseSchema } from "@/lib/api/schemas/components";
 import { useApi } from "@/lib/client/api";
 
 function Field({ label, children }: { label: string; children: ReactNode }) {
@@ -77,9 +84,10 @@ function EdgeList({ env, edges, empty }: { env: string; edges: ComponentEdge[]; 
   );
 }
 
-export function ComponentPage({ env, componentKey }: { env: string; componentKey: string }) {
+export function ComponentPage({ env, componentKey, viewer, canDecide = false }: { env: string; componentKey: string; viewer?: OwnerViewer; canDecide?: boolean }) {
   const base = `/api/v1/environments/${env}/components/${encodeURIComponent(componentKey)}`;
   const detail = useApi(componentDetailResponseSchema, base);
+  const [claim, setClaim] = useState<Claim | null>(null);
   const history = useApi(componentHistoryResponseSchema, `${base}/history`);
   const reviews = useReviews(env);
   const d = detail.data;
@@ -116,7 +124,12 @@ export function ComponentPage({ env, componentKey }: { env: string; componentKey
           </h1>
           {d.name !== d.key && <p className="text-muted">{d.name}</p>}
         </div>
-        <div className="flex gap-2">
+        <div className="flex flex-wrap gap-2">
+          {canDecide && (
+            <Link href={`/environments/${env}/reviews?decide=${encodeURIComponent(d.key)}#decide`} className="rounded-md border border-line bg-raised px-3 py-1.5 text-sm text-ink hover:border-brass">
+              Record a risk decision
+            </Link>
+          )}
           <Link href={`/environments/${env}/drills?fail=${encodeURIComponent(d.key)}`} className="rounded-md bg-brass px-3 py-1.5 text-sm font-semibold text-on-brass hover:bg-brass-strong">
             Blast radius
           </Link>
@@ -174,7 +187,27 @@ export function ComponentPage({ env, componentKey }: { env: string; componentKey
               </Field>
             )}
           </dl>
-          <p className="mt-2 text-xs text-faint">Owners and notes are edited in the map&apos;s inspector or on the team screen.</p>
+          <ClaimUndo
+            claim={claim}
+            onUndone={() => {
+              setClaim(null);
+              void detail.mutate();
+            }}
+          />
+          {!d.team && d.kind !== "undeclared" && viewer && ownerChoices(viewer).length > 0 && (
+            <div className="mt-2" data-testid="claim-owner">
+              <ClaimOwner
+                env={env}
+                componentKey={d.key}
+                viewer={viewer}
+                onClaimed={(c) => {
+                  setClaim(c);
+                  void detail.mutate();
+                }}
+              />
+            </div>
+          )}
+          <p className="mt-2 text-xs text-muted">Owners and notes are edited in the map&apos;s inspector or on the team screen.</p>
         </Card>
       </div>
 
@@ -192,9 +225,12 @@ export function ComponentPage({ env, componentKey }: { env: string; componentKey
         {m ? (
           <ul className="grid gap-2 text-sm md:grid-cols-2" data-testid="measures">
             <li>
-              <span className="font-medium">Rank #{m.rank}</span>{" "}
+              {/* The one ranking of every screen: by pinch score, as the overview and the pinch-points table. */}
+              <span className="font-medium" data-testid="pinch-rank">
+                Rank #{m.ranks.pinchScore.rank ?? "—"}
+              </span>{" "}
               <span className="text-muted">
-                by betweenness in this environment{m.tied > 1 ? `, shared with ${plural(m.tied - 1, "other component")} of equal value (equal values share a rank: 1, 2, 2, 4)` : ""}.
+                by pinch score in this environment{m.ranks.pinchScore.tied > 1 ? `, shared with ${plural(m.ranks.pinchScore.tied - 1, "other component")} of equal value (equal values share a rank: 1, 2, 2, 4)` : ""}; #{m.rank} by betweenness.
               </span>
             </li>
             <li><span className="font-medium">Betweenness {betweennessPct(m.betweenness)}</span> <span className="text-muted">— that share of the shortest dependency paths between other components run through it.</span></li>
@@ -226,6 +262,8 @@ export function ComponentPage({ env, componentKey }: { env: string; componentKey
 
       {m && <DominatorsCard env={env} d={d} m={m} />}
 
+      <WhyCard env={env} from={d.key} />
+
       <div className="grid gap-4 lg:grid-cols-2">
         <Card title={`Needs (${d.needs.length})`}>
           <EdgeList env={env} edges={d.needs} empty="Needs nothing that is declared." />
@@ -237,6 +275,36 @@ export function ComponentPage({ env, componentKey }: { env: string; componentKey
 
       {history.data ? <HistoryCard env={env} data={history.data} /> : history.error ? <Notice tone="error" title="Could not load the history">{history.error.message}</Notice> : null}
     </div>
+  );
+}
+
+const whySchema = z.object({ to: keySchema });
+
+/** "Why does this depend on …?": the chain of needs to any other component, asked by key. */
+function WhyCard({ env, from }: { env: string; from: string }) {
+  const [to, setTo] = useState<string | null>(null);
+  const form = useApiForm(whySchema, { to: "" });
+  const typed = form.watch("to");
+  const matches = useApi(componentsResponseSchema, typed && typed.length >= 2 ? `/api/v1/environments/${env}/components?${new URLSearchParams({ q: typed, limit: "8" })}` : null, { keepPreviousData: true });
+  return (
+    <Card title={`Why does ${from} depend on …?`}>
+      <ApiForm form={form} onSubmit={form.handleSubmit((v) => setTo(v.to))} label={`Why does ${from} depend on another component`} className="flex flex-wrap items-end gap-2">
+        <InputField name="to" label="Another component" list="why-options" autoComplete="off" placeholder="e.g. dns-resolver" controlClassName="font-mono w-64" />
+        <datalist id="why-options">
+          {matches.data?.items.map((c) => (
+            <option key={c.key} value={c.key}>
+              {c.name}
+            </option>
+          ))}
+        </datalist>
+        <SubmitButton variant="secondary">Show the chain</SubmitButton>
+      </ApiForm>
+      {to && (
+        <div className="mt-3">
+          <ChainView env={env} from={from} to={to} />
+        </div>
+      )}
+    </Card>
   );
 }
 

@@ -15,7 +15,9 @@ import { DataTable } from "@/components/ui/data-table/DataTable";
 import { ListSearch, ListSelect } from "@/components/ui/data-table/filters";
 import { useListState } from "@/components/ui/data-table/list-state";
 import { betweennessPct, measure, NOT_CONVERGED, pinchScore, plural, rankLabel } from "@/components/ui/format";
+import { CheckField } from "@/components/ui/LabelledField";
 import { Notice } from "@/components/ui/Notice";
+import { useUrlState } from "@/components/ui/url-state";
 import { RANKING_LIST, rankingsResponseSchema, rankTrendResponseSchema, type RankingItem } from "@/lib/api/schemas/analysis";
 import type { ReviewSummary } from "@/lib/api/schemas/reviews";
 import { teamsResponseSchema } from "@/lib/api/schemas/teams";
@@ -37,8 +39,13 @@ function Converged({ value }: { value: number | null }) {
   return value === null ? <span className="text-xs text-degraded">{NOT_CONVERGED}</span> : <>{measure(value)}</>;
 }
 
-export function PinchPoints({ env }: { env: string }) {
+/** Raw centrality fractions: for people who know the measures, behind "All measures". */
+const EXPERT_COLUMNS = new Set(["pagerank", "eigenvector", "clustering", "dominatedAll", "kind"]);
+
+export function PinchPoints({ env, canDecide = false }: { env: string; canDecide?: boolean }) {
   const list = useListState(RANKING_LIST, { filters: FILTERS, pageSize: 25 });
+  const url = useUrlState();
+  const allMeasures = url.get("measures") === "all";
   const exportQuery = new URLSearchParams(list.query);
   exportQuery.delete("limit");
   exportQuery.delete("offset");
@@ -59,20 +66,24 @@ export function PinchPoints({ env }: { env: string }) {
     [rankings.data, trendByKey, reviews.byKey],
   );
 
+  // "#" is the position in the current sort: the measure's rank (ties shared) when the sort is a
+  // ranked measure, else the row's place in the list.
+  const rankedSort = rankings.data?.rankBy === list.sort;
+  const offset = (list.page - 1) * list.pageSize;
   const columns = useMemo(
     () => [
       col.accessor((r) => r.position, {
         id: "rank",
         header: "#",
         cell: (i) => {
-          const p = i.getValue();
+          const p = rankedSort ? i.getValue() : { rank: offset + i.row.index + 1, tied: 1 };
           return (
             <span title={p.tied > 1 ? `Shares rank ${p.rank} with ${p.tied - 1} other component${p.tied > 2 ? "s" : ""} of equal value` : undefined} data-testid="rank">
               {rankLabel(p)}
             </span>
           );
         },
-        meta: { numeric: true, className: "w-10", label: "Rank" },
+        meta: { numeric: true, className: "w-10", label: "Position in this sort", help: "Position in the current sort; equal values share a rank" },
       }),
       col.accessor("key", {
         header: "Component",
@@ -96,6 +107,15 @@ export function PinchPoints({ env }: { env: string }) {
                 >
                   blast radius →
                 </Link>
+                {canDecide && (
+                  <Link
+                    href={`/environments/${env}/reviews?decide=${encodeURIComponent(r.key)}#decide`}
+                    className="whitespace-nowrap text-xs text-info hover:underline"
+                    aria-label={`Record a risk decision on ${r.key}`}
+                  >
+                    decide →
+                  </Link>
+                )}
               </div>
             </div>
           );
@@ -121,8 +141,9 @@ export function PinchPoints({ env }: { env: string }) {
       col.accessor((r) => r.dominatedAll, { id: "dominatedAll", header: "Dominates", cell: (i) => i.getValue() ?? "—", meta: { numeric: true, hidden: true, help: "Components every path from any entry point passes through it to reach" } }),
       col.display({ id: "trend", header: "Trend", cell: (i) => (i.row.original.trend ? <Sparkline points={i.row.original.trend} /> : <span className="text-xs text-faint">…</span>) }),
     ],
-    [env],
+    [env, canDecide, rankedSort, offset],
   );
+  const shownColumns = useMemo(() => (allMeasures ? columns : columns.filter((c) => !EXPERT_COLUMNS.has(c.id ?? ("accessorKey" in c ? String(c.accessorKey) : "")))), [columns, allMeasures]);
 
   const total = rankings.data?.total ?? 0;
   const error = rankings.error;
@@ -139,7 +160,12 @@ export function PinchPoints({ env }: { env: string }) {
       <div className="flex flex-wrap items-end justify-between gap-3">
         <div>
           <h1 className="text-2xl font-semibold tracking-tight">Pinch points</h1>
-          <p className="mt-1 text-sm text-muted">Components whose failure takes the most of the estate with them, betweenness first.</p>
+          <p className="mt-1 text-sm text-muted">
+            Components whose failure takes the most of the estate with them, ranked by pinch score: what a failure takes down, weighed with how much runs through it.{" "}
+            <Link href={`/environments/${env}/reviews#weights`} className="text-brass underline">
+              Pinch-score weights
+            </Link>
+          </p>
         </div>
         <a href={exportHref} download className="rounded-md border border-line bg-raised px-3 py-1.5 text-sm text-ink hover:border-brass" data-testid="csv-export">
           Export CSV ({total} rows)
@@ -178,7 +204,7 @@ export function PinchPoints({ env }: { env: string }) {
         id="pinch-points"
         testId="rankings-table"
         caption="Pinch-point ranking"
-        columns={columns}
+        columns={shownColumns}
         data={rows}
         rowKey={(r) => r.key}
         error={error}
@@ -192,6 +218,7 @@ export function PinchPoints({ env }: { env: string }) {
             <ListSelect list={list} name="team" label="Team" all="All teams" options={teams} />
             <ListSelect list={list} name="tier" label="Tier" all="All tiers" options={[1, 2, 3, 4].map((t) => ({ value: String(t), label: `Tier ${t}` }))} />
             <ListSelect list={list} name="kind" label="Kind" all="All kinds" options={[...COMPONENT_KINDS, "undeclared"].map((k) => ({ value: k, label: k }))} />
+            <CheckField label="All measures (PageRank, eigenvector, clustering)" checked={allMeasures} onChange={(e) => url.set({ measures: e.target.checked ? "all" : null })} />
             {Object.keys(list.filters).length > 0 && (
               <Button type="button" variant="ghost" onClick={list.clearFilters}>
                 Clear filters

@@ -27,7 +27,7 @@ const inDays = (days: number) => todayUtc(new Date(Date.now() + days * 86_400_00
 export function ReviewForm({ env, draft, onSaved }: { env: string; draft: ReviewDraft | null; onSaved: (key: string) => void }) {
   // The components most worth a decision: the top of the list by pinch score.
   const top = useApi(rankingsResponseSchema, `/api/v1/environments/${env}/rankings?sort=pinchScore&order=desc&limit=30`);
-  const form = useApiForm(reviewFormSchema, draft ?? { key: "", status: "accepted", rationale: "", reviewBy: inDays(90) });
+  const form = useApiForm(reviewFormSchema, draft ? { ...draft, reviewBy: draft.reviewBy ?? (draft.status === "resolved" ? null : inDays(90)) } : { key: "", status: "accepted", rationale: "", reviewBy: inDays(90) });
   const status = useWatch({ control: form.control, name: "status" });
   const needsDate = status !== "resolved";
   const onSubmit = submitWith(

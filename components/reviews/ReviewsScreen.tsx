@@ -3,6 +3,7 @@
 // its date, and (for architects and admins) the form to decide and the pinch-score weights.
 import { createColumnHelper } from "@tanstack/react-table";
 import Link from "next/link";
+import { useSearchParams } from "next/navigation";
 import { useState } from "react";
 import { UnownedQueue, type QueueViewer } from "@/components/teams/UnownedQueue";
 import { ConfirmButton } from "@/components/ui/ConfirmButton";
@@ -81,7 +82,9 @@ export function ReviewsScreen({ env, canWrite, canReadAudit, queueViewer }: { en
   const { items, error, isLoading, mutate } = useReviews(env);
   const [overdueOnly, setOverdueOnly] = useState(false);
   // A new draft mounts the form again with it (no effect copying props into the form).
-  const [draft, setDraft] = useState<{ n: number; value: ReviewDraft | null }>({ n: 0, value: null });
+  // ?decide=<key> (from a pinch-points row or a component page) starts the form on that component.
+  const decide = useSearchParams().get("decide");
+  const [draft, setDraft] = useState<{ n: number; value: ReviewDraft | null }>({ n: 0, value: decide ? { key: decide, status: "accepted", rationale: "", reviewBy: null } : null });
   const [actionError, setActionError] = useState<string | null>(null);
   const [saved, setSaved] = useState<string | null>(null);
   const overdueCount = (items ?? []).filter((r) => r.overdue).length;
@@ -124,13 +127,16 @@ export function ReviewsScreen({ env, canWrite, canReadAudit, queueViewer }: { en
       </div>
 
       {canWrite && (
-        <Card title="Review a pinch point">
+        <div id="decide" className="scroll-mt-28">
+        <Card title={draft.value ? <>Review <span className="font-mono">{draft.value.key}</span></> : "Review a pinch point"}>
           <ReviewForm
             key={draft.n}
             env={env}
             draft={draft.value}
             onSaved={(key) => {
               setSaved(key);
+              // The form starts empty again for the next decision.
+              setDraft((d) => ({ n: d.n + 1, value: null }));
               void mutate();
             }}
           />
@@ -140,6 +146,7 @@ export function ReviewsScreen({ env, canWrite, canReadAudit, queueViewer }: { en
             </p>
           )}
         </Card>
+        </div>
       )}
 
       <Card
@@ -169,7 +176,9 @@ export function ReviewsScreen({ env, canWrite, canReadAudit, queueViewer }: { en
       </Card>
 
       <div className="grid gap-6 xl:grid-cols-2">
-        <WeightsForm env={env} canWrite={canWrite} />
+        <div id="weights" className="scroll-mt-28">
+          <WeightsForm env={env} canWrite={canWrite} />
+        </div>
         <SettingsForm env={env} canWrite={canWrite} />
         <UnownedQueue environment={env} viewer={queueViewer} />
       </div>

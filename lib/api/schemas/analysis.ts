@@ -7,7 +7,9 @@ import { instantSchema, keySchema, kindSchema, provenanceSchema, slugSchema, str
 /** The ranking as a list (lib/api/ranking-sorts.ts gives its columns and which way each reads first). */
 export const RANKING_LIST: ListSpec<RankingSort> = {
   sorts: Object.fromEntries(RANKING_SORT_KEYS.map((k) => [k, defaultRankingOrder(k)])) as Record<RankingSort, "asc" | "desc">,
-  defaultSort: "betweenness",
+  // The one ranking of every screen (overview, component page, pinch points): the pinch score, which
+  // weighs what a failure takes down with how much runs through it (DESIGN §4).
+  defaultSort: "pinchScore",
   defaultLimit: 50,
   maxLimit: 1000,
 };

@@ -6,6 +6,8 @@ import { parseQuery } from "@/lib/api/query";
 import { componentsQuerySchema, componentsResponseSchema, type ComponentsResponse } from "@/lib/api/schemas/components";
 import { countComponents, listComponents } from "@/lib/data/components";
 import { getEnvironmentOrThrow } from "@/lib/data/environments";
+import { requireUser } from "@/lib/auth/page";
+import { ownerViewerFor } from "@/lib/data/teams";
 
 export const metadata = { title: "Components" };
 
@@ -27,8 +29,9 @@ async function firstPage(env: string, query: URLSearchParams): Promise<Component
 }
 
 export default async function ComponentsPage({ params, searchParams }: { params: Promise<{ env: string }>; searchParams: Promise<Record<string, string | string[] | undefined>> }) {
-  const { env } = await params;
-  const search = await searchParams;
+  const [{ env }, search, user] = await Promise.all([params, searchParams, requireUser()]);
+  // Who may claim or assign an owner from the list: the rule annotateComponent applies on the server.
+  const viewer = await ownerViewerFor(user);
   const { query } = componentsQueryOf((name) => {
     const v = search[name];
     return typeof v === "string" ? v : null;
@@ -37,7 +40,7 @@ export default async function ComponentsPage({ params, searchParams }: { params:
   return (
     <Suspense>
       <SWRConfig value={{ fallback: first ? { [componentsUrl(env, query)]: first } : {} }}>
-        <ComponentList env={env} />
+        <ComponentList env={env} viewer={viewer} />
       </SWRConfig>
     </Suspense>
   );

@@ -6,14 +6,14 @@
 // unless an architect or admin records a reason.
 import { createColumnHelper } from "@tanstack/react-table";
 import Link from "next/link";
-import type { ReactNode } from "react";
+import { useState, type ReactNode } from "react";
 import { Badge } from "@/components/ui/Badge";
 import { Button } from "@/components/ui/Button";
 import { DataTable } from "@/components/ui/data-table/DataTable";
 import { ApiForm, SubmitButton, useApiForm } from "@/components/ui/form/api-form";
 import { TextAreaField } from "@/components/ui/form/fields";
 import type { ImpactReport } from "@/lib/api/schemas/impact";
-import { overrideFormSchema } from "@/lib/api/schemas/inventory";
+import { overrideFormSchema, type DiffSummary } from "@/lib/api/schemas/inventory";
 const score = (x: number) => x.toFixed(1);
 const signed = (x: number) => `${x > 0 ? "+" : x < 0 ? "−" : "±"}${Math.abs(x).toFixed(1)}`;
 
@@ -173,14 +173,44 @@ export function ImpactPanel({ impact, fileName, env }: { impact: ImpactReport; f
  * The push button under an impact: held back while a blocking policy fails; an architect or admin
  * may push anyway with a reason (the server checks the role and audits the reason).
  */
-export function GatedPush({ impact, env, canOverride, busy, onPush }: { impact: ImpactReport | undefined; env: string; canOverride: boolean; busy: boolean; onPush: (overrideReason: string | null) => void }) {
-  if (!impact?.blocked) {
+/** "+2 components, −1, 3 changed; +4 needs, −1": what the push changes, in one line. */
+export function diffLine(diff: DiffSummary): string {
+  const c = diff.counts;
+  const parts = [`+${c.componentsAdded} / −${c.componentsRemoved} / ~${c.componentsChanged} components`, `+${c.dependenciesAdded} / −${c.dependenciesRemoved} needs`];
+  return parts.join("; ");
+}
+
+/** Push asked twice: the second question repeats what changes and what it does, beside the button. */
+function ConfirmPush({ env, diff, impact, busy, onPush }: { env: string; diff: DiffSummary; impact: ImpactReport | undefined; busy: boolean; onPush: () => void }) {
+  const [asking, setAsking] = useState(false);
+  if (!asking) {
     return (
-      <Button type="button" variant="primary" disabled={busy} onClick={() => onPush(null)} data-testid="push-button">
-        {busy ? "Pushing…" : `Push to ${env}`}
+      <Button type="button" variant="primary" disabled={busy} onClick={() => setAsking(true)} data-testid="push-button">
+        {busy ? "Pushing…" : `Push to ${env}…`}
       </Button>
     );
   }
+  return (
+    <div role="group" aria-label={`Confirm the push to ${env}`} className="w-full space-y-2 rounded-md border border-brass/60 bg-brass/10 px-3 py-2 text-sm" data-testid="push-confirmation">
+      <p className="font-semibold">Push to {env}?</p>
+      <p>
+        Changes: <span className="font-mono">{diffLine(diff)}</span>.
+      </p>
+      {impact && <p>Impact: {impact.headline}</p>}
+      <div className="flex flex-wrap gap-2">
+        <Button type="button" variant="primary" disabled={busy} onClick={onPush} data-testid="push-confirm">
+          {busy ? "Pushing…" : `Yes, push to ${env}`}
+        </Button>
+        <Button type="button" variant="ghost" disabled={busy} onClick={() => setAsking(false)}>
+          Not yet
+        </Button>
+      </div>
+    </div>
+  );
+}
+
+export function GatedPush({ impact, diff, env, canOverride, busy, onPush }: { impact: ImpactReport | undefined; diff: DiffSummary; env: string; canOverride: boolean; busy: boolean; onPush: (overrideReason: string | null) => void }) {
+  if (!impact?.blocked) return <ConfirmPush env={env} diff={diff} impact={impact} busy={busy} onPush={() => onPush(null)} />;
   if (!canOverride) {
     return (
       <p className="text-sm" data-testid="push-blocked">

@@ -29,6 +29,23 @@ interface Picked {
   /** Every file picked, in order: several make a layered Compose project. */
   files: { name: string; text: string }[];
   detected: Detection;
+  /** Where each file came from, so "Check again" reads what is on disk now, not the copy read when it was chosen. */
+  origins: FileOrigin[];
+}
+
+/**
+ * A chosen file that can be read again: a File System Access handle where the browser has one
+ * (Chromium: it always reads the file as it is now), else the File itself, which Chromium refuses
+ * to read once the file changed on disk (NotReadableError) and other browsers read as it is now.
+ */
+type FileOrigin = { handle: { getFile(): Promise<File> } } | { file: File };
+
+interface PickerWindow {
+  showOpenFilePicker?: (options: { multiple: boolean }) => Promise<Array<{ getFile(): Promise<File> }>>;
+}
+
+async function readOrigin(origin: FileOrigin): Promise<File> {
+  return "handle" in origin ? origin.handle.getFile() : origin.file;
 }
 
 type Stage =
@@ -147,10 +164,39 @@ export function ImportsScreen({ env, canUpload, role }: { env: string; canUpload
   }
 
   const checkAgain = form.handleSubmit(async (settings) => {
-    if (file) await check(file, settings);
+    if (!file) return;
+    // Read the chosen files again: the point of "Check again" is checking the file as fixed since.
+    let fresh: Picked;
+    try {
+      const files = await Promise.all(file.origins.map(async (o) => { const f = await readOrigin(o); return { name: f.name, text: await f.text() }; }));
+      const main = files.find((f) => f.name === file.files[0]?.name) ?? files[0];
+      fresh = { ...file, files, text: main?.text ?? "", size: files.reduce((n, f) => n + new Blob([f.text]).size, 0) };
+    } catch {
+      setReadError(`${file.name} changed on disk since it was chosen and this browser will not read it again: choose it once more.`);
+      setStage({ step: "idle" });
+      picker.current?.click();
+      return;
+    }
+    setReadError(null);
+    setFile(fresh);
+    await check(fresh, settings);
   });
 
-  async function choose(list: FileList | File[] | null | undefined) {
+  /** "choose one": the browser's file picker with handles where it has one, else the file input. */
+  async function openPicker() {
+    const w = window as unknown as PickerWindow;
+    if (!w.showOpenFilePicker) return picker.current?.click();
+    try {
+      const handles = await w.showOpenFilePicker({ multiple: true });
+      const files = await Promise.all(handles.map((h) => h.getFile()));
+      await choose(files, handles.map((handle) => ({ handle })));
+    } catch (error) {
+      // The reader closed the picker (AbortError); anything else falls back to the plain input.
+      if (!(error instanceof DOMException && error.name === "AbortError")) picker.current?.click();
+    }
+  }
+
+  async function choose(list: FileList | File[] | null | undefined, origins?: FileOrigin[]) {
     const picked = [...(list ?? [])];
     if (picked.length === 0) return;
     setReadError(null);
@@ -167,7 +213,7 @@ export function ImportsScreen({ env, canUpload, role }: { env: string; canUpload
     const text = main?.text ?? "";
     const name = files.length === 1 ? (main?.name ?? "") : `${main?.name ?? ""} and ${files.length - 1} more`;
     const detected: Detection = files.length > 1 ? { format: "compose", why: "several files: a layered Compose project, merged in the order chosen" } : detectFormat(main?.name ?? "", text);
-    const next: Picked = { name, size: total, text, files, detected };
+    const next: Picked = { name, size: total, text, files, detected, origins: origins ?? picked.map((f) => ({ file: f })) };
     const current = form.getValues();
     const nextSource = detected.format === "pinchpoint" ? "" : ((detected.format === "compose" ? sourceNamedIn(text) : null) ?? (current.source || suggestSource(main?.name ?? "upload")));
     setFile(next);
@@ -238,9 +284,20 @@ export function ImportsScreen({ env, canUpload, role }: { env: string; canUpload
             >
               <p className="text-sm">
                 Drop a file here, or{" "}
-                <button type="button" className="text-brass underline underline-offset-4" onClick={() => picker.current?.click()}>
+                <button type="button" className="text-brass underline underline-offset-4" onClick={() => void openPicker()}>
                   choose one
                 </button>
+              </p>
+              <p className="text-xs text-muted">
+                New to the format?{" "}
+                <Link href="/format" className="text-brass underline underline-offset-4">
+                  Read the file format reference
+                </Link>{" "}
+                or{" "}
+                <a href="/samples/pinchpoint-sample.yaml" download className="text-brass underline underline-offset-4">
+                  download a sample file
+                </a>
+                .
               </p>
               <p className="text-xs text-muted">
                 Pinchpoint inventory (YAML/JSON), Compose project, CSV edge list, OTLP/JSON traces or Kubernetes manifests · up to {size(MAX_BODY_BYTES)}. For a
@@ -357,7 +414,7 @@ export function ImportsScreen({ env, canUpload, role }: { env: string; canUpload
               </section>
             )}
             <div className="flex flex-wrap items-center gap-3 border-t border-line pt-4">
-              <GatedPush impact={preview.impact} env={env} canOverride={roleHas(role, "reviews:write")} busy={stage.step === "pushing"} onPush={(reason) => void push(preview, reason)} />
+              <GatedPush impact={preview.impact} diff={preview.diff} env={env} canOverride={roleHas(role, "reviews:write")} busy={stage.step === "pushing"} onPush={(reason) => void push(preview, reason)} />
               <span className="text-xs text-muted">
                 This changes Pinchpoint&apos;s picture of {env}, not your systems. Keep the file in its repository too: the next CI push from the same source replaces this upload.
               </span>

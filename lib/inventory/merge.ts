@@ -7,6 +7,7 @@
 // Compose or Kubernetes name). Keys and aliases form one namespace; a need naming an alias is a
 // need on the component. Needs keep the name their source wrote (`written`), so that when an
 // alias comes or goes every source's needs are resolved again, not only the pushing source's.
+import { distance } from "fastest-levenshtein";
 import {
   canonicaliseSnapshot,
   inventoryToSnapshotParts,
@@ -149,6 +150,7 @@ export function mergeSources({
   for (const d of dependencies) if (!declared.has(d.to)) placeholders.add(d.to);
 
   const warnings: InventoryIssue[] = [...incoming.warnings];
+  const known = [...declared, ...aliases.keys()];
   incoming.components.forEach((c, i) => {
     const named = new Set<string>();
     for (const need of c.needs) for (const k of need.type === "single" ? [need.key] : need.keys) named.add(aliases.get(k) ?? k);
@@ -156,7 +158,7 @@ export function mergeSources({
       if (!placeholders.has(k)) continue;
       warnings.push({
         path: `components[${i}].needs`,
-        message: `${JSON.stringify(c.key)} needs ${JSON.stringify(k)}, which no source declares: it is shown as an undeclared placeholder`,
+        message: `${JSON.stringify(c.key)} needs ${JSON.stringify(k)}, which no source declares: it is shown as an undeclared placeholder${didYouMean(k, known)}`,
       });
     }
   });
@@ -177,4 +179,13 @@ export function mergeSources({
     warnings,
     aliasesChanged,
   };
+}
+
+/**
+ * A typo in a need's key makes a placeholder where a declared component was meant: name the known
+ * key or alias one edit away (Levenshtein distance 1, fastest-levenshtein), when there is exactly one.
+ */
+export function didYouMean(key: string, known: Iterable<string>): string {
+  const near = [...new Set(known)].filter((k) => k !== key && Math.abs(k.length - key.length) <= 1 && distance(k, key) === 1);
+  return near.length === 1 ? ` (did you mean ${JSON.stringify(near[0])}?)` : "";
 }

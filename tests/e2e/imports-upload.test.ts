@@ -83,7 +83,10 @@ describe("imports screen", () => {
     expect(added.map((t) => t.match(/e2e-imp-(?:web|api|db)/)?.[0]).sort()).toEqual(["e2e-imp-api", "e2e-imp-db", "e2e-imp-web"]);
     await screenshot(page, "imports-preview");
 
+    // The push asks again, repeating what it changes.
     await page.getByTestId("push-button").click();
+    expect(await page.getByTestId("push-confirmation").textContent()).toMatch(/Changes: \+\d+ \/ −\d+ \/ ~\d+ components; \+\d+ \/ −\d+ needs/);
+    await page.getByTestId("push-confirm").click();
     const result = page.getByTestId("push-result");
     await result.waitFor({ timeout: 15_000 });
     const pushed = (await result.textContent()) ?? "";

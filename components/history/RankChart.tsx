@@ -10,6 +10,8 @@ const COLOURS = ["#e69f00", "#56b4e9", "#009e73", "#f0e442", "#0072b2", "#d55e00
 // Log scale: moving from 40th to 30th matters less than from 3rd to 1st, and the top is what is read.
 const TICKS = [1, 2, 5, 10, 20, 50, 100, 200, 500, 1000, 2000, 5000];
 
+const lastIndex = (points: Array<{ rank: number | null }>) => points.findLastIndex((p) => p.rank !== null);
+
 export function RankChart({ trend }: { trend: RankTrend }) {
   const data = trend.snapshots.map((n, i) => {
     const row: Record<string, number | null> = { snapshot: n };
@@ -32,7 +34,27 @@ export function RankChart({ trend }: { trend: RankTrend }) {
             />
             <Legend wrapperStyle={{ fontSize: 12 }} />
             {trend.series.map((s, i) => (
-              <Line key={s.key} type="linear" dataKey={s.key} stroke={COLOURS[i % COLOURS.length]} strokeWidth={2} dot={{ r: 2 }} connectNulls isAnimationActive={false} />
+              <Line
+                key={s.key}
+                type="linear"
+                dataKey={s.key}
+                stroke={COLOURS[i % COLOURS.length]}
+                strokeWidth={2}
+                dot={{ r: 2 }}
+                connectNulls
+                isAnimationActive={false}
+                // Each line named at its last point, in ink: colour alone does not tell eight lines apart
+                // (yellow all but vanishes on the light canvas).
+                label={(p: { x?: number | string; y?: number | string; index?: number }) =>
+                  p.index === lastIndex(s.points) ? (
+                    <text key={`${s.key}-label`} x={Number(p.x) + 4} y={Number(p.y) - 4} fontSize={10} fill="var(--color-ink)" textAnchor="end">
+                      {s.key}
+                    </text>
+                  ) : (
+                    <g key={`${s.key}-${p.index ?? 0}`} />
+                  )
+                }
+              />
             ))}
           </LineChart>
         </ResponsiveContainer>

@@ -88,7 +88,7 @@ async function SinkMessages({ selected, view }: { selected?: string; view: "html
         }
       >
         <p className="mb-3 text-xs text-faint">
-          Demo mode: every message goes to the local mail sink and is kept in <span className="font-mono">{dir}</span>. Nothing leaves this machine.
+          Demo mode: every message goes to the local mail sink on the server (the folder PINCHPOINT_MAIL_DIR names). Nothing leaves this machine.
         </p>
         {items.length === 0 ? (
           <p className="text-sm text-muted">No messages yet. Assigning an owner to a component with a team address sends one.</p>

@@ -101,7 +101,7 @@ export function Drills({ env }: { env: string }) {
         {outage && hasInput ? (
           <>
             <h1 className="text-2xl font-semibold tracking-tight">
-              <span className="font-mono">{what}</span> {fail.length + zones.length === 1 ? "is" : "are"} down
+              <span className="font-mono">{[...fail, ...zones.map((z) => `zone ${z}`)].join(", ")}</span> {fail.length + zones.length === 1 ? "is" : "are"} down
             </h1>
             <p className="mt-1 text-sm text-muted">What goes down with it, which tier 1 components are hit, and whom to page first. Ask “why?” beside any component to see the chain of needs.</p>
           </>

@@ -21,9 +21,9 @@ beforeAll(async () => {
 });
 
 describe("pinch points", () => {
-  it("opens on the betweenness ranking, first row equal to the API's first item", async () => {
+  it("opens on the pinch-score ranking, first row equal to the API's first item", async () => {
     await page.goto(`${ENV_URL()}/pinch-points`);
-    const expected = await api(page, "/api/v1/environments/production/rankings?sort=betweenness&limit=1");
+    const expected = await api(page, "/api/v1/environments/production/rankings?sort=pinchScore&order=desc&limit=1");
     await expect.poll(() => firstKey(page), { timeout: 15_000 }).toBe(expected.items[0]?.key);
     await expect.poll(() => page.locator('[data-testid="rankings-table"] tbody tr').count()).toBe(25);
     await expect.poll(() => page.getByTestId("snapshot-meta").textContent()).toMatch(/Snapshot #\d+, pushed .*undeclared: \d+\.\d%/);
@@ -36,6 +36,8 @@ describe("pinch points", () => {
   });
 
   it("sorts by a header click and keeps the sort in the URL", async () => {
+    // PageRank is one of the raw measures shown on request.
+    await page.getByLabel(/^All measures/).check();
     await page.getByRole("button", { name: /^PageRank/ }).click();
     await page.waitForURL((u) => u.searchParams.get("sort") === "pagerank" && u.searchParams.get("order") === "desc");
     const expected = await api(page, "/api/v1/environments/production/rankings?sort=pagerank&order=desc&limit=1");
@@ -54,7 +56,7 @@ describe("pinch points", () => {
     await page.goto(`${ENV_URL()}/pinch-points`);
     await page.getByLabel("Team").selectOption("platform-infra");
     await page.waitForURL((u) => u.searchParams.get("team") === "platform-infra");
-    const expected = await api(page, "/api/v1/environments/production/rankings?team=platform-infra&limit=1000");
+    const expected = await api(page, "/api/v1/environments/production/rankings?team=platform-infra&sort=pinchScore&order=desc&limit=1000");
     await expect.poll(() => page.getByTestId("csv-export").textContent()).toBe(`Export CSV (${expected.total} rows)`);
     const teams = await page.locator('[data-testid="rankings-table"] tbody tr td:nth-child(3)').allTextContents();
     expect(new Set(teams)).toEqual(new Set(["platform-infra"]));

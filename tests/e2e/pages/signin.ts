@@ -24,7 +24,8 @@ export class SignInPage {
 
 /** A new browser context signed in as a demo account (`admin`, `lead`, … or a full e-mail), on the overview. */
 export async function signedInPage(browser: Browser, who: string, viewport = { width: 1366, height: 900 }): Promise<Page> {
-  const context = await browser.newContext({ viewport });
+  // The theme follows the operating system's preference; these screens were written against dark.
+  const context = await browser.newContext({ viewport, colorScheme: "dark" });
   const page = await context.newPage();
   const signin = new SignInPage(page);
   await signin.open();

@@ -111,7 +111,7 @@ function SnippetButton({ snippet, label, testId }: { snippet: string; label: str
       </button>
       {open && (
         <div className="mt-1.5 space-y-1">
-          <pre className="max-w-xl overflow-x-auto rounded-md border border-line bg-raised px-2 py-1.5 font-mono text-xs text-ink" data-testid={`${testId}-snippet`}>
+          <pre tabIndex={0} className="max-w-xl overflow-x-auto rounded-md border border-line bg-raised px-2 py-1.5 font-mono text-xs text-ink" data-testid={`${testId}-snippet`}>
             {snippet}
           </pre>
           <p className="text-xs text-faint" role="status">
@@ -293,7 +293,7 @@ function NoTraces({ env }: { env: string }) {
           SDK&apos;s OTLP/HTTP exporter) at this environment, with an API token that has inventory:write (Admin → Tokens). It sends protobuf or JSON, gzip or not; spans
           are folded into calls between components as they arrive and never stored.
         </p>
-        <pre className="overflow-x-auto rounded-md border border-line bg-raised px-3 py-2 font-mono text-xs text-ink">
+        <pre tabIndex={0} className="overflow-x-auto rounded-md border border-line bg-raised px-3 py-2 font-mono text-xs text-ink">
           {`exporters:
   otlphttp/pinchpoint:
     endpoint: <this server>/api/v1/environments/${env}/otlp
@@ -301,7 +301,7 @@ function NoTraces({ env }: { env: string }) {
       Authorization: "Bearer \${env:PINCHPOINT_TOKEN}"`}
         </pre>
         <p>Or push a trace file (OTLP/JSON, or JSON Lines as the Collector&apos;s file exporter writes them) under a source name of your choice:</p>
-        <pre className="overflow-x-auto rounded-md border border-line bg-raised px-3 py-2 font-mono text-xs text-ink">
+        <pre tabIndex={0} className="overflow-x-auto rounded-md border border-line bg-raised px-3 py-2 font-mono text-xs text-ink">
           {`curl -X POST \
   -H "Authorization: Bearer $PINCHPOINT_TOKEN" \
   -H "Content-Type: application/json" \

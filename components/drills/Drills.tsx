@@ -218,7 +218,7 @@ export function Drills({ env }: { env: string }) {
                       {t.contact?.email && (
                         <>
                           {" · "}
-                          <a href={`mailto:${t.contact.email}`} className="text-info hover:underline">
+                          <a href={`mailto:${t.contact.email}`} className="text-info underline">
                             {t.contact.email}
                           </a>
                         </>

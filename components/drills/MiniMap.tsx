@@ -54,7 +54,7 @@ export function MiniMap({ env, failed, down, degraded, edges, undeclared }: { en
   const label = (ci: number) => (ci === 0 ? "failed" : layout.degradedSet.size && ci === layout.columns.length - 1 ? "degraded" : `down, wave ${ci}`);
   return (
     <div className="overflow-x-auto" data-testid="drill-minimap">
-      <svg width={layout.width} height={layout.height} role="img" aria-label={`Affected components in ${layout.columns.length} columns, from what failed to what it takes down`} className="text-[10px]">
+      <svg width={layout.width} height={layout.height} role="group" aria-label={`Affected components in ${layout.columns.length} columns, from what failed to what it takes down`} className="text-[10px]">
         {layout.shown.map((e) => {
           const a = layout.pos.get(e.to)!;
           const b = layout.pos.get(e.from)!;

@@ -176,7 +176,7 @@ function DiffView({ env, diff }: { env: string; diff: DiffResponse }) {
       </p>
       {empty && <p className="text-muted">The two snapshots hold the same graph.</p>}
       <Section title="Components added" count={diff.componentsAdded.length} tone="text-ok">
-        <ul className="max-h-48 space-y-0.5 overflow-auto">
+        <ul tabIndex={0} aria-label="Components added" className="max-h-48 space-y-0.5 overflow-auto">
           {diff.componentsAdded.map((c) => (
             <li key={c.key}>
               + {link(c.key)} <span className="text-xs text-muted">{c.kind === "undeclared" ? "undeclared" : `${c.kind}, ${c.team ?? "unowned"}, tier ${c.tier}`}</span>
@@ -185,7 +185,7 @@ function DiffView({ env, diff }: { env: string; diff: DiffResponse }) {
         </ul>
       </Section>
       <Section title="Components removed" count={diff.componentsRemoved.length} tone="text-down">
-        <ul className="max-h-48 space-y-0.5 overflow-auto">
+        <ul tabIndex={0} aria-label="Components removed" className="max-h-48 space-y-0.5 overflow-auto">
           {diff.componentsRemoved.map((c) => (
             <li key={c.key}>
               − <span className="font-mono">{c.key}</span> <span className="text-xs text-muted">{c.kind}, {c.team ?? "unowned"}</span>
@@ -194,7 +194,7 @@ function DiffView({ env, diff }: { env: string; diff: DiffResponse }) {
         </ul>
       </Section>
       <Section title="Components changed" count={diff.componentsChanged.length} tone="text-info">
-        <ul className="max-h-48 space-y-1 overflow-auto">
+        <ul tabIndex={0} aria-label="Components changed" className="max-h-48 space-y-1 overflow-auto">
           {diff.componentsChanged.map((c) => (
             <li key={c.key}>
               ~ {link(c.key)}
@@ -215,7 +215,7 @@ function DiffView({ env, diff }: { env: string; diff: DiffResponse }) {
         ] as const
       ).map(([title, lines, tone]) => (
         <Section key={title} title={title} count={lines.length} tone={tone}>
-          <ul className="max-h-48 space-y-0.5 overflow-auto font-mono text-xs text-muted">
+          <ul tabIndex={0} aria-label={title} className="max-h-48 space-y-0.5 overflow-auto font-mono text-xs text-muted">
             {lines.map((l) => (
               <li key={l}>{l}</li>
             ))}

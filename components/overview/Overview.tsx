@@ -146,7 +146,7 @@ export function Overview({ env }: { env: string }) {
       <div className="grid grid-cols-2 gap-3 md:grid-cols-5" aria-busy={environment.isLoading}>
         <Stat label="Components" value={counts?.components ?? "—"} hint={counts ? `${counts.dependencies} dependencies` : undefined} />
         <Stat label="Teams" value={counts?.teams ?? "—"} hint="owning at least one component" />
-        <Link href={`/teams?unowned_environment=${env}#unowned`} className="rounded-lg hover:ring-1 hover:ring-brass" aria-label={`Unowned: ${counts?.unowned ?? "…"} components in ${env} with no team — open the list to claim them`}>
+        <Link href={`/teams?unowned_environment=${env}#unowned`} className="rounded-lg hover:ring-1 hover:ring-brass" data-testid="unowned-tile">
           <Stat label="Unowned" value={counts?.unowned ?? "—"} tone={counts && counts.unowned > 0 ? "degraded" : "ink"} hint={<>declared with no team: nobody to page. <span className="text-brass underline">Claim them</span></>} />
         </Link>
         <Stat label="Undeclared" value={counts?.undeclared ?? "—"} tone={counts && counts.undeclared > 0 ? "degraded" : "ink"} hint="needed by something, declared by no source" />

@@ -111,7 +111,8 @@ export function PinchPoints({ env, canDecide = false }: { env: string; canDecide
                   <Link
                     href={`/environments/${env}/reviews?decide=${encodeURIComponent(r.key)}#decide`}
                     className="whitespace-nowrap text-xs text-info hover:underline"
-                    aria-label={`Record a risk decision on ${r.key}`}
+                    aria-label={`decide on ${r.key}`}
+                    title="Record a risk decision on it"
                   >
                     decide →
                   </Link>

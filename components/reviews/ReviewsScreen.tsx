@@ -106,13 +106,13 @@ export function ReviewsScreen({ env, canWrite, canReadAudit, queueViewer }: { en
           </h1>
           <p className="mt-1 text-sm text-muted">
             What architects decided about each pinch point, and when to look again.{" "}
-            <Link className="text-brass hover:underline" href={`/environments/${env}/pinch-points`}>
+            <Link className="text-brass underline" href={`/environments/${env}/pinch-points`}>
               Pinch points
             </Link>
             {canReadAudit && (
               <>
                 {" · "}
-                <Link className="text-brass hover:underline" href={`/admin/audit?environment=${env}&action=review`}>
+                <Link className="text-brass underline" href={`/admin/audit?environment=${env}&action=review`}>
                   Review history
                 </Link>
               </>

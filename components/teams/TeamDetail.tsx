@@ -94,8 +94,9 @@ function Members({ team, isAdmin, onChanged }: { team: TeamDetailData; isAdmin: 
             </div>
             {isAdmin && (
               <div className="flex gap-1">
-                <Button variant="ghost" onClick={() => void run(sendJson(teamMemberSchema, `/api/v1/teams/${team.slug}/members`, "POST", { email: m.email, lead: !m.isLead }))} aria-label={m.isLead ? `Make ${m.name} no longer lead` : `Make ${m.name} lead`}>
-                  {m.isLead ? "Not lead" : "Make lead"}
+                <Button variant="ghost" onClick={() => void run(sendJson(teamMemberSchema, `/api/v1/teams/${team.slug}/members`, "POST", { email: m.email, lead: !m.isLead }))}>
+                  {/* Named per row ("Make Noor Harbison lead"), read the same as it is seen. */}
+                  {m.isLead ? <>Not lead<span className="sr-only">: {m.name}</span></> : <>Make <span className="sr-only">{m.name} </span>lead</>}
                 </Button>
                 <Button variant="danger" onClick={() => void run(sendJson(memberRemovedSchema, `/api/v1/teams/${team.slug}/members/${m.userId}`, "DELETE"))} aria-label={`Remove ${m.email}`}>
                   Remove

@@ -91,7 +91,7 @@ describe("the five jobs, from the overview", () => {
     await expect.poll(() => page.getByRole("button", { name: /^PageRank/ }).count()).toBe(1);
     expect(await page.getByRole("link", { name: "Pinch-score weights" }).getAttribute("href")).toBe("/environments/production/reviews#weights");
     const key = expected.items[0]!.key;
-    await page.getByRole("link", { name: `Record a risk decision on ${key}` }).click();
+    await page.getByRole("link", { name: `decide on ${key}` }).click();
     await page.waitForURL((u) => u.pathname.endsWith("/reviews") && u.searchParams.get("decide") === key);
     const form = page.getByRole("form", { name: "Review a pinch point" });
     const field = form.getByLabel(/^Component/);
@@ -109,7 +109,7 @@ describe("the five jobs, from the overview", () => {
   it("lead: what nobody owns in production, claimed for my team, with an undo", async () => {
     const page = await signedIn("lead");
     const done = timed("lead");
-    await page.getByRole("link", { name: /^Unowned: \d+ components in production/ }).click();
+    await page.getByTestId("unowned-tile").click();
     await page.waitForURL((u) => u.pathname === "/teams");
     const count = page.getByTestId("unowned-count");
     await count.waitFor({ timeout: 15_000 });

@@ -35,7 +35,7 @@ export function DownSearch({ env }: { env: string }) {
       }}
     >
       <label htmlFor={id} className="sr-only">
-        What is down? Component keys, separated by commas
+        What is down? Keys separated by commas
       </label>
       <input
         id={id}

@@ -25,8 +25,9 @@ export function EnvironmentSwitcher({ env }: { env: string }) {
   const scratch = items.filter((e) => isScratchEnvironment(e.slug));
   const known = items.some((e) => e.slug === env);
   return (
-    <label className="flex items-center gap-1.5 text-xs text-muted">
-      <span className="sr-only lg:not-sr-only">Environment</span>
+    // "Env", not "Environment": the screens' own environment filters keep that word to themselves.
+    <label className="flex items-center gap-1.5 text-xs text-muted" title="The environment every screen shows">
+      <span>Env</span>
       <select
         value={env}
         onChange={(e) => router.push(pathInEnvironment(path, env, e.target.value))}

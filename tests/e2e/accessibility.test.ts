@@ -89,7 +89,7 @@ describe("accessibility (axe-core): no serious or critical violation", () => {
         await page.waitForTimeout(300);
         for (const v of (await axe(page)).filter((x) => !OWNED_ELSEWHERE.has(`${screen} ${x.id}`))) found.push(`${screen} [${theme}] ${v.impact} ${v.id}: ${v.help} — ${v.nodes.slice(0, 3).map((n) => n.target.join(" ")).join(", ")}`);
       }
-      console.log(`[axe] ${SCREENS.length} screens in the ${theme} theme: ${found.length} serious or critical violations`);
+      console.log(`[axe] ${SCREENS.length} screens in the ${theme} theme: ${found.length} serious or critical violations${found.map((f) => `\n  ${f}`).join("")}`);
       expect(found).toEqual([]);
     }, 300_000);
   }

@@ -29,7 +29,7 @@ describe("drills", () => {
   it("fails dns-resolver picked from the searchable list; more than 100 components go down", async () => {
     const box = page.getByRole("combobox", { name: "Components to fail" });
     await box.fill("dns-res");
-    await expect.poll(() => page.getByRole("option").first().textContent()).toContain("dns-resolver");
+    await expect.poll(() => page.getByRole("listbox", { name: "Components to fail: matches" }).getByRole("option").first().textContent()).toContain("dns-resolver");
     await box.press("Enter");
     await page.waitForURL((u) => u.searchParams.get("fail") === "dns-resolver");
     await expect.poll(() => downCount(page), { timeout: 15_000 }).toBeGreaterThan(100);

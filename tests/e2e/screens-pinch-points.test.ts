@@ -37,7 +37,7 @@ describe("pinch points", () => {
 
   it("sorts by a header click and keeps the sort in the URL", async () => {
     // PageRank is one of the raw measures shown on request.
-    await page.getByLabel(/^All measures/).check();
+    await page.getByLabel(/^All measures/).click();
     await page.getByRole("button", { name: /^PageRank/ }).click();
     await page.waitForURL((u) => u.searchParams.get("sort") === "pagerank" && u.searchParams.get("order") === "desc");
     const expected = await api(page, "/api/v1/environments/production/rankings?sort=pagerank&order=desc&limit=1");

@@ -18,8 +18,6 @@ type Handler = Parameters<typeof call>[0];
 
 const API = path.resolve(__dirname, "../../app/api/v1");
 const ids: Record<string, string> = { env: "production", key: "dns-resolver", slug: "checkout", a: "1", b: "2", number: "1" };
-// The GETs that answer 422 without their required query (examples/harbor-pantry/checkout.yaml: cart-service needs dns-resolver).
-const requiredQuery: Record<string, string> = { "/environments/{env}/chain": "?from=cart-service&to=dns-resolver" };
 
 async function handlerOf(p: string, method: Method): Promise<Handler> {
   const file = path.join(API, p.replace(/\{(\w+)\}/g, "[$1]"), "route.ts");

@@ -109,7 +109,7 @@ function columns(currentUserId: string, update: (u: AdminUser, body: { role?: Ro
         return (
           <span className="inline-flex items-center gap-2">
             {(u.status === "invited" || u.status === "invite-expired") && (
-              <Button type="button" onClick={() => void reissue(u)} aria-label={`New invitation link for ${u.email}`}>
+              <Button type="button" onClick={() => void reissue(u)} aria-label={`New link for ${u.email}`}>
                 New link
               </Button>
             )}

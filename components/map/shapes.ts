@@ -2,12 +2,7 @@
 // Each kind also carries a text label on the node, so shape is never the only cue.
 import type { ComponentKind } from "@/lib/inventory/types";
 
-export const NODE_W = 184;
-export const NODE_H = 60;
-export const TEAM_NODE_W = 220;
-export const TEAM_NODE_H = 76;
-/** Space above a team group's children for its title bar. */
-export const GROUP_HEADER = 34;
+export { GROUP_HEADER, NODE_H, NODE_W, TEAM_NODE_H, TEAM_NODE_W } from "@/lib/map/elk";
 
 export interface ShapePaths {
   /** outline, filled and stroked */

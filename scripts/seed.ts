@@ -4,6 +4,7 @@ import { closeDb } from "../models";
 import { migrateToLatest } from "../models/migrate";
 import { db } from "../models";
 import { drainAnalysisQueue } from "../lib/jobs/analysis";
+import { drainMapLayoutQueue } from "../lib/jobs/map-layout";
 import { seedDemo } from "../lib/data/seed";
 import { closeParsePool } from "../importers/off-thread";
 
@@ -16,6 +17,9 @@ async function main() {
   let ran = 0;
   await seedDemo({ examplesDir: path.resolve(__dirname, "../examples/harbor-pantry"), afterPush: async () => (ran += await drainAnalysisQueue()) });
   if (ran) console.log(`[seed] analysed ${ran} snapshot(s)`);
+  // The demo map opens on stored layouts at once, without waiting for the worker.
+  const laid = await drainMapLayoutQueue();
+  if (laid) console.log(`[seed] laid out the map of ${laid} snapshot(s)`);
 }
 
 main()

@@ -54,7 +54,7 @@ import {
   resolveIncidentSchema,
 } from "./schemas/incidents";
 import { pushQuerySchema, pushResultSchema } from "./schemas/inventory";
-import { mapGraphSchema, positionsResponseSchema, positionsSchema } from "./schemas/map";
+import { mapGraphSchema, mapLayoutsResponseSchema, positionsResponseSchema, positionsSchema } from "./schemas/map";
 import { policiesViewSchema } from "./schemas/policies";
 import {
   auditPageSchema,
@@ -150,6 +150,9 @@ export const OPERATIONS: Record<string, Partial<Record<Method, Operation>>> = {
   "/environments/{env}/drift": { get: { summary: "Traced calls against declared needs: seen but never declared, declared but never seen, each list paged, sorted and filtered with its own prefixed parameters (seen_…, declared_…)", rule: "read", response: driftResponseSchema, query: driftQuerySchema } },
   "/environments/{env}/boot-order": { get: { summary: "Cold-start stages (start-up-only needs included); cycles that cannot start unaided, each with a start order and the needs to break first", rule: "read", response: z.union([bootOrderResponseSchema, bootCyclesResponseSchema]), query: bootOrderQuerySchema } },
   "/environments/{env}/graph": { get: { summary: "Components, dependencies and measures for the map", rule: "read", response: mapGraphSchema } },
+  "/environments/{env}/map/layouts": {
+    get: { summary: "Map layouts of the map's snapshot, computed by the worker after each analysis, per view (teams, grouped, flat, team:<slot>)", rule: "read", response: mapLayoutsResponseSchema },
+  },
   "/environments/{env}/map/positions": {
     get: { summary: "Pinned map positions", rule: "read", response: positionsResponseSchema },
     put: { summary: "Replace pinned map positions", rule: "components:annotate", response: positionsResponseSchema, body: positionsSchema },

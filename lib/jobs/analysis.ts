@@ -21,7 +21,7 @@ import {
   type AnalysisJobData,
   type ClaimedRun,
 } from "@/lib/data/analysis-runs";
-import { fetchJobs, QUEUES, analysisTimeoutS } from "@/lib/data/job-queue";
+import { fetchJobs, QUEUES, analysisTimeoutS, sendJob } from "@/lib/data/job-queue";
 
 export const workerId = () => `${hostname()}:${process.pid}`;
 
@@ -85,6 +85,13 @@ export async function runJob(run: ClaimedRun, worker = workerId(), options: Anal
     const outcome = await storeResult({ run, worker, content: input.content, result });
     // Tell owners and architects about components new to the top ten (compared with the previous analysed snapshot).
     if (outcome === "done") await noticeTopTenChanges({ environmentId: run.environment_id, snapshotId: run.snapshot_id, previousSnapshotId: null });
+    // The map's layouts of this snapshot, computed once off the browser (lib/jobs/map-layout.ts). A
+    // lost job only means the browser lays the map out itself.
+    if (outcome === "done") {
+      await sendJob(QUEUES.mapLayout, { snapshotId: run.snapshot_id, environmentId: run.environment_id }).catch((error: unknown) =>
+        console.error("[analysis] could not queue the map layout:", error instanceof Error ? error.message : error),
+      );
+    }
     return outcome;
   } catch (error) {
     // A thread past its time is ended (the next job starts a fresh one).

@@ -10,6 +10,7 @@ import { stopAnalysisThread } from "@/lib/analysis/thread";
 import { claimNextJob, runJob, workerId } from "./analysis";
 import { deliverDueMail } from "./mail";
 import { startSchedules } from "./schedules";
+import { startMapLayouts } from "./map-layout";
 
 const POLL_MS = () => Number(process.env.PINCHPOINT_WORKER_POLL_MS ?? 500);
 /** How often traces' waiting calls are swept and changed observed sets taken into the graph. */
@@ -70,6 +71,7 @@ export async function runWorker({ signal }: { signal: AbortSignal }): Promise<vo
 
   await startJobQueue();
   await startSchedules();
+  await startMapLayouts();
   console.log(`[worker] ${id} waiting for jobs`);
 
   const traces = every(TRACE_TICK_MS, signal, async () => {

@@ -13,6 +13,7 @@ import * as m0011 from "./0011-sessions-and-workers";
 import * as m0012 from "./0012-incidents";
 import * as m0013 from "./0013-analysis-results";
 import * as m0014 from "./0014-job-queue";
+import * as m0015 from "./0015-map-layouts";
 
 export const MIGRATIONS = [
   { name: "0001-initial", ...m0001 },
@@ -29,4 +30,5 @@ export const MIGRATIONS = [
   { name: "0012-incidents", ...m0012 },
   { name: "0013-analysis-results", ...m0013 },
   { name: "0014-job-queue", ...m0014 },
+  { name: "0015-map-layouts", ...m0015 },
 ];

@@ -31,6 +31,7 @@ const MATRIX: Record<string, Partial<Record<"GET" | "POST" | "PUT" | "PATCH" | "
   "environments/[env]/imports": { GET: "read" },
   "environments/[env]/inventory": { POST: "inventory:write" },
   "environments/[env]/otlp/v1/traces": { POST: "inventory:write" },
+  "environments/[env]/map/layouts": { GET: "read" },
   "environments/[env]/map/positions": { GET: "read", PUT: "components:annotate" },
   "environments/[env]/rankings": { GET: "read" },
   "environments/[env]/rankings/export": { GET: "read" },

@@ -75,3 +75,21 @@ export type MapMetrics = z.infer<typeof mapMetricsSchema>;
 export type MapNode = z.infer<typeof mapNodeSchema>;
 export type MapEdge = z.infer<typeof mapEdgeSchema>;
 export type MapGraph = z.infer<typeof mapGraphSchema>;
+
+const boxSchema = z.object({ x: z.number(), y: z.number(), width: z.number(), height: z.number() });
+/** One stored view: absolute boxes per node id and edge routes per edge id (lib/map/estate.ts). */
+export const storedViewSchema = z.object({
+  boxes: z.record(z.string(), boxSchema),
+  routes: z.record(z.string(), z.array(z.object({ x: z.number(), y: z.number() }))),
+  width: z.number(),
+  height: z.number(),
+});
+
+/** GET …/map/layouts: the layouts the worker stored for the map's snapshot (views empty until it has). */
+export const mapLayoutsResponseSchema = z.object({
+  snapshot: z.object({ number: z.number().int() }).nullable(),
+  /** how long the worker took to lay out every view */
+  computedMs: z.number().int().nullable(),
+  views: z.record(z.string(), storedViewSchema),
+});
+export type MapLayoutsResponse = z.infer<typeof mapLayoutsResponseSchema>;

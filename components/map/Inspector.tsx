@@ -98,6 +98,10 @@ export interface InspectorProps {
   onClose?(): void;
   /** shown under the key, e.g. the component's risk-review status */
   badge?: ReactNode;
+  /** "why does this need …?": show the chain from this component to `target` on the map */
+  onWhy?(target: string): void;
+  /** keys offered as targets of "why does this need …?" */
+  allKeys?: readonly string[];
 }
 
 /** Needs and dependents of a key, for the Inspector's props. */
@@ -112,6 +116,32 @@ export function inspectorLinks(graph: MapGraph, key: string): { needs: MapNode[]
   const resolve = (keys: Set<string>) =>
     [...keys].flatMap((k) => byKey.get(k) ?? []).sort((a, b) => a.key.localeCompare(b.key));
   return { needs: resolve(needs), dependents: resolve(dependents) };
+}
+
+/** "Why does this need …?": pick a target; the map then highlights the chain of needs (?chain=from,to). */
+function WhyNeeds({ node, keys, onWhy }: { node: MapNode; keys: readonly string[]; onWhy(target: string): void }) {
+  const [target, setTarget] = useState("");
+  const listId = `why-${node.key}`;
+  return (
+    <form
+      className="mt-3 flex items-center gap-1"
+      aria-label={`Why does ${node.key} need another component`}
+      onSubmit={(e) => {
+        e.preventDefault();
+        const t = target.trim();
+        if (t && t !== node.key) onWhy(t);
+      }}
+    >
+      <label htmlFor={`${listId}-input`} className="shrink-0 text-sm text-muted">
+        Why does it need
+      </label>
+      <input id={`${listId}-input`} list={listId} value={target} onChange={(e) => setTarget(e.target.value)} placeholder="key…" className="min-w-0 flex-1 rounded border border-line bg-raised px-2 py-0.5 font-mono text-sm" />
+      <datalist id={listId}>{keys.length <= 5000 ? keys.map((k) => <option key={k} value={k} />) : null}</datalist>
+      <button type="submit" className="pp-btn" aria-label="Show the chain of needs on the map">
+        ?
+      </button>
+    </form>
+  );
 }
 
 function LinkList(props: { title: string; items: MapNode[]; onSelect?(key: string): void }) {
@@ -236,6 +266,8 @@ export function Inspector(props: InspectorProps) {
           <p className="mt-1 text-sm text-faint">Not analysed yet for this snapshot.</p>
         )}
       </section>
+
+      {props.onWhy ? <WhyNeeds node={node} keys={props.allKeys ?? []} onWhy={props.onWhy} /> : null}
 
       <LinkList title="Needs" items={props.needs} onSelect={props.onSelect} />
       <LinkList title="Dependents" items={props.dependents} onSelect={props.onSelect} />

@@ -1,48 +1,28 @@
 "use client";
-// The dependency map: React Flow canvas over an ELK layout computed in a worker.
+// The dependency map: React Flow canvas over positions the worker stored for the snapshot
+// (lib/map/estate.ts composes any team-grouped view from them), or over an ELK layout computed in a
+// web worker for what only the browser knows (a filter, a focus, a chain).
 import "@xyflow/react/dist/style.css";
 import "./map.css";
-import {
-  Background,
-  BackgroundVariant,
-  Controls,
-  MarkerType,
-  MiniMap,
-  Panel,
-  ReactFlow,
-  ReactFlowProvider,
-  applyNodeChanges,
-  useReactFlow,
-  type NodeChange,
-} from "@xyflow/react";
-import { useCallback, useEffect, useId, useMemo, useRef, useState, useSyncExternalStore, type KeyboardEvent, type ReactNode } from "react";
-import { COMPONENT_KINDS, TIERS, type ComponentKind, type Tier } from "@/lib/inventory/types";
+import { Background, BackgroundVariant, Controls, MarkerType, MiniMap, Panel, ReactFlow, ReactFlowProvider, applyNodeChanges, useReactFlow, useStore, type NodeChange } from "@xyflow/react";
+import { useCallback, useEffect, useId, useMemo, useRef, useState, useSyncExternalStore, type CSSProperties, type ReactNode } from "react";
 import { GraphViewBadge } from "@/components/analysis/SnapshotMeta";
-import { buildLegend, buildPalette, MODE_LABELS, paintNode, UNDECLARED, type Legend } from "./colour";
-import { DEFAULT_EXPORT_THEME, downloadBlob, kindSubtitle, renderSvg, svgToPng, type ExportEdge, type ExportNode, type ExportTheme } from "./export";
+import type { ChainResponse } from "@/lib/api/schemas/analysis";
+import { TEAM_VIEW_ABOVE, bundleHubs, composeStored, type StoredViews } from "@/lib/map/estate";
+import { buildLegend, buildPalette, MODE_LABELS, OKABE_ITO, paintNode, UNDECLARED } from "./colour";
+import { downloadBlob, svgToPng } from "./export";
+import { buildExport, exportTheme, titleBlockFor, type ExportBackground } from "./export-view";
 import { Inspector, inspectorLinks } from "./Inspector";
-import { arrowDir, nextSelection } from "./keyboard";
-import { toFlow, type Box, type MapFlowEdge, type MapFlowNode } from "./layout";
-import { PHASE_LABEL } from "./layout-protocol";
-import { edgeTypes, nodeTypes, DecorContext, type Decor, type IncidentMark } from "./nodes";
-import { KIND_LABEL, NODE_H, NODE_W, shapePaths } from "./shapes";
+import { toFlow, type MapFlowEdge, type MapFlowNode } from "./layout";
+import { LayoutStatus } from "./LayoutStatus";
+import { FilterMenu } from "./MapFilters";
+import { LegendPanel } from "./MapLegend";
+import { edgeTypes, nodeTypes, DecorContext, type Decor, type IncidentMark, type TeamStats } from "./nodes";
+import { KIND_LABEL } from "./shapes";
 import { COLOUR_MODES, type ColourMode, type MapGraph, type PinnedPositions, type Position } from "./types";
 import { useElkLayout } from "./useElkLayout";
-import {
-  DENSE_TEAM_VIEW_EDGES,
-  FULL_LAYOUT_LIMIT,
-  PINCH_VIEW_SIZE,
-  NO_FILTERS,
-  buildAdjacency,
-  groupSelection,
-  selectComponents,
-  teamName,
-  teamSlotOf,
-  teamSlots,
-  type GroupingSpec,
-  type MapFilters,
-  type Selection,
-} from "./view";
+import { useMapKeyboard } from "./useMapKeyboard";
+import { NO_FILTERS, buildAdjacency, groupSelection, selectComponents, teamName, teamSlotOf, teamSlots, type GroupingSpec, type MapFilters, type Selection } from "./view";
 
 export interface MapCanvasProps {
   graph: MapGraph;
@@ -56,6 +36,11 @@ export interface MapCanvasProps {
   renderInspector?(key: string): ReactNode;
   /** An incident drawn over the map (components/incidents): each marked component's role. */
   marks?: ReadonlyMap<string, IncidentMark>;
+  /** Positions the worker stored for this snapshot (GET …/map/layouts); null while none. */
+  stored?: StoredViews | null;
+  /** "Why does A need B" (`?chain=a,b`): the chain to highlight. */
+  chain?: ChainResponse | null;
+  onClearChain?(): void;
 }
 
 export function MapCanvas(props: MapCanvasProps) {
@@ -77,38 +62,25 @@ function useDataTheme(): "dark" | "light" {
   return useSyncExternalStore(subscribeTheme, readTheme, () => "dark");
 }
 
-/** Toggle one value in a filter set where null means "all of the universe". */
-function toggleIn<T>(current: ReadonlySet<T> | null, value: T, universe: readonly T[]): ReadonlySet<T> | null {
-  const next = new Set(current ?? universe);
-  if (next.has(value)) next.delete(value);
-  else next.add(value);
-  return universe.every((u) => next.has(u)) ? null : next;
-}
+/** Above this many nodes on the canvas the overview (minimap) starts hidden: it shows specks, and covers nodes. */
+const MINIMAP_OFF_ABOVE = 120;
 
-function readExportTheme(): ExportTheme {
-  const css = getComputedStyle(document.documentElement);
-  const v = (name: string, fallback: string) => css.getPropertyValue(name).trim() || fallback;
-  const d = DEFAULT_EXPORT_THEME;
-  return {
-    canvas: v("--pp-canvas", d.canvas),
-    surface: v("--pp-surface", d.surface),
-    line: v("--pp-line", d.line),
-    ink: v("--pp-ink", d.ink),
-    muted: v("--pp-muted", d.muted),
-    brass: v("--pp-brass", d.brass),
-    info: v("--pp-info", d.info),
-    cycle: d.cycle,
-    undeclared: d.undeclared,
-  };
+/**
+ * Semantic zoom: how much component labels grow as the map zooms out, so that a key stays about
+ * 11 px on screen (common practice for small labels); the subtitle and badges go at "far".
+ */
+function useZoomStyle(): { style: CSSProperties; level: "far" | "mid" | "near" } {
+  const zoom = useStore((s) => s.transform[2]);
+  const scale = Math.min(2.8, Math.max(1, 0.85 / Math.max(zoom, 0.05)));
+  return { style: { ["--pp-label-scale" as string]: scale.toFixed(2) }, level: zoom < 0.5 ? "far" : zoom < 0.85 ? "mid" : "near" };
 }
-
-const ALL_KINDS: readonly ComponentKind[] = [...COMPONENT_KINDS, "undeclared"];
 
 function MapCanvasInner(props: MapCanvasProps) {
   const { graph, canEdit } = props;
   const rf = useReactFlow<MapFlowNode, MapFlowEdge>();
   const theme = useDataTheme();
   const ids = useId();
+  const zoom = useZoomStyle();
 
   const [colourMode, setColourMode] = useState<ColourMode>(props.colour ?? "betweenness");
   const [filters, setFilters] = useState<MapFilters>(NO_FILTERS);
@@ -119,15 +91,17 @@ function MapCanvasInner(props: MapCanvasProps) {
     setFocusKey(props.focus ?? null);
   }
   const [hops, setHops] = useState(2);
-  /** null = automatic: flat, or teams collapsed when the view is too big to lay out at once */
+  /** null = automatic: the team-to-team view above TEAM_VIEW_ABOVE components, else flat */
   const [grouping, setGrouping] = useState<GroupingSpec | null>(null);
-  const [layoutAll, setLayoutAll] = useState(false);
   const [selected, setSelected] = useState<string | null>(null);
   const [inspecting, setInspecting] = useState<string | null>(null);
+  const [openHub, setOpenHub] = useState<string | null>(null);
   const [search, setSearch] = useState("");
   const [notice, setNotice] = useState<string | null>(null);
   const [localPins, setLocalPins] = useState<PinnedPositions>({});
   const [pinsCleared, setPinsCleared] = useState(false);
+  const [showMinimap, setShowMinimap] = useState<boolean | null>(null);
+  const [exportBg, setExportBg] = useState<ExportBackground | null>(null);
   const [pinnedProp, setPinnedProp] = useState(props.pinned);
   if (props.pinned !== pinnedProp) {
     setPinnedProp(props.pinned);
@@ -138,35 +112,39 @@ function MapCanvasInner(props: MapCanvasProps) {
   const slots = useMemo(() => teamSlots(graph), [graph]);
   const teamNames = useMemo(() => new Map(slots.map((s) => [s, teamName(graph, s)])), [graph, slots]);
   const byKey = useMemo(() => new Map(graph.nodes.map((n) => [n.key, n])), [graph]);
+  const allKeys = useMemo(() => graph.nodes.map((n) => n.key), [graph]);
 
-  const allCollapsed = useMemo(() => new Set(slots), [slots]);
+  // The chain asked about replaces the view: its components, in order, and the needs between them.
+  const chainPath = props.chain?.path ?? null;
+  const chainSets = useMemo(() => {
+    if (!chainPath) return null;
+    const edges = new Set<string>();
+    for (let i = 1; i < chainPath.length; i++) edges.add(`${chainPath[i - 1]}->${chainPath[i]}`);
+    return { nodes: new Set(chainPath), edges };
+  }, [chainPath]);
+
   const requestedFocus = useMemo(() => (focusKey ? { key: focusKey, hops } : null), [focusKey, hops]);
-  const requestedSelection = useMemo(() => selectComponents(graph, filters, requestedFocus), [graph, filters, requestedFocus]);
-  // Too big to lay out, and even the team view too dense (teams that all need each other): open on
-  // the components with the highest betweenness and the links among them instead, and say so.
-  const denseFallback = useMemo(() => {
-    if (focusKey || grouping !== null || layoutAll || requestedSelection.nodes.length <= FULL_LAYOUT_LIMIT) return null;
-    const teamView = groupSelection(graph, requestedSelection, { byTeam: true, collapsed: allCollapsed });
-    if (teamView.edges.length <= DENSE_TEAM_VIEW_EDGES) return null;
-    const top = [...requestedSelection.nodes]
-      .sort((a, b) => (b.metrics?.betweenness ?? 0) - (a.metrics?.betweenness ?? 0) || a.key.localeCompare(b.key))
-      .slice(0, PINCH_VIEW_SIZE);
-    const keep = new Set(top.map((n) => n.key));
-    const selection: Selection = { nodes: top, edges: requestedSelection.edges.filter((e) => keep.has(e.from) && keep.has(e.to)), focus: null };
-    return { selection, teamEdges: teamView.edges.length };
-  }, [focusKey, grouping, layoutAll, requestedSelection, graph, allCollapsed]);
-  const selection = denseFallback?.selection ?? requestedSelection;
-  const tooBig = selection.nodes.length > FULL_LAYOUT_LIMIT;
-  const autoCollapsed = grouping === null && tooBig && !layoutAll;
+  const selection: Selection = useMemo(() => {
+    if (chainSets) {
+      return { nodes: graph.nodes.filter((n) => chainSets.nodes.has(n.key)), edges: graph.edges.filter((e) => chainSets.edges.has(`${e.from}->${e.to}`)), focus: null };
+    }
+    return selectComponents(graph, filters, requestedFocus);
+  }, [graph, filters, requestedFocus, chainSets]);
+  const autoTeams = grouping === null && !chainSets && !selection.focus && selection.nodes.length > TEAM_VIEW_ABOVE;
   const effGrouping: GroupingSpec = useMemo(
-    () => grouping ?? (autoCollapsed ? { byTeam: true, collapsed: allCollapsed } : { byTeam: false, collapsed: new Set<string>() }),
-    [grouping, autoCollapsed, allCollapsed],
+    () => grouping ?? (autoTeams ? { byTeam: true, collapsed: new Set(slots) } : { byTeam: false, collapsed: new Set<string>() }),
+    [grouping, autoTeams, slots],
   );
-  const view = useMemo(() => groupSelection(graph, selection, effGrouping), [graph, selection, effGrouping]);
-  const layout = useElkLayout(view);
+  const bundled = useMemo(() => bundleHubs(groupSelection(graph, selection, effGrouping)), [graph, selection, effGrouping]);
+  const view = bundled.view;
+  const hubs = bundled.hubs;
+
+  // Stored positions when they cover this view (no filter, focus or chain); else ELK in the browser.
+  const fromStore = useMemo(() => (filters === NO_FILTERS && !selection.focus && !chainSets ? composeStored(view, props.stored ?? null) : null), [filters, selection.focus, chainSets, view, props.stored]);
+  const layout = useElkLayout(fromStore ? null : view);
 
   const pins = useMemo(() => (pinsCleared ? localPins : { ...(props.pinned ?? {}), ...localPins }), [pinsCleared, localPins, props.pinned]);
-  const laid = layout.status === "done" ? layout.result : null;
+  const laid = fromStore ?? (layout.status === "done" ? layout.result : null);
   const flow = useMemo(() => (laid ? { ...toFlow(view, laid, pins), boxes: laid.boxes } : null), [laid, view, pins]);
 
   // React Flow needs its own node state for dragging; reset it whenever a new layout arrives.
@@ -207,9 +185,23 @@ function MapCanvasInner(props: MapCanvasProps) {
 
   const palette = useMemo(() => buildPalette(graph.nodes, colourMode, slots), [graph.nodes, colourMode, slots]);
   const legend = useMemo(() => buildLegend(palette, teamNames), [palette, teamNames]);
+  const teamStats = useMemo(() => {
+    const stats = new Map<string, TeamStats>();
+    for (const n of graph.nodes) {
+      const slot = teamSlotOf(n);
+      const s = stats.get(slot) ?? { count: 0, worstPinch: null, singlePoints: 0 };
+      s.count += 1;
+      if (n.metrics) {
+        s.worstPinch = Math.max(s.worstPinch ?? 0, n.metrics.pinchScore);
+        if ((n.replicas <= 1 || n.zones.length < 2) && n.metrics.blastDown > 0) s.singlePoints += 1;
+      }
+      stats.set(slot, s);
+    }
+    return stats;
+  }, [graph.nodes]);
   const decor: Decor = useMemo(
-    () => ({ palette, teamNames, selected, focus: selection.focus, onToggleTeam: toggleTeam, marks: props.marks }),
-    [palette, teamNames, selected, selection.focus, toggleTeam, props.marks],
+    () => ({ palette, teamNames, selected, focus: selection.focus, onToggleTeam: toggleTeam, marks: props.marks, hubs, onOpenHub: setOpenHub, chain: chainSets, teamStats }),
+    [palette, teamNames, selected, selection.focus, toggleTeam, props.marks, hubs, chainSets, teamStats],
   );
 
   // Absolute centres of navigable nodes, for keyboard movement and centring.
@@ -246,19 +238,19 @@ function MapCanvasInner(props: MapCanvasProps) {
       else if (node) {
         const out = viewAdjacency.out.get(id)?.length ?? 0;
         const inn = viewAdjacency.in.get(id)?.length ?? 0;
-        setAnnouncement(`${node.name}, ${KIND_LABEL[node.kind]}, ${teamNames.get(teamSlotOf(node)) ?? ""}. Needs ${out}, dependents ${inn} on the map.`);
+        setAnnouncement(`${node.key} (${node.name}), ${KIND_LABEL[node.kind]}, ${teamNames.get(teamSlotOf(node)) ?? ""}. Needs ${out}, dependents ${inn} on the map.`);
       } else setAnnouncement(`Team ${id.replace(/^team:/, "")}, collapsed. Enter expands it.`);
     },
     [byKey, props, teamNames, viewAdjacency],
   );
 
-  // After a new layout: centre a component asked for by search, else fit the whole view.
+  // After a new layout: centre a component asked for by search, else fit the view at a zoom where labels still read.
   useEffect(() => {
     if (!shownFlow) return;
     const frame = requestAnimationFrame(() => {
       const want = pendingCentre.current;
       if (want && centreOn(want)) pendingCentre.current = null;
-      else void rf.fitView({ padding: 0.08, duration: 200 });
+      else void rf.fitView({ padding: 0.08, duration: 200, minZoom: 0.3 });
     });
     return () => cancelAnimationFrame(frame);
     // centreOn changes with every drag; only a new layout should re-fit.
@@ -305,31 +297,7 @@ function MapCanvasInner(props: MapCanvasProps) {
     if (partial.length > 1) setNotice(`${partial.length} components match; showing ${hit.key}.`);
   }
 
-  function onKeyDown(e: KeyboardEvent<HTMLDivElement>) {
-    if (e.target !== e.currentTarget && (e.target as HTMLElement).closest("button, input, select, textarea")) return;
-    const dir = arrowDir(e.key);
-    if (dir) {
-      e.preventDefault();
-      const next = nextSelection({ current: selected, dir, positions: centres, adjacency: viewAdjacency });
-      if (next) {
-        select(next);
-        centreOn(next);
-      }
-      return;
-    }
-    if (e.key === "Enter" && selected) {
-      e.preventDefault();
-      const teamItem = view.items.find((i) => i.id === selected && i.type === "team");
-      if (teamItem && teamItem.type === "team") toggleTeam(teamItem.team);
-      else setInspecting(selected);
-      return;
-    }
-    if (e.key === "Escape") {
-      e.preventDefault();
-      if (inspecting) setInspecting(null);
-      else select(null);
-    }
-  }
+  const onKeyDown = useMapKeyboard({ selected, inspecting, centres, adjacency: viewAdjacency, view, select, centreOn, toggleTeam, setInspecting });
 
   function onDragStop(id: string, position: Position, parentId: string | undefined) {
     if (parentId || !byKey.has(id)) return;
@@ -345,40 +313,10 @@ function MapCanvasInner(props: MapCanvasProps) {
   }
 
   function exportView(format: "svg" | "png") {
-    const boxes = new Map<string, Box>();
-    for (const n of rfNodes) {
-      const parent = n.parentId ? boxes.get(n.parentId) : undefined;
-      boxes.set(n.id, { x: n.position.x + (parent?.x ?? 0), y: n.position.y + (parent?.y ?? 0), width: n.width ?? 0, height: n.height ?? 0 });
-    }
-    const nodes: ExportNode[] = [];
-    const groups = [];
-    for (const n of rfNodes) {
-      const box = boxes.get(n.id);
-      if (!box) continue;
-      if (n.type === "teamGroup") groups.push({ box, title: `${n.data.group.name} (${n.data.group.memberCount})` });
-      else if (n.type === "team") {
-        const fill = palette.mode === "team" ? (palette.teamColours.get(n.data.item.team) ?? "#1d2730") : "#1d2730";
-        nodes.push({ id: n.id, box, kind: "team", title: n.data.item.name, subtitle: `${n.data.item.members.length} components · collapsed`, paint: { fill, text: palette.mode === "team" ? "#0e1419" : "#e7edf1", dashed: false }, articulation: false });
-      } else {
-        const c = n.data.item.node;
-        nodes.push({ id: n.id, box, kind: c.kind, title: c.undeclared ? `? ${c.key}` : c.name, subtitle: kindSubtitle(c.kind, palette.mode === "team" ? (teamNames.get(teamSlotOf(c)) ?? null) : `tier ${c.tier}`), paint: paintNode(c, palette), articulation: c.metrics?.articulation ?? false });
-      }
-    }
-    const laid = shownFlow?.boxes ?? {};
-    const same = (a: Box | undefined, b: Box | undefined) => !!a && !!b && Math.abs(a.x - b.x) < 1 && Math.abs(a.y - b.y) < 1;
-    const edges: ExportEdge[] = rfEdges.flatMap((e) => {
-      const s = boxes.get(e.source);
-      const t = boxes.get(e.target);
-      if (!s || !t || !e.data) return [];
-      const route = e.data.route && same(s, laid[e.source]) && same(t, laid[e.target]) ? e.data.route : null;
-      const sx = s.x + s.width / 2;
-      const tx = t.x + t.width / 2;
-      const sy = s.y + s.height;
-      const midY = (sy + t.y) / 2;
-      const points = route ?? [{ x: sx, y: sy }, { x: sx, y: midY }, { x: tx, y: midY }, { x: tx, y: t.y }];
-      return [{ points, strength: e.data.edge.strength, inferred: e.data.edge.inferred, inCycle: e.data.edge.inCycle }];
-    });
-    const { svg, width, height } = renderSvg({ nodes, edges, groups, theme: readExportTheme(), title: `Pinchpoint map: ${graph.environment}` });
+    const background = exportBg ?? theme;
+    const chainLabel = props.chain ? `${props.chain.from} needs ${props.chain.to}` : null;
+    const titleBlock = titleBlockFor({ environment: graph.environment, snapshot: graph.snapshot, legend, now: new Date(), focus: selection.focus, chain: chainLabel });
+    const { svg, width, height } = buildExport({ nodes: rfNodes, edges: rfEdges, laid: shownFlow?.boxes ?? {}, palette, teamNames, theme: exportTheme(background), titleBlock });
     const base = `pinchpoint-${graph.environment}-map${selection.focus ? `-${selection.focus}` : ""}`;
     if (format === "svg") downloadBlob(new Blob([svg], { type: "image/svg+xml" }), `${base}.svg`);
     else
@@ -390,11 +328,14 @@ function MapCanvasInner(props: MapCanvasProps) {
   const selectedComponent = selected ? byKey.get(selected) : undefined;
   const inspected = inspecting ? byKey.get(inspecting) : undefined;
   const large = rfNodes.length > 400;
-  const edgeCount = view.edges.length;
+  const minimap = (showMinimap ?? rfNodes.length <= MINIMAP_OFF_ABOVE) && !inspected;
+  const hub = openHub ? hubs.get(openHub) : undefined;
+  const hubName = (id: string) => (id.startsWith("team:") ? (teamNames.get(id.slice(5)) ?? id.slice(5)) : id);
+  const collapsedCount = [...effGrouping.collapsed].filter((s) => slots.includes(s)).length;
 
   return (
     <DecorContext.Provider value={decor}>
-      <div className="pp-map flex h-full min-h-[480px] w-full flex-col bg-canvas text-ink" data-theme-mode={theme}>
+      <div className="pp-map flex h-full min-h-[480px] w-full flex-col bg-canvas text-ink" data-theme-mode={theme} data-zoom={zoom.level} style={zoom.style}>
         <div className="pp-toolbar flex flex-wrap items-center gap-2 border-b border-line bg-surface px-3 py-2 text-sm" role="toolbar" aria-label="Map controls">
           <form
             role="search"
@@ -416,9 +357,7 @@ function MapCanvasInner(props: MapCanvasProps) {
               className="w-48 rounded border border-line bg-raised px-2 py-1 font-mono text-ink placeholder:text-faint"
               aria-label="Find a component by key or name; Enter centres the map on it"
             />
-            <datalist id={`${ids}-keys`}>
-              {graph.nodes.length <= 5000 ? graph.nodes.map((n) => <option key={n.key} value={n.key} />) : null}
-            </datalist>
+            <datalist id={`${ids}-keys`}>{graph.nodes.length <= 5000 ? graph.nodes.map((n) => <option key={n.key} value={n.key} />) : null}</datalist>
             <button type="submit" className="pp-btn" aria-label="Go to component">
               Go
             </button>
@@ -435,67 +374,10 @@ function MapCanvasInner(props: MapCanvasProps) {
             </select>
           </label>
 
-          <details className="pp-menu">
-            <summary className="pp-btn" aria-label="Filters">
-              Filters{filters === NO_FILTERS ? "" : " •"}
-            </summary>
-            <div className="pp-menu-body">
-              <fieldset>
-                <legend>Teams</legend>
-                {slots.map((s) => (
-                  <label key={s} className="pp-check">
-                    <input type="checkbox" checked={!filters.teams || filters.teams.has(s)} onChange={() => setFilters((f) => ({ ...f, teams: toggleIn(f.teams, s, slots) }))} />
-                    {teamNames.get(s) ?? s}
-                  </label>
-                ))}
-              </fieldset>
-              <fieldset>
-                <legend>Tiers</legend>
-                {TIERS.map((t: Tier) => (
-                  <label key={t} className="pp-check">
-                    <input type="checkbox" checked={!filters.tiers || filters.tiers.has(t)} onChange={() => setFilters((f) => ({ ...f, tiers: toggleIn(f.tiers, t, TIERS) }))} />
-                    Tier {t}
-                  </label>
-                ))}
-              </fieldset>
-              <fieldset>
-                <legend>Kinds</legend>
-                {ALL_KINDS.map((k) => (
-                  <label key={k} className="pp-check">
-                    <input type="checkbox" checked={!filters.kinds || filters.kinds.has(k)} onChange={() => setFilters((f) => ({ ...f, kinds: toggleIn(f.kinds, k, ALL_KINDS) }))} />
-                    {KIND_LABEL[k]}
-                  </label>
-                ))}
-              </fieldset>
-              <fieldset>
-                <legend>Dependencies</legend>
-                <label className="pp-check">
-                  <input type="checkbox" checked={filters.hard} onChange={() => setFilters((f) => ({ ...f, hard: !f.hard }))} />
-                  hard (down when unmet)
-                </label>
-                <label className="pp-check">
-                  <input type="checkbox" checked={filters.soft} onChange={() => setFilters((f) => ({ ...f, soft: !f.soft }))} />
-                  soft (degraded when unmet)
-                </label>
-                <label className="pp-check">
-                  <input type="checkbox" checked={filters.startup} onChange={() => setFilters((f) => ({ ...f, startup: !f.startup }))} />
-                  start-up only (boot order)
-                </label>
-              </fieldset>
-              <button type="button" className="pp-btn" onClick={() => setFilters(NO_FILTERS)} aria-label="Clear all filters">
-                Clear filters
-              </button>
-            </div>
-          </details>
+          <FilterMenu filters={filters} setFilters={setFilters} slots={slots} teamNames={teamNames} />
 
           <div className="flex items-center gap-1" role="group" aria-label="Focus">
-            <button
-              type="button"
-              className="pp-btn"
-              disabled={!selectedComponent}
-              onClick={() => selectedComponent && setFocusKey(selectedComponent.key)}
-              aria-label="Focus on the selected component's neighbourhood"
-            >
+            <button type="button" className="pp-btn" disabled={!selectedComponent} onClick={() => selectedComponent && setFocusKey(selectedComponent.key)} aria-label="Focus on the selected component's neighbourhood">
               Focus
             </button>
             <select value={hops} onChange={(e) => setHops(Number(e.target.value))} className="pp-select" aria-label="Focus depth in hops">
@@ -535,11 +417,19 @@ function MapCanvasInner(props: MapCanvasProps) {
           </div>
 
           <div className="ml-auto flex items-center gap-1" role="group" aria-label="Export and pins">
+            <label className="pp-check">
+              <input type="checkbox" checked={minimap} onChange={() => setShowMinimap(!minimap)} aria-label="Show the overview map" />
+              Overview
+            </label>
             {Object.keys(pins).length > 0 ? (
               <button type="button" className="pp-btn" onClick={clearPins} aria-label="Clear pinned positions">
                 Unpin all
               </button>
             ) : null}
+            <select value={exportBg ?? theme} onChange={(e) => setExportBg(e.target.value as ExportBackground)} className="pp-select" aria-label="Export background">
+              <option value="dark">dark</option>
+              <option value="light">light</option>
+            </select>
             <button type="button" className="pp-btn" onClick={() => exportView("svg")} disabled={rfNodes.length === 0} aria-label="Export the current view as SVG">
               SVG
             </button>
@@ -549,14 +439,17 @@ function MapCanvasInner(props: MapCanvasProps) {
           </div>
         </div>
 
-        <div className="flex flex-wrap items-center gap-3 border-b border-line bg-surface px-3 py-1 text-xs text-muted">
+        <div className="relative flex flex-wrap items-center gap-3 border-b border-line bg-surface px-3 py-1 text-xs text-muted">
+          <LegendPanel legend={legend} />
           <span data-testid="map-count" data-count={view.componentCount} role="status">
-            Showing {view.componentCount.toLocaleString()} of {graph.nodes.length.toLocaleString()} components, {edgeCount.toLocaleString()} dependencies
-            {effGrouping.byTeam ? ` · ${effGrouping.collapsed.size > 0 ? `${[...effGrouping.collapsed].filter((s) => slots.includes(s)).length} teams collapsed` : "grouped by team"}` : ""}
+            Showing {view.componentCount.toLocaleString()} of {graph.nodes.length.toLocaleString()} components, {view.edges.length.toLocaleString()} lines
+            {hubs.size > 0 ? ` (+ ${hubs.size} bundled into hub markers)` : ""}
+            {effGrouping.byTeam ? ` · ${collapsedCount > 0 ? `${collapsedCount} of ${slots.length} teams collapsed` : "grouped by team"}` : ""}
           </span>
           {graph.snapshot ? <span>snapshot #{graph.snapshot.number}</span> : <span className="text-degraded">no snapshot yet</span>}
           {graph.graphView ? <GraphViewBadge graphView={graph.graphView} /> : null}
-          {layout.status === "done" ? <span>laid out in {(layout.ms / 1000).toFixed(1)} s{layout.cached ? " (cached)" : ""}</span> : null}
+          {fromStore ? <span data-testid="layout-source">positions stored for this snapshot</span> : layout.status === "done" ? <span>laid out in {(layout.ms / 1000).toFixed(1)} s{layout.cached ? " (cached)" : ""}</span> : null}
+          {palette.mode === "team" && slots.length > OKABE_ITO.length ? <span className="text-degraded">Team colours repeat after {OKABE_ITO.length} teams: every box and node names its team.</span> : null}
           {!canEdit && Object.keys(localPins).length > 0 ? <span>Moved positions are kept for this visit only; saving them needs lead, architect or admin.</span> : null}
           {notice ? (
             <span className="text-info" role="status">
@@ -565,23 +458,13 @@ function MapCanvasInner(props: MapCanvasProps) {
           ) : null}
         </div>
 
-        {denseFallback ? (
+        {props.chain ? <ChainBanner chain={props.chain} onClear={props.onClearChain} /> : null}
+        {autoTeams ? (
           <div className="pp-banner" role="note">
-            <strong>{requestedSelection.nodes.length.toLocaleString()} components</strong> is more than the map lays out at once, and the team view is too tangled to
-            read ({denseFallback.teamEdges.toLocaleString()} links between teams). Showing the {PINCH_VIEW_SIZE} components most dependency paths run through, and the
-            links among them: search for a component to focus on it, or{" "}
-            <button type="button" className="pp-link" onClick={() => setGrouping({ byTeam: true, collapsed: allCollapsed })}>
-              show the team view anyway
-            </button>
-            .
-          </div>
-        ) : null}
-        {autoCollapsed ? (
-          <div className="pp-banner" role="note">
-            <strong>{selection.nodes.length.toLocaleString()} components</strong> is more than the map lays out at once ({FULL_LAYOUT_LIMIT}). Showing each team as one
-            node: expand a team, focus on a component, or{" "}
-            <button type="button" className="pp-link" onClick={() => setLayoutAll(true)} aria-label="Lay out every component; this can take a minute">
-              lay out all of them (slow: can take a minute)
+            <strong>{selection.nodes.length.toLocaleString()} components</strong> in {slots.length} teams: each team is one box with its count, worst pinch score and single points. Click a team to
+            open it in place, search for a component, or{" "}
+            <button type="button" className="pp-link" onClick={() => setGrouping({ byTeam: true, collapsed: new Set() })}>
+              expand every team
             </button>
             .
           </div>
@@ -607,11 +490,12 @@ function MapCanvasInner(props: MapCanvasProps) {
                 if (n.type === "teamGroup") return;
                 select(n.id);
                 if (n.type === "component") setInspecting(n.id);
-              }}
-              onNodeDoubleClick={(_, n) => {
                 if (n.type === "team") toggleTeam(n.data.item.team);
               }}
-              onPaneClick={() => select(null)}
+              onPaneClick={() => {
+                select(null);
+                setOpenHub(null);
+              }}
               onNodeDragStop={(_, n) => onDragStop(n.id, n.position, n.parentId)}
               colorMode={theme}
               nodesConnectable={false}
@@ -629,30 +513,41 @@ function MapCanvasInner(props: MapCanvasProps) {
             >
               <Background variant={BackgroundVariant.Dots} gap={24} size={1} color="var(--pp-line)" />
               <Controls showInteractive={false} aria-label="Zoom and fit" position="bottom-right" />
-              {/* bottom-left, away from where the layout starts drawing; hidden while the inspector narrows the canvas */}
-              {inspected ? null : (
-              <MiniMap<MapFlowNode>
-                ariaLabel="Overview of the whole map"
-                pannable
-                zoomable
-                position="bottom-left"
-                nodeColor={(n) => {
-                  if (n.type === "component") {
-                    const p = paintNode(n.data.item.node, palette);
-                    return p.dashed ? UNDECLARED : p.fill;
-                  }
-                  if (n.type === "team") return palette.teamColours.get(n.data.item.team) ?? "#6c7f8d";
-                  return "transparent";
-                }}
-                nodeStrokeColor={(n) => (n.type === "teamGroup" ? "#6c7f8d" : "transparent")}
-              />
-              )}
-              <Panel position="top-left">
-                <LegendPanel legend={legend} />
-              </Panel>
-              {layout.status !== "done" ? (
+              {minimap ? (
+                <MiniMap<MapFlowNode>
+                  ariaLabel="Overview of the whole map"
+                  pannable
+                  zoomable
+                  position="bottom-left"
+                  nodeColor={(n) => {
+                    if (n.type === "component") {
+                      const p = paintNode(n.data.item.node, palette);
+                      return p.dashed ? UNDECLARED : p.fill;
+                    }
+                    if (n.type === "team") return palette.teamColours.get(n.data.item.team) ?? "#6c7f8d";
+                    return "transparent";
+                  }}
+                  nodeStrokeColor={(n) => (n.type === "teamGroup" ? "#6c7f8d" : "transparent")}
+                />
+              ) : null}
+              {!laid ? (
                 <Panel position="top-center">
                   <LayoutStatus state={layout} count={view.items.length} onClearFilters={filters === NO_FILTERS ? undefined : () => setFilters(NO_FILTERS)} />
+                </Panel>
+              ) : null}
+              {hub && openHub ? (
+                <Panel position="top-right">
+                  <HubList
+                    title={hubName(openHub)}
+                    sources={hub.sources.map((s) => ({ ...s, label: hubName(s.id) }))}
+                    needs={hub.needs}
+                    onPick={(id) => {
+                      setOpenHub(null);
+                      if (id.startsWith("team:")) toggleTeam(id.slice(5));
+                      else jumpTo(id);
+                    }}
+                    onClose={() => setOpenHub(null)}
+                  />
                 </Panel>
               ) : null}
             </ReactFlow>
@@ -662,15 +557,7 @@ function MapCanvasInner(props: MapCanvasProps) {
               {props.renderInspector ? (
                 props.renderInspector(inspected.key)
               ) : (
-                <Inspector
-                  environment={graph.environment}
-                  node={inspected}
-                  {...inspectorLinks(graph, inspected.key)}
-                  teams={graph.teams}
-                  canEdit={false}
-                  onSelect={jumpTo}
-                  onClose={() => setInspecting(null)}
-                />
+                <Inspector environment={graph.environment} node={inspected} {...inspectorLinks(graph, inspected.key)} teams={graph.teams} canEdit={false} onSelect={jumpTo} onClose={() => setInspecting(null)} allKeys={allKeys} />
               )}
             </div>
           ) : null}
@@ -683,116 +570,65 @@ function MapCanvasInner(props: MapCanvasProps) {
   );
 }
 
-function LayoutStatus(props: { state: ReturnType<typeof useElkLayout>; count: number; onClearFilters?: () => void }) {
-  const s = props.state;
+/** The dependents bundled into a hub's marker, heaviest first. */
+function HubList(props: { title: string; sources: { id: string; label: string; count: number; inCycle: boolean }[]; needs: number; onPick(id: string): void; onClose(): void }) {
   return (
-    <div className="pp-progress" role="status" aria-live="polite">
-      {s.status === "running" ? (
+    <section className="pp-hub-list" aria-label={`Who needs ${props.title}`} data-testid="hub-list">
+      <header className="flex items-center justify-between gap-2">
+        <h3 className="text-sm font-semibold">
+          {props.sources.length} need <span className="font-mono">{props.title}</span>
+          <span className="ml-1 font-normal text-muted">({props.needs} needs)</span>
+        </h3>
+        <button type="button" className="pp-btn" onClick={props.onClose} aria-label="Close the list">
+          ×
+        </button>
+      </header>
+      <ul className="mt-1 max-h-72 overflow-y-auto">
+        {props.sources.map((s) => (
+          <li key={s.id}>
+            <button type="button" className="w-full rounded px-1.5 py-0.5 text-left font-mono text-xs hover:bg-raised" onClick={() => props.onPick(s.id)}>
+              {s.label}
+              {s.count > 1 ? <span className="ml-1 text-muted">×{s.count}</span> : null}
+              {s.inCycle ? <span className="ml-1 text-cycle">↻</span> : null}
+            </button>
+          </li>
+        ))}
+      </ul>
+    </section>
+  );
+}
+
+/** "Why does A need B": the chain's hops with strength and how each is known, above the canvas. */
+function ChainBanner({ chain, onClear }: { chain: ChainResponse; onClear?: () => void }) {
+  return (
+    <div className="pp-banner" role="note" data-testid="chain-banner">
+      {chain.path ? (
         <>
-          <span className="pp-spinner" aria-hidden="true" />
-          <span>
-            {PHASE_LABEL[s.phase]} ({props.count.toLocaleString()} nodes) · {(s.elapsedMs / 1000).toFixed(1)} s
-          </span>
-          <button type="button" className="pp-btn" onClick={s.cancel} aria-label="Cancel the layout">
-            Cancel
-          </button>
-        </>
-      ) : s.status === "cancelled" ? (
-        <>
-          <span>Layout cancelled.</span>
-          <button type="button" className="pp-btn" onClick={s.retry} aria-label="Lay out again">
-            Lay out again
-          </button>
-        </>
-      ) : s.status === "error" ? (
-        <>
-          <span className="text-down">Layout failed: {s.message}</span>
-          <button type="button" className="pp-btn" onClick={s.retry} aria-label="Retry the layout">
-            Retry
-          </button>
+          <strong>
+            Why <span className="font-mono">{chain.from}</span> needs <span className="font-mono">{chain.to}</span>:
+          </strong>{" "}
+          {chain.hops.map((h, i) => (
+            <span key={`${h.from}-${h.to}`} className="whitespace-nowrap">
+              {i === 0 ? <span className="font-mono">{h.from}</span> : null} → <span className="font-mono">{h.to}</span>{" "}
+              <span className="text-muted">
+                ({h.strength}
+                {h.anyOf ? ", one of alternatives" : ""}, {h.provenance.join("+")})
+              </span>{" "}
+            </span>
+          ))}
+          {chain.hardAllTheWay ? <span className="text-down"> Hard all the way: {chain.from} goes down when {chain.to} fails.</span> : null}
         </>
       ) : (
-        <>
-          <span>Nothing to show{props.onClearFilters ? ": the filters hide every component." : "."}</span>
-          {props.onClearFilters ? (
-            <button type="button" className="pp-btn" onClick={props.onClearFilters}>
-              Clear filters
-            </button>
-          ) : null}
-        </>
-      )}
+        <span>
+          <span className="font-mono">{chain.from}</span> does not need <span className="font-mono">{chain.to}</span>
+          {chain.reversed ? ` (the other way round: ${chain.to} needs ${chain.from})` : ""}.
+        </span>
+      )}{" "}
+      {onClear ? (
+        <button type="button" className="pp-link" onClick={onClear}>
+          Show the whole map
+        </button>
+      ) : null}
     </div>
   );
 }
-
-const LEGEND_KINDS: readonly ComponentKind[] = ALL_KINDS;
-
-function LegendPanel({ legend }: { legend: Legend }) {
-  return (
-    <details className="pp-legend">
-      <summary aria-label="Legend">Legend · {legend.title}</summary>
-      {legend.kind === "ramp" ? (
-        <div className="mt-1">
-          <div className="pp-ramp" style={{ background: `linear-gradient(to right, ${legend.stops.join(", ")})` }} aria-hidden="true" />
-          <div className="flex justify-between text-[10px] text-muted">
-            {legend.ticks.map((t) => (
-              <span key={t.t}>{t.label}</span>
-            ))}
-          </div>
-          <p className="text-[10px] text-faint">{legend.note} Grey: not analysed.</p>
-        </div>
-      ) : (
-        <ul className="mt-1 grid grid-cols-2 gap-x-3 gap-y-0.5">
-          {legend.items.map((i) => (
-            <li key={i.label} className="flex items-center gap-1.5 text-[11px]">
-              <span className="pp-swatch" style={{ background: i.colour }} aria-hidden="true" />
-              {i.label}
-            </li>
-          ))}
-          {legend.note ? <li className="col-span-2 text-[10px] text-faint">{legend.note}</li> : null}
-        </ul>
-      )}
-      <ul className="mt-2 grid grid-cols-2 gap-x-3 gap-y-0.5" aria-label="Shapes by kind">
-        {LEGEND_KINDS.map((k) => {
-          // Drawn at node size and scaled down by the viewBox: the fixed-pixel corners and rims of
-          // the node shapes would swamp a 28-pixel box and make cache, service and datastore alike.
-          const p = shapePaths(k, NODE_W, NODE_H);
-          return (
-            <li key={k} className="flex items-center gap-1.5 text-[11px]">
-              <svg width={48} height={Math.round((48 * NODE_H) / NODE_W)} viewBox={`-2 -2 ${NODE_W + 4} ${NODE_H + 4}`} aria-hidden="true" overflow="visible">
-                <path d={p.outline} vectorEffect="non-scaling-stroke" className={k === "undeclared" ? "pp-legend-shape pp-outline-dashed" : "pp-legend-shape"} />
-                {p.detail ? <path d={p.detail} fill="none" vectorEffect="non-scaling-stroke" className="pp-legend-edge" /> : null}
-              </svg>
-              {KIND_LABEL[k]}
-            </li>
-          );
-        })}
-      </ul>
-      <ul className="mt-2 space-y-0.5 text-[11px]" aria-label="Edges and badges">
-        <li className="flex items-center gap-1.5">
-          <svg width={30} height={8} aria-hidden="true"><line x1={0} y1={4} x2={30} y2={4} className="pp-legend-edge" /></svg>hard need
-        </li>
-        <li className="flex items-center gap-1.5">
-          <svg width={30} height={8} aria-hidden="true"><line x1={0} y1={4} x2={30} y2={4} className="pp-legend-edge pp-edge-soft" /></svg>soft need
-        </li>
-        <li className="flex items-center gap-1.5">
-          <svg width={30} height={8} aria-hidden="true"><line x1={0} y1={4} x2={30} y2={4} className="pp-legend-edge pp-edge-startup" /></svg>needed only to start
-        </li>
-        <li className="flex items-center gap-1.5">
-          <svg width={30} height={8} aria-hidden="true"><line x1={0} y1={4} x2={30} y2={4} className="pp-legend-edge pp-edge-inferred" /></svg>inferred from configuration
-        </li>
-        <li className="flex items-center gap-1.5">
-          <svg width={30} height={8} aria-hidden="true"><line x1={0} y1={4} x2={30} y2={4} className="pp-legend-edge pp-legend-cycle" /></svg>in a cycle (↻)
-        </li>
-        <li className="flex items-center gap-1.5">
-          <span className="pp-edge-traffic-key font-mono text-[10px]">12/min</span>calls seen in traces (and their error rate)
-        </li>
-        <li className="flex items-center gap-1.5">
-          <span className="pp-badge pp-badge-inline">splits the graph</span>removing it disconnects parts of the estate
-        </li>
-      </ul>
-    </details>
-  );
-}
-
-

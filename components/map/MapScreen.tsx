@@ -5,7 +5,8 @@ import { usePathname, useRouter, useSearchParams } from "next/navigation";
 import { useCallback, useMemo } from "react";
 import { When } from "@/components/ui/When";
 import { annotationResultSchema, componentDetailResponseSchema } from "@/lib/api/schemas/components";
-import { mapGraphSchema, positionsResponseSchema } from "@/lib/api/schemas/map";
+import { mapGraphSchema, mapLayoutsResponseSchema, positionsResponseSchema } from "@/lib/api/schemas/map";
+import { chainResponseSchema } from "@/lib/api/schemas/analysis";
 import { sendJson, useApi } from "@/lib/client/api";
 import { ReviewBadge } from "@/components/reviews/ReviewBadge";
 import { useReviews } from "@/components/reviews/useReviews";
@@ -14,7 +15,7 @@ import { MapCanvas } from "./MapCanvas";
 import type { ColourMode, MapGraph, PinnedPositions } from "./types";
 import { useIncidentOverlay } from "@/components/incidents/MapOverlay";
 
-function InspectorFor({ env, graph, nodeKey, canEdit, onSelect }: { env: string; graph: MapGraph; nodeKey: string; canEdit: boolean; onSelect(key: string): void }) {
+function InspectorFor({ env, graph, nodeKey, canEdit, onSelect, onWhy }: { env: string; graph: MapGraph; nodeKey: string; canEdit: boolean; onSelect(key: string): void; onWhy(target: string): void }) {
   const detail = useApi(componentDetailResponseSchema, `/api/v1/environments/${env}/components/${encodeURIComponent(nodeKey)}`);
   const reviews = useReviews(env);
   const node = graph.nodes.find((n) => n.key === nodeKey);
@@ -38,6 +39,8 @@ function InspectorFor({ env, graph, nodeKey, canEdit, onSelect }: { env: string;
       onSave={onSave}
       onSelect={onSelect}
       badge={<ReviewBadge review={reviews.byKey[nodeKey]} />}
+      onWhy={onWhy}
+      allKeys={graph.nodes.map((n) => n.key)}
     />
   );
 }
@@ -50,12 +53,17 @@ export function MapScreen({ env, focus, colour, canEdit, incident = false }: { e
   const graph = useApi(mapGraphSchema, `/api/v1/environments/${env}/graph`, { revalidateOnFocus: false });
   const pins = useApi(positionsResponseSchema, `/api/v1/environments/${env}/map/positions`, { revalidateOnFocus: false });
   const pinned = useMemo(() => pins.data?.positions ?? {}, [pins.data]);
+  const layouts = useApi(mapLayoutsResponseSchema, `/api/v1/environments/${env}/map/layouts`, { revalidateOnFocus: false });
+  // ?chain=a,b: why does a need b (the chain of needs, highlighted on the map).
+  const chainParam = search.get("chain");
+  const [chainFrom, chainTo] = chainParam ? chainParam.split(",", 2) : [];
+  const chain = useApi(chainResponseSchema, chainFrom && chainTo ? `/api/v1/environments/${env}/chain?from=${encodeURIComponent(chainFrom)}&to=${encodeURIComponent(chainTo)}` : null, { revalidateOnFocus: false });
 
-  const setFocusInUrl = useCallback(
-    (key: string | null) => {
+  const setParamInUrl = useCallback(
+    (name: "focus" | "chain", value: string | null) => {
       const next = new URLSearchParams(search.toString());
-      if (key) next.set("focus", key);
-      else next.delete("focus");
+      if (value) next.set(name, value);
+      else next.delete(name);
       const qs = next.toString();
       router.replace(qs ? `${pathname}?${qs}` : pathname, { scroll: false });
     },
@@ -78,7 +86,9 @@ export function MapScreen({ env, focus, colour, canEdit, incident = false }: { e
       </p>
     );
   }
-  if (!graph.data) return <p className="text-muted" aria-busy="true">Loading the dependency graph…</p>;
+  // Stored positions are waited for (briefly: one small query), so the browser does not start ELK for nothing.
+  if (!graph.data || (!layouts.data && !layouts.error)) return <p className="text-muted" aria-busy="true">Loading the dependency graph…</p>;
+  const stored = layouts.data && graph.data.snapshot && layouts.data.snapshot?.number === graph.data.snapshot.number && Object.keys(layouts.data.views).length > 0 ? layouts.data.views : null;
   const data = graph.data;
   return (
     <div className="flex h-[calc(100vh-7.5rem)] min-h-[520px] flex-col gap-2">
@@ -102,7 +112,10 @@ export function MapScreen({ env, focus, colour, canEdit, incident = false }: { e
           canEdit={canEdit}
           pinned={pinned}
           onPinPositions={onPinPositions}
-          renderInspector={(key) => <InspectorFor env={env} graph={data} nodeKey={key} canEdit={canEdit} onSelect={(k) => setFocusInUrl(k)} />}
+          stored={stored}
+          chain={chainFrom && chainTo ? (chain.data ?? null) : null}
+          onClearChain={() => setParamInUrl("chain", null)}
+          renderInspector={(key) => <InspectorFor env={env} graph={data} nodeKey={key} canEdit={canEdit} onSelect={(k) => setParamInUrl("focus", k)} onWhy={(target) => setParamInUrl("chain", `${key},${target}`)} />}
         />
       </div>
     </div>

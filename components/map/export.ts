@@ -40,6 +40,29 @@ export const DEFAULT_EXPORT_THEME: ExportTheme = {
   undeclared: "#999999",
 };
 
+/** The light theme's tokens (app/globals.css, [data-theme="light"]), for a light export from a dark screen. */
+export const LIGHT_EXPORT_THEME: ExportTheme = {
+  canvas: "#f4f1ea",
+  surface: "#fbfaf6",
+  line: "#d9d3c5",
+  ink: "#1a2128",
+  muted: "#4f5d68",
+  brass: "#a4731a",
+  info: "#1a6896",
+  cycle: "#974274",
+  undeclared: "#626262",
+};
+
+/** What an exported picture says about itself: where it comes from, when, and how to read it. */
+export interface TitleBlock {
+  title: string;
+  /** e.g. "Environment production · snapshot #12 (pushed 2026-12-01 10:00 UTC)" */
+  lines: string[];
+  legend: { label: string; colour: string }[];
+  /** one-line note under the legend (scale, caution) */
+  note: string | null;
+}
+
 export interface ExportNode {
   id: string;
   box: Box;
@@ -76,10 +99,15 @@ export function renderSvg(args: {
   groups: readonly ExportGroup[];
   theme: ExportTheme;
   title: string;
+  titleBlock?: TitleBlock;
   margin?: number;
 }): { svg: string; width: number; height: number } {
   const { nodes, edges, groups, theme } = args;
   const m = args.margin ?? 24;
+  const tb = args.titleBlock;
+  // The title block sits above the drawing, never over it: its height is added to the picture.
+  const legendRows = tb ? Math.ceil(tb.legend.length / 4) : 0;
+  const blockH = tb ? 30 + tb.lines.length * 16 + legendRows * 16 + (tb.note ? 16 : 0) + 12 : 0;
   let minX = Infinity;
   let minY = Infinity;
   let maxX = -Infinity;
@@ -91,10 +119,10 @@ export function renderSvg(args: {
     maxY = Math.max(maxY, b.y + b.height);
   }
   if (!Number.isFinite(minX)) [minX, minY, maxX, maxY] = [0, 0, 0, 0];
-  const width = Math.ceil(maxX - minX + 2 * m);
-  const height = Math.ceil(maxY - minY + 2 * m);
+  const width = Math.max(Math.ceil(maxX - minX + 2 * m), tb ? 640 : 0);
+  const height = Math.ceil(maxY - minY + 2 * m + blockH);
   const ox = m - minX;
-  const oy = m - minY;
+  const oy = m - minY + blockH;
   const out: string[] = [];
   out.push(
     `<svg xmlns="http://www.w3.org/2000/svg" width="${width}" height="${height}" viewBox="0 0 ${width} ${height}" font-family="Inter, system-ui, sans-serif">`,
@@ -102,8 +130,24 @@ export function renderSvg(args: {
     `<defs><marker id="pp-arrow" viewBox="0 0 10 10" refX="9" refY="5" markerWidth="7" markerHeight="7" orient="auto-start-reverse"><path d="M0,0 L10,5 L0,10 z" fill="${theme.muted}"/></marker>`,
     `<marker id="pp-arrow-cycle" viewBox="0 0 10 10" refX="9" refY="5" markerWidth="7" markerHeight="7" orient="auto-start-reverse"><path d="M0,0 L10,5 L0,10 z" fill="${theme.cycle}"/></marker></defs>`,
     `<rect width="100%" height="100%" fill="${theme.canvas}"/>`,
-    `<g transform="translate(${ox},${oy})">`,
   );
+  if (tb) {
+    out.push(`<g class="pp-title-block" transform="translate(${m},${m})">`, `<text x="0" y="16" font-size="17" font-weight="700" fill="${theme.ink}">${escapeXml(tb.title)}</text>`);
+    let y = 34;
+    for (const line of tb.lines) {
+      out.push(`<text x="0" y="${y}" font-size="12" fill="${theme.muted}">${escapeXml(line)}</text>`);
+      y += 16;
+    }
+    tb.legend.forEach((item, i) => {
+      const x = (i % 4) * 170;
+      const ly = y + Math.floor(i / 4) * 16;
+      out.push(`<rect x="${x}" y="${ly - 9}" width="10" height="10" rx="2" fill="${item.colour}" stroke="${theme.line}"/>`, `<text x="${x + 15}" y="${ly}" font-size="11" fill="${theme.ink}">${escapeXml(clip(item.label, 24))}</text>`);
+    });
+    y += legendRows * 16;
+    if (tb.note) out.push(`<text x="0" y="${y}" font-size="10" fill="${theme.muted}">${escapeXml(tb.note)}</text>`);
+    out.push(`<line x1="0" y1="${blockH - 8}" x2="${width - 2 * m}" y2="${blockH - 8}" stroke="${theme.line}"/>`, `</g>`);
+  }
+  out.push(`<g transform="translate(${ox},${oy})">`);
   for (const g of groups) {
     const b = g.box;
     out.push(

@@ -8,6 +8,7 @@ import { polylineMidpoint, polylinePath } from "./layout";
 import { paintNode, type Palette } from "./colour";
 import { KIND_LABEL, shapePaths, textInset } from "./shapes";
 import { teamSlotOf } from "./view";
+import type { HubBundle } from "@/lib/map/estate";
 import { trafficLine } from "@/components/ui/format";
 
 export interface Decor {
@@ -19,6 +20,38 @@ export interface Decor {
   onToggleTeam(team: string): void;
   /** An incident overlay: each marked component's role in it. */
   marks?: ReadonlyMap<string, IncidentMark>;
+  /** nodes drawn as hubs: their dependents are a count marker, not a fan of lines */
+  hubs: ReadonlyMap<string, HubBundle>;
+  onOpenHub(id: string): void;
+  /** "why does A need B": the chain's nodes and its edges (`from->to`) */
+  chain: { nodes: ReadonlySet<string>; edges: ReadonlySet<string> } | null;
+  /** per collapsed team: members, worst pinch score, single points */
+  teamStats: ReadonlyMap<string, TeamStats>;
+}
+
+export interface TeamStats {
+  count: number;
+  worstPinch: number | null;
+  /** components with one replica or fewer than two zones whose failure takes something down */
+  singlePoints: number;
+}
+
+function HubMarker({ id, hub, onOpen, label }: { id: string; hub: HubBundle; onOpen(id: string): void; label: string }) {
+  return (
+    <button
+      type="button"
+      className="pp-hub nodrag"
+      data-testid="hub-marker"
+      onClick={(e) => {
+        e.stopPropagation();
+        onOpen(id);
+      }}
+      title={`${hub.sources.length} ${label} need it (${hub.needs} needs): their lines are bundled into this marker. Click for the list.`}
+      aria-label={`${hub.sources.length} ${label} need ${id.replace(/^team:/, "")}: show the list`}
+    >
+      ⇡ {hub.sources.length}
+    </button>
+  );
 }
 
 export type IncidentMark = "origin" | "silent" | "firing" | "predicted";
@@ -45,7 +78,9 @@ export const ComponentNode = memo(function ComponentNode(props: NodeProps<Compon
   const selected = decor.selected === node.key;
   const mark = decor.marks?.get(node.key);
   const showTeam = decor.palette.mode === "team";
-  const sub = showTeam ? `${KIND_LABEL[node.kind]} · ${decor.teamNames.get(teamSlotOf(node)) ?? ""}` : `${KIND_LABEL[node.kind]} · tier ${node.tier}`;
+  const teamLabel = decor.teamNames.get(teamSlotOf(node)) ?? "";
+  const sub = showTeam ? `${KIND_LABEL[node.kind]} · ${teamLabel}` : `${KIND_LABEL[node.kind]} · tier ${node.tier}`;
+  const hub = decor.hubs.get(node.key);
   return (
     <div
       className="pp-node"
@@ -53,8 +88,9 @@ export const ComponentNode = memo(function ComponentNode(props: NodeProps<Compon
       data-selected={selected || undefined}
       data-focus={decor.focus === node.key || undefined}
       data-incident={mark}
+      data-chain={decor.chain?.nodes.has(node.key) || undefined}
       style={{ width: w, height: h }}
-      title={`${node.name} (${node.key})`}
+      title={`${node.key}: ${node.name} (${KIND_LABEL[node.kind]}, tier ${node.tier}${teamLabel ? `, ${teamLabel}` : ""})`}
     >
       <Handle type="target" position={Position.Top} isConnectable={false} style={hidden} />
       <svg width={w} height={h} className="pp-node-shape" aria-hidden="true" overflow="visible">
@@ -66,7 +102,7 @@ export const ComponentNode = memo(function ComponentNode(props: NodeProps<Compon
         {shape.detail ? <path d={shape.detail} fill="none" stroke={paint.text} strokeOpacity={0.45} /> : null}
       </svg>
       <div className="pp-node-text" style={{ color: paint.text, paddingLeft: inset.left, paddingRight: inset.right }}>
-        <span className="pp-node-name">{node.undeclared ? `? ${node.key}` : node.name}</span>
+        <span className="pp-node-name">{node.undeclared ? `? ${node.key}` : node.key}</span>
         <span className="pp-node-kind">{sub}</span>
       </div>
       {mark ? <span className="pp-incident">{MARK_LABEL[mark]}</span> : null}
@@ -75,6 +111,7 @@ export const ComponentNode = memo(function ComponentNode(props: NodeProps<Compon
           splits the graph
         </span>
       ) : null}
+      {hub ? <HubMarker id={node.key} hub={hub} onOpen={decor.onOpenHub} label="components" /> : null}
       {props.data.pinned ? (
         <span className="pp-pin" title="Position pinned">
           pinned
@@ -89,12 +126,23 @@ export const TeamNode = memo(function TeamNode(props: NodeProps<TeamFlowNode>) {
   const decor = useDecor();
   const { item } = props.data;
   const fill = decor.palette.mode === "team" ? (decor.palette.teamColours.get(item.team) ?? "var(--pp-raised)") : "var(--pp-raised)";
+  const stats = decor.teamStats.get(item.team);
+  const hub = decor.hubs.get(item.id);
+  const summary = `${item.members.length} components${stats?.worstPinch != null ? ` · worst pinch ${Math.round(stats.worstPinch)}` : ""}${stats ? ` · ${stats.singlePoints} single` : ""}`;
   return (
-    <div className="pp-team" data-selected={decor.selected === item.id || undefined} style={{ width: props.width, height: props.height }}>
+    <div
+      className="pp-team"
+      data-testid="team-box"
+      data-team={item.team}
+      data-selected={decor.selected === item.id || undefined}
+      style={{ width: props.width, height: props.height }}
+      title={`${item.name}: ${item.members.length} components${stats?.worstPinch != null ? `, worst pinch score ${Math.round(stats.worstPinch)}` : ""}${stats ? `, ${stats.singlePoints} single points of failure (one replica or one zone, taking something down)` : ""}. Click to expand.`}
+    >
       <Handle type="target" position={Position.Top} isConnectable={false} style={hidden} />
       <span className="pp-team-swatch" style={{ background: fill }} aria-hidden="true" />
       <span className="pp-team-name">{item.name}</span>
-      <span className="pp-team-count">{item.members.length} components · collapsed</span>
+      <span className="pp-team-count">{summary}</span>
+      {hub ? <HubMarker id={item.id} hub={hub} onOpen={decor.onOpenHub} label="teams" /> : null}
       <button
         type="button"
         className="pp-team-toggle nodrag"
@@ -114,10 +162,12 @@ export const TeamNode = memo(function TeamNode(props: NodeProps<TeamFlowNode>) {
 export const GroupNode = memo(function GroupNode(props: NodeProps<GroupFlowNode>) {
   const decor = useDecor();
   const { group } = props.data;
+  const colour = decor.palette.mode === "team" ? decor.palette.teamColours.get(group.team) : undefined;
   return (
-    <div className="pp-group" style={{ width: props.width, height: props.height }}>
-      <div className="pp-group-header">
-        <span>
+    <div className="pp-group" data-testid="team-group" data-team={group.team} style={{ width: props.width, height: props.height }}>
+      <div className="pp-group-header" title={`${group.name}: ${group.memberCount} components`}>
+        <span className="pp-group-title">
+          {colour ? <span className="pp-team-swatch-inline" style={{ background: colour }} aria-hidden="true" /> : null}
           {group.name} <span className="pp-group-count">({group.memberCount})</span>
         </span>
         <button
@@ -160,7 +210,8 @@ export const RoutedEdge = memo(function RoutedEdge(props: EdgeProps<MapFlowEdge>
   const path = !stale && route ? polylinePath(route) : stepPath;
   const mid = !stale && route ? polylineMidpoint(route) : { x: (props.sourceX + props.targetX) / 2, y: (props.sourceY + props.targetY) / 2 };
   const touched = decor.selected !== null && (props.source === decor.selected || props.target === decor.selected);
-  const cls = ["pp-edge", edge && edge.strength !== "hard" ? `pp-edge-${edge.strength}` : "", edge?.inferred ? "pp-edge-inferred" : "", edge?.inCycle ? "pp-edge-cycle" : "", touched ? "pp-edge-touched" : ""]
+  const onChain = decor.chain?.edges.has(`${props.source}->${props.target}`) ?? false;
+  const cls = ["pp-edge", edge && edge.strength !== "hard" ? `pp-edge-${edge.strength}` : "", edge?.inferred ? "pp-edge-inferred" : "", edge?.inCycle ? "pp-edge-cycle" : "", touched ? "pp-edge-touched" : "", onChain ? "pp-edge-chain" : ""]
     .filter(Boolean)
     .join(" ");
   return (

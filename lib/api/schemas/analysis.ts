@@ -212,3 +212,4 @@ export const chainResponseSchema = z.object({
   /** when `from` does not depend on `to`: whether `to` depends on `from` instead */
   reversed: z.boolean(),
 });
+export type ChainResponse = z.infer<typeof chainResponseSchema>;

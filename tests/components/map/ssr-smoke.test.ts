@@ -30,7 +30,7 @@ describe("server render", () => {
   it("a component node renders its kind label", () => {
     const node = g.nodes.find((n) => n.kind === "datastore") ?? g.nodes[0];
     if (!node) throw new Error("empty fixture");
-    const decor = { palette: buildPalette(g.nodes, "betweenness", []), teamNames: new Map(), selected: null, focus: null, onToggleTeam: () => {} };
+    const decor = { palette: buildPalette(g.nodes, "betweenness", []), teamNames: new Map(), selected: null, focus: null, onToggleTeam: () => {}, hubs: new Map(), onOpenHub: () => {}, chain: null, teamStats: new Map() };
     const props = { id: node.key, data: { item: { type: "component" as const, id: node.key, node, parent: null }, pinned: false }, width: 184, height: 60 };
     const html = renderToString(
       createElement(ReactFlowProvider, null, createElement(DecorContext.Provider, { value: decor }, createElement(ComponentNode as unknown as (p: typeof props) => null, props))),

@@ -1,6 +1,6 @@
 // Benchmark of the analysis engine (npm run bench). Speed is measured here, never in tests.
 //   npx tsx --conditions=react-server scripts/bench.ts                     all sections
-//   npx tsx --conditions=react-server scripts/bench.ts --only measures     one section (push | impact | kubernetes | compose | traces | responsiveness | incidents | measures | scale | http | igraph)
+//   npx tsx --conditions=react-server scripts/bench.ts --only measures     one section (map | push | impact | kubernetes | compose | traces | responsiveness | incidents | measures | scale | http | igraph)
 //   npx tsx --conditions=react-server scripts/bench.ts --compare-igraph    also time python3-igraph on the 20k graph
 //   npx tsx --conditions=react-server scripts/bench.ts --edge-list FILE    one JSON line for a `from to` edge list
 //   --runs N                                     calls per side in the igraph comparison (default 5, alternating)
@@ -269,6 +269,15 @@ async function benchImpact(n: number): Promise<void> {
 }
 
 const sections: Section[] = [
+  {
+    name: "map",
+    byDefault: true,
+    run: async () => {
+      console.log("# the map at estate scale: the worker's layouts (ELK in Node), views composed from them, a 2-hop focus");
+      const { benchMap } = await import("./bench/map");
+      await benchMap([2_000, 10_000]);
+    },
+  },
   {
     name: "push",
     byDefault: true,

@@ -22,7 +22,7 @@ import { KIND_LABEL } from "./shapes";
 import { COLOUR_MODES, type ColourMode, type MapGraph, type PinnedPositions, type Position } from "./types";
 import { useElkLayout } from "./useElkLayout";
 import { useMapKeyboard } from "./useMapKeyboard";
-import { NO_FILTERS, buildAdjacency, groupSelection, selectComponents, teamName, teamSlotOf, teamSlots, type GroupingSpec, type MapFilters, type Selection } from "./view";
+import { NO_FILTERS, buildAdjacency, groupNodeId, groupSelection, teamNodeId, selectComponents, teamName, teamSlotOf, teamSlots, type GroupingSpec, type MapFilters, type Selection } from "./view";
 
 export interface MapCanvasProps {
   graph: MapGraph;
@@ -175,8 +175,14 @@ function MapCanvasInner(props: MapCanvasProps) {
     (team: string) => {
       setGrouping(() => {
         const collapsed = new Set(effGrouping.collapsed);
-        if (collapsed.has(team)) collapsed.delete(team);
-        else collapsed.add(team);
+        // An expanded team is shown whole once it is laid out; a collapsed one, among its neighbours.
+        if (collapsed.has(team)) {
+          collapsed.delete(team);
+          pendingCentre.current = groupNodeId(team);
+        } else {
+          collapsed.add(team);
+          pendingCentre.current = teamNodeId(team);
+        }
         return { byTeam: true, collapsed };
       });
     },
@@ -249,7 +255,10 @@ function MapCanvasInner(props: MapCanvasProps) {
     if (!shownFlow) return;
     const frame = requestAnimationFrame(() => {
       const want = pendingCentre.current;
-      if (want && centreOn(want)) pendingCentre.current = null;
+      if (want?.startsWith("group:") || want?.startsWith("team:")) {
+        pendingCentre.current = null;
+        void rf.fitView({ nodes: [{ id: want }], padding: 0.15, duration: 200, minZoom: 0.3, maxZoom: 1 });
+      } else if (want && centreOn(want)) pendingCentre.current = null;
       else void rf.fitView({ padding: 0.08, duration: 200, minZoom: 0.3 });
     });
     return () => cancelAnimationFrame(frame);
@@ -328,7 +337,8 @@ function MapCanvasInner(props: MapCanvasProps) {
   const selectedComponent = selected ? byKey.get(selected) : undefined;
   const inspected = inspecting ? byKey.get(inspecting) : undefined;
   const large = rfNodes.length > 400;
-  const minimap = (showMinimap ?? rfNodes.length <= MINIMAP_OFF_ABOVE) && !inspected;
+  // The overview helps only on a canvas bigger than the screen; on the team view it would cover boxes.
+  const minimap = (showMinimap ?? (rfNodes.length <= MINIMAP_OFF_ABOVE && !view.items.some((i) => i.type === "team"))) && !inspected;
   const hub = openHub ? hubs.get(openHub) : undefined;
   const hubName = (id: string) => (id.startsWith("team:") ? (teamNames.get(id.slice(5)) ?? id.slice(5)) : id);
   const collapsedCount = [...effGrouping.collapsed].filter((s) => slots.includes(s)).length;

@@ -128,7 +128,7 @@ export const TeamNode = memo(function TeamNode(props: NodeProps<TeamFlowNode>) {
   const fill = decor.palette.mode === "team" ? (decor.palette.teamColours.get(item.team) ?? "var(--pp-raised)") : "var(--pp-raised)";
   const stats = decor.teamStats.get(item.team);
   const hub = decor.hubs.get(item.id);
-  const summary = `${item.members.length} components${stats?.worstPinch != null ? ` · worst pinch ${Math.round(stats.worstPinch)}` : ""}${stats ? ` · ${stats.singlePoints} single` : ""}`;
+  const detail = `${stats?.worstPinch != null ? `worst pinch ${Math.round(stats.worstPinch)}` : "not analysed"}${stats ? ` · ${stats.singlePoints} single` : ""}`;
   return (
     <div
       className="pp-team"
@@ -141,7 +141,8 @@ export const TeamNode = memo(function TeamNode(props: NodeProps<TeamFlowNode>) {
       <Handle type="target" position={Position.Top} isConnectable={false} style={hidden} />
       <span className="pp-team-swatch" style={{ background: fill }} aria-hidden="true" />
       <span className="pp-team-name">{item.name}</span>
-      <span className="pp-team-count">{summary}</span>
+      <span className="pp-team-count">{item.members.length} components</span>
+      <span className="pp-team-count">{detail}</span>
       {hub ? <HubMarker id={item.id} hub={hub} onOpen={decor.onOpenHub} label="teams" /> : null}
       <button
         type="button"
@@ -152,7 +153,7 @@ export const TeamNode = memo(function TeamNode(props: NodeProps<TeamFlowNode>) {
         }}
         aria-label={`Expand team ${item.name}`}
       >
-        Expand
+        +
       </button>
       <Handle type="source" position={Position.Bottom} isConnectable={false} style={hidden} />
     </div>

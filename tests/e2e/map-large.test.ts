@@ -50,9 +50,11 @@ describe("map at 2,000 components", () => {
     await setTheme("dark");
 
     t0 = Date.now();
-    await page.getByTestId("team-box").first().click();
+    const box = page.getByTestId("team-box").first();
+    await box.click();
     await page.getByTestId("team-group").first().waitFor({ timeout: 30_000 });
     const expand = Date.now() - t0;
+    await screenshot(page, "map-2000-team-expanded");
     expect(await page.getByTestId("team-box").count()).toBe(teams - 1);
     await page.getByRole("button", { name: /^Collapse team / }).first().click();
     await expect.poll(() => page.getByTestId("team-box").count(), { timeout: 30_000 }).toBe(teams);
@@ -61,7 +63,7 @@ describe("map at 2,000 components", () => {
     await page.getByTestId("hub-list").waitFor({ timeout: 10_000 });
 
     t0 = Date.now();
-    await page.getByRole("button", { name: "Expand every team" }).click();
+    await page.getByRole("button", { name: "Expand every team", exact: true }).click();
     await expect.poll(() => page.getByTestId("team-box").count(), { timeout: 60_000 }).toBe(0);
     await page.locator(".react-flow__node").first().waitFor({ timeout: 60_000 });
     const all = Date.now() - t0;

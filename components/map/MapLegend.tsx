@@ -11,7 +11,7 @@ const LEGEND_KINDS: readonly ComponentKind[] = ALL_KINDS;
 export function LegendPanel({ legend }: { legend: Legend }) {
   return (
     <details className="pp-legend" data-testid="map-legend">
-      <summary aria-label="Legend">Legend · {legend.title}</summary>
+      <summary>Legend · {legend.title}</summary>
       {legend.kind === "ramp" ? (
         <div className="mt-1">
           <div className="pp-ramp" style={{ background: `linear-gradient(to right, ${legend.stops.join(", ")})` }} aria-hidden="true" />

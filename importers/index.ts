@@ -39,8 +39,3 @@ export function importInventory(req: ImportRequest): ImportResult {
   }
 }
 
-export { importCompose } from "./compose";
-export { importCsv } from "./csv";
-export { importKubernetes } from "./kubernetes";
-export { importOtlp } from "./otlp";
-export { importPinchpoint } from "./pinchpoint";

@@ -13,9 +13,9 @@ import { AppError } from "@/lib/errors";
 import { importInventory } from "./index";
 
 /** How long one file may take to parse and check, queueing included (PINCHPOINT_PARSE_BUDGET_MS). */
-export const parseBudgetMs = () => Number(process.env.PINCHPOINT_PARSE_BUDGET_MS ?? 30_000);
+const parseBudgetMs = () => Number(process.env.PINCHPOINT_PARSE_BUDGET_MS ?? 30_000);
 /** Threads parsing at once per process (PINCHPOINT_PARSE_THREADS); 0 parses on the calling thread. */
-export const parseThreads = () => Math.max(0, Math.floor(Number(process.env.PINCHPOINT_PARSE_THREADS ?? 2)));
+const parseThreads = () => Math.max(0, Math.floor(Number(process.env.PINCHPOINT_PARSE_THREADS ?? 2)));
 /** Files waiting for a thread beyond these are turned away with 503 and Retry-After. */
 const MAX_QUEUE = 16;
 

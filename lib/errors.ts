@@ -4,7 +4,7 @@ import type { z } from "zod";
 import type { InventoryIssue } from "./inventory/types";
 import { formatPath } from "./issue-path";
 
-export const ERROR_STATUS = {
+const ERROR_STATUS = {
   bad_request: 400,
   unauthorized: 401,
   forbidden: 403,

@@ -1,7 +1,7 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from "sequelize";
 
 /** `superseded`: a newer snapshot of the environment was analysed instead (lib/data/analysis-runs.ts). */
-export const ANALYSIS_STATUSES = ["queued", "running", "done", "failed", "superseded"] as const;
+const ANALYSIS_STATUSES = ["queued", "running", "done", "failed", "superseded"] as const;
 export type AnalysisStatus = (typeof ANALYSIS_STATUSES)[number];
 
 /** One analysis of one snapshot: the product's record of it (status, progress, phase, summary); the queue job that runs it is pg-boss's (job_id). */

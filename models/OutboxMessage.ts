@@ -1,6 +1,6 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from "sequelize";
 
-export const OUTBOX_STATUSES = ["queued", "sent", "failed"] as const;
+const OUTBOX_STATUSES = ["queued", "sent", "failed"] as const;
 export type OutboxStatus = (typeof OUTBOX_STATUSES)[number];
 
 /** One e-mail waiting to be sent, sent, or given up on: the product's record of it; its delivery is a job in the queue `mail` (lib/data/mail-outbox.ts). */

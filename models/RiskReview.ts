@@ -2,7 +2,7 @@ import { DataTypes, Model, type CreationOptional, type InferAttributes, type Inf
 
 import { REVIEW_STATUSES, type ReviewStatus } from "../lib/review-status";
 
-export { REVIEW_STATUSES, type ReviewStatus };
+export { type ReviewStatus };
 
 /**
  * An architect's decision about one pinch point. Keyed by environment and component key (like

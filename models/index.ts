@@ -57,7 +57,7 @@ function initModels(sequelize: Sequelize) {
   };
 }
 
-export type Models = ReturnType<typeof initModels>;
+type Models = ReturnType<typeof initModels>;
 export interface Db {
   sequelize: Sequelize;
   models: Models;
@@ -65,7 +65,7 @@ export interface Db {
 
 const holder = globalThis as unknown as { __pinchpointDb?: Db };
 
-export function databaseUrl(): string {
+function databaseUrl(): string {
   const url = process.env.DATABASE_URL;
   if (!url) {
     throw new Error("DATABASE_URL is not set: start PostgreSQL with `npm start` (or scripts/pg.sh start) first");

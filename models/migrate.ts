@@ -2,7 +2,7 @@ import { SequelizeStorage, Umzug, type MigrationParams } from "umzug";
 import type { Sequelize } from "sequelize";
 import { MIGRATIONS } from "./migrations";
 
-export function migrator(sequelize: Sequelize) {
+function migrator(sequelize: Sequelize) {
   return new Umzug({
     migrations: MIGRATIONS.map(({ name, up, down }) => ({
       name,

@@ -45,5 +45,3 @@ export const MEASURE_HELP = {
     short: "One replica, or runs in fewer than two zones: one machine or zone loss takes it out.",
   },
 } as const;
-
-export type MeasureKey = keyof typeof MEASURE_HELP;

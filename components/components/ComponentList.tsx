@@ -20,7 +20,7 @@ import { COMPONENT_FILTERS, COMPONENT_PAGE_SIZE, componentsUrl } from "./list";
 
 const col = createColumnHelper<ComponentListItem>();
 
-export const componentHref = (env: string, key: string) => `/environments/${env}/components/${encodeURIComponent(key)}`;
+const componentHref = (env: string, key: string) => `/environments/${env}/components/${encodeURIComponent(key)}`;
 
 function columns(env: string, viewer: OwnerViewer | undefined, onClaimed: (c: Claim) => void) {
   const mayClaim = viewer !== undefined && ownerChoices(viewer).length > 0;

@@ -174,7 +174,7 @@ export function ImpactPanel({ impact, fileName, env }: { impact: ImpactReport; f
  * may push anyway with a reason (the server checks the role and audits the reason).
  */
 /** "+2 components, −1, 3 changed; +4 needs, −1": what the push changes, in one line. */
-export function diffLine(diff: DiffSummary): string {
+function diffLine(diff: DiffSummary): string {
   const c = diff.counts;
   const parts = [`+${c.componentsAdded} / −${c.componentsRemoved} / ~${c.componentsChanged} components`, `+${c.dependenciesAdded} / −${c.dependenciesRemoved} needs`];
   return parts.join("; ");

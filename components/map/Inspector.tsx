@@ -20,7 +20,7 @@ export interface InspectorSave {
 type MeasureRow = { id: keyof MapMetrics; label: string; meaning: string; format(m: MapMetrics): string };
 
 /** Our plain-language reading of each measure (definitions in DESIGN §3). */
-export const MEASURE_ROWS: MeasureRow[] = [
+const MEASURE_ROWS: MeasureRow[] = [
   {
     id: "betweenness",
     label: "Betweenness",

@@ -4,10 +4,10 @@ import { COMPONENT_KINDS, TIERS, type ComponentKind, type Tier } from "@/lib/inv
 import { KIND_LABEL } from "./shapes";
 import { NO_FILTERS, type MapFilters } from "./view";
 
-export const ALL_KINDS: readonly ComponentKind[] = [...COMPONENT_KINDS, "undeclared"];
+const ALL_KINDS: readonly ComponentKind[] = [...COMPONENT_KINDS, "undeclared"];
 
 /** Toggle one value in a filter set where null means "all of the universe". */
-export function toggleIn<T>(current: ReadonlySet<T> | null, value: T, universe: readonly T[]): ReadonlySet<T> | null {
+function toggleIn<T>(current: ReadonlySet<T> | null, value: T, universe: readonly T[]): ReadonlySet<T> | null {
   const next = new Set(current ?? universe);
   if (next.has(value)) next.delete(value);
   else next.add(value);

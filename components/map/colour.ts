@@ -13,7 +13,7 @@ export const OKABE_ITO = ["#56b4e9", "#e69f00", "#009e73", "#f0e442", "#0072b2",
 /** Warm for the most critical tier, cool for the least; green is left out so tier 4 never reads as "healthy". */
 export const TIER_COLOURS: Record<Tier, string> = { 1: "#d55e00", 2: "#e69f00", 3: "#f0e442", 4: "#56b4e9" };
 
-export const NO_DATA = "#6c7f8d";
+const NO_DATA = "#6c7f8d";
 export const UNDECLARED = "#999999";
 // Pure black, not the canvas ink: mid-ramp teal (#21918c) reaches 4.5:1 only against black.
 const DARK_TEXT = "#000000";
@@ -85,7 +85,7 @@ export interface MeasureScale {
   transform: "linear" | "sqrt";
 }
 
-export function measureValue(node: MapNode, mode: MeasureMode): number | null {
+function measureValue(node: MapNode, mode: MeasureMode): number | null {
   return node.metrics ? (node.metrics[mode] ?? null) : null;
 }
 
@@ -151,7 +151,7 @@ export type Legend =
   | { kind: "ramp"; title: string; stops: string[]; ticks: { t: number; label: string }[]; note: string }
   | { kind: "categories"; title: string; items: { label: string; colour: string }[]; note: string | null };
 
-export function formatMeasure(mode: MeasureMode, v: number): string {
+function formatMeasure(mode: MeasureMode, v: number): string {
   if (mode === "betweenness") return `${(v * 100).toFixed(v * 100 < 10 ? 1 : 0)}%`;
   return Math.round(v).toString();
 }

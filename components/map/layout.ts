@@ -6,13 +6,13 @@ import type { PinnedPositions, Position } from "./types";
 import type { MapView, ViewEdge, ViewGroup, ViewItem } from "./view";
 
 // ELK plumbing is shared with the worker, which lays the estate out after each analysis.
-export { LOW_THOROUGHNESS_ABOVE, buildElkGraph, elkRootOptions, layoutInputFromView, readElkLayout, type Box, type LayoutInput, type LayoutResult } from "@/lib/map/elk";
+export {  buildElkGraph,  layoutInputFromView, readElkLayout, type Box, type LayoutInput, type LayoutResult } from "@/lib/map/elk";
 import type { Box } from "@/lib/map/elk";
 
-export type ComponentFlowData = { item: Extract<ViewItem, { type: "component" }>; pinned: boolean };
-export type TeamFlowData = { item: Extract<ViewItem, { type: "team" }> };
-export type GroupFlowData = { group: ViewGroup };
-export type EdgeFlowData = {
+type ComponentFlowData = { item: Extract<ViewItem, { type: "component" }>; pinned: boolean };
+type TeamFlowData = { item: Extract<ViewItem, { type: "team" }> };
+type GroupFlowData = { group: ViewGroup };
+type EdgeFlowData = {
   edge: ViewEdge;
   route: Position[] | null;
   /** handle points at layout time (bottom-centre of source, top-centre of target); a moved node no longer matches */

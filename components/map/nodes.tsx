@@ -122,7 +122,7 @@ export const ComponentNode = memo(function ComponentNode(props: NodeProps<Compon
   );
 });
 
-export const TeamNode = memo(function TeamNode(props: NodeProps<TeamFlowNode>) {
+const TeamNode = memo(function TeamNode(props: NodeProps<TeamFlowNode>) {
   const decor = useDecor();
   const { item } = props.data;
   const fill = decor.palette.mode === "team" ? (decor.palette.teamColours.get(item.team) ?? "var(--pp-raised)") : "var(--pp-raised)";
@@ -160,7 +160,7 @@ export const TeamNode = memo(function TeamNode(props: NodeProps<TeamFlowNode>) {
   );
 });
 
-export const GroupNode = memo(function GroupNode(props: NodeProps<GroupFlowNode>) {
+const GroupNode = memo(function GroupNode(props: NodeProps<GroupFlowNode>) {
   const decor = useDecor();
   const { group } = props.data;
   const colour = decor.palette.mode === "team" ? decor.palette.teamColours.get(group.team) : undefined;
@@ -184,7 +184,7 @@ export const GroupNode = memo(function GroupNode(props: NodeProps<GroupFlowNode>
   );
 });
 
-export const RoutedEdge = memo(function RoutedEdge(props: EdgeProps<MapFlowEdge>) {
+const RoutedEdge = memo(function RoutedEdge(props: EdgeProps<MapFlowEdge>) {
   const decor = useDecor();
   const data = props.data;
   const edge = data?.edge;

@@ -2,7 +2,7 @@
 // Each kind also carries a text label on the node, so shape is never the only cue.
 import type { ComponentKind } from "@/lib/inventory/types";
 
-export { GROUP_HEADER, NODE_H, NODE_W, TEAM_NODE_H, TEAM_NODE_W } from "@/lib/map/elk";
+export {  NODE_H, NODE_W,  TEAM_NODE_W } from "@/lib/map/elk";
 
 export interface ShapePaths {
   /** outline, filled and stroked */

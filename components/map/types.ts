@@ -3,7 +3,7 @@
 import type { ComponentKind } from "@/lib/inventory/types";
 import type { MapNode } from "@/lib/api/schemas/map";
 
-export { MAP_KINDS, mapEdgeSchema, mapGraphSchema, mapNodeSchema, type MapEdge, type MapGraph, type MapMetrics, type MapNode } from "@/lib/api/schemas/map";
+export { MAP_KINDS,  mapGraphSchema,  type MapEdge, type MapGraph, type MapMetrics, type MapNode } from "@/lib/api/schemas/map";
 
 // Compile-time guard: the schema's kind must stay the inventory's ComponentKind.
 type Same<A, B> = [A] extends [B] ? ([B] extends [A] ? true : false) : false;

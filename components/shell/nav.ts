@@ -39,8 +39,6 @@ export const MORE_NAV: NavItem[] = [
 // Architects reach the audit log here; admins everything else as well. Shown apart from the role.
 export const ADMIN_NAV: NavItem = { label: "Admin", href: () => "/admin", match: (p) => p.startsWith("/admin"), permission: "reviews:write" };
 
-export const NAV: NavItem[] = [...PRIMARY_NAV, ...MORE_NAV, ADMIN_NAV];
-
 export function envFromPath(path: string, fallback: string): string {
   const segment = /^\/environments\/([^/?#]+)/.exec(path)?.[1];
   return segment && SLUG_PATTERN.test(segment) ? segment : fallback;

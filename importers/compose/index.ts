@@ -3,7 +3,6 @@
 // `project.ts` builds the merged Compose model the way Compose would, `graph.ts` reads the
 // components and needs out of it; see both for the rules and importers/README.md for the list.
 import { SOURCE_PATTERN, type ImportFile, type ImportResult, type InventoryIssue } from "@/lib/inventory/types";
-import { checkedText } from "../shared/body";
 import { checkOrigin } from "../shared/origin";
 import { finishIssues } from "../shared/text";
 import { buildGraph } from "./graph";
@@ -18,12 +17,6 @@ export interface ComposeOptions {
   positions?: boolean;
   files?: ImportFile[];
   profiles?: string[];
-}
-
-export function importCompose(opts: ComposeOptions): ImportResult {
-  const text = checkedText(opts.files && opts.files.length > 0 ? "" : opts.body);
-  if (!text.ok) return text;
-  return parseCompose({ ...opts, text: text.text });
 }
 
 export function parseCompose(opts: Omit<ComposeOptions, "body"> & { text: string }): ImportResult {

@@ -5,7 +5,7 @@
 // `postgres-exporter` is telemetry, not a datastore. `x-pinchpoint: { kind: … }` overrides the guess.
 import type { DeclaredKind } from "@/lib/inventory/types";
 
-export const IMAGE_KINDS: readonly { kind: DeclaredKind; names: readonly string[]; why: string }[] = [
+const IMAGE_KINDS: readonly { kind: DeclaredKind; names: readonly string[]; why: string }[] = [
   {
     kind: "telemetry",
     why: "a trace, metric or log collector or agent",
@@ -37,7 +37,7 @@ export const IMAGE_KINDS: readonly { kind: DeclaredKind; names: readonly string[
 ];
 
 /** The repository name's last path part, lower-cased, without registry, tag or digest. */
-export function imageName(image: string): string {
+function imageName(image: string): string {
   const noDigest = image.split("@")[0] ?? image;
   const parts = noDigest.toLowerCase().split("/");
   let last = parts[parts.length - 1] ?? "";

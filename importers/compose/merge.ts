@@ -44,7 +44,7 @@ export class Origins {
   }
 }
 
-export type Tagged = (where: Where) => "reset" | "override" | null;
+type Tagged = (where: Where) => "reset" | "override" | null;
 
 export const isPlainObject = (v: unknown): v is Record<string, unknown> => typeof v === "object" && v !== null && !Array.isArray(v);
 
@@ -158,7 +158,7 @@ export interface MergeContext {
  * attribute the values belong to (for the exceptions), `inService` whether that is a service's own
  * attribute.
  */
-export function mergeValues(base: unknown, over: unknown, ctx: MergeContext, field = "", inService = false): unknown {
+function mergeValues(base: unknown, over: unknown, ctx: MergeContext, field = "", inService = false): unknown {
   if (isPlainObject(base) && isPlainObject(over)) return mergeMaps(base, over, ctx, field);
   if (Array.isArray(base) && Array.isArray(over)) {
     if (inService && REPLACED.has(field)) return over;

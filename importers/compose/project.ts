@@ -18,7 +18,7 @@ export interface PushedFile {
   text: string;
 }
 
-export interface YamlFile {
+interface YamlFile {
   index: number;
   /** The name the push gave it; null for a single-document body. */
   name: string | null;
@@ -51,7 +51,7 @@ export type ProjectResult = { ok: true; project: Project } | { ok: false; status
 const ENV_NAME = /(^|\/)(\.env(\..*)?|[^/]*\.env)$/;
 
 /** `./a/../b.yaml` → `b.yaml`: enough to match the names a push gives with the paths files write. */
-export function normaliseName(name: string): string {
+function normaliseName(name: string): string {
   const out: string[] = [];
   for (const part of name.replace(/\\/g, "/").split("/")) {
     if (part === "" || part === ".") continue;

@@ -14,11 +14,11 @@ import {
   TierSchema,
 } from "@/lib/inventory/schema";
 
-export const DEPENDS_ON_CONDITIONS = ["service_started", "service_healthy", "service_completed_successfully"] as const;
+const DEPENDS_ON_CONDITIONS = ["service_started", "service_healthy", "service_completed_successfully"] as const;
 
 const ServiceNameSchema = z.string({ error: "a service name must be a string" }).min(1, { error: "empty service name" });
 
-export const DependsOnSchema = z.union([
+const DependsOnSchema = z.union([
   z.array(ServiceNameSchema),
   z.record(
     z.string(),
@@ -68,7 +68,7 @@ const AnyOfSchema = z.union([
 ]);
 
 /** `x-pinchpoint` on a service: what Compose cannot say about it. */
-export const ServiceExtensionSchema = z
+const ServiceExtensionSchema = z
   .strictObject(
     {
       name: LabelSchema("name").optional(),
@@ -89,11 +89,11 @@ export const ServiceExtensionSchema = z
   .nullable();
 
 /** `x-pinchpoint` at the top of the file: who declares the project and who owns it by default. */
-export const ProjectExtensionSchema = z
+const ProjectExtensionSchema = z
   .strictObject({ source: SourceSchema.optional(), team: TeamSlugSchema.nullable().optional() }, { error: "x-pinchpoint must be a mapping" })
   .nullable();
 
-export const ComposeServiceSchema = z.looseObject({
+const ComposeServiceSchema = z.looseObject({
   image: z.string({ error: "image must be a string" }).optional(),
   depends_on: DependsOnSchema.optional(),
   links: z.array(z.string({ error: 'a link must be a string like "db" or "db:alias"' })).optional(),
@@ -133,9 +133,3 @@ export const ComposeFileSchema = z.looseObject({
 
 export type ServiceExtension = NonNullable<z.infer<typeof ServiceExtensionSchema>>;
 export type ProjectExtension = NonNullable<z.infer<typeof ProjectExtensionSchema>>;
-
-/** Which branch of a list-or-mapping union an input was meant for. */
-export function dependsOnBranch(input: unknown): 0 | 1 | null {
-  if (Array.isArray(input)) return 0;
-  return typeof input === "object" && input !== null ? 1 : null;
-}

@@ -15,7 +15,6 @@ import { KindSchema, TeamSlugSchema, TierSchema } from "@/lib/inventory/schema";
 import type { DeclaredKind, ImportResult, InventoryComponent, InventoryIssue, Need, Strength, Tier } from "@/lib/inventory/types";
 import { KEY_PATTERN, strongerStrength } from "@/lib/inventory/types";
 import { MAX_COMPONENTS } from "@/lib/inventory/limits";
-import { checkedText } from "../shared/body";
 import { checkOrigin } from "../shared/origin";
 import { finishIssues } from "../shared/text";
 import { type CsvField, parseCsvRecords, sniffDelimiter } from "./parse-csv";
@@ -49,12 +48,6 @@ export interface CsvOptions {
   body: string | Uint8Array;
   source?: string;
   environment?: string;
-}
-
-export function importCsv(opts: CsvOptions): ImportResult {
-  const text = checkedText(opts.body);
-  if (!text.ok) return text;
-  return parseCsv({ ...opts, text: text.text });
 }
 
 interface Component {

@@ -12,7 +12,7 @@ export interface CsvField {
   quoted: boolean;
 }
 
-export type CsvRecord = CsvField[];
+type CsvRecord = CsvField[];
 
 export type CsvParse = { ok: true; records: CsvRecord[] } | { ok: false; line: number; column: number; message: string };
 

@@ -29,7 +29,6 @@
 import { MAX_COMPONENTS } from "@/lib/inventory/limits";
 import type { DeclaredKind, ImportResult, InventoryComponent, InventoryIssue, KubernetesImportOptions, Need, Tier } from "@/lib/inventory/types";
 import { COMPONENT_KINDS, KEY_PATTERN } from "@/lib/inventory/types";
-import { checkedText } from "../shared/body";
 import { checkOrigin } from "../shared/origin";
 import { isRecord, type Position } from "../shared/structured";
 import { finishIssues, formatPath, type PathSegment } from "../shared/text";
@@ -68,12 +67,6 @@ export interface KubernetesOptions {
   contentType?: string;
   positions?: boolean;
   settings?: KubernetesImportOptions;
-}
-
-export function importKubernetes(opts: KubernetesOptions): ImportResult {
-  const text = checkedText(opts.body);
-  if (!text.ok) return text;
-  return parseKubernetes({ ...opts, text: text.text });
 }
 
 const ZONE_KEYS = ["topology.kubernetes.io/zone", "failure-domain.beta.kubernetes.io/zone"];

@@ -23,7 +23,7 @@ import { findExcessiveNesting } from "../shared/nesting";
 import { isRecord, type Position, type StructuredSource } from "../shared/structured";
 import { lineIndex, type PathSegment } from "../shared/text";
 
-export const LAST_APPLIED = "kubectl.kubernetes.io/last-applied-configuration";
+const LAST_APPLIED = "kubectl.kubernetes.io/last-applied-configuration";
 
 /** One Kubernetes object of the push and the path that reaches it (`documents[2]`, `items[5]`). */
 export interface ManifestObject {

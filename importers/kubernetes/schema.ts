@@ -9,7 +9,7 @@ import { z } from "zod";
 const Name = z.string({ error: "a name must be a string" }).min(1, { error: "empty name" });
 const StringMap = (what: string) => z.record(z.string(), z.string({ error: `${what} values must be strings (quote numbers and booleans)` }));
 
-export const ObjectMetaSchema = z.looseObject({
+const ObjectMetaSchema = z.looseObject({
   name: Name,
   namespace: Name.optional(),
   labels: StringMap("label").nullable().optional(),
@@ -18,7 +18,7 @@ export const ObjectMetaSchema = z.looseObject({
 });
 
 /** metav1.LabelSelector: matchLabels AND every matchExpressions requirement. */
-export const LabelSelectorSchema = z.looseObject({
+const LabelSelectorSchema = z.looseObject({
   matchLabels: StringMap("matchLabels").nullable().optional(),
   matchExpressions: z
     .array(
@@ -35,7 +35,7 @@ export type LabelSelector = z.infer<typeof LabelSelectorSchema>;
 
 const KeyRef = z.looseObject({ name: z.string().optional(), key: z.string() });
 
-export const EnvVarSchema = z.looseObject({
+const EnvVarSchema = z.looseObject({
   name: z.string({ error: "an env entry needs a name" }),
   value: z.string({ error: "env values must be strings (quote numbers and booleans)" }).nullable().optional(),
   valueFrom: z.looseObject({ configMapKeyRef: KeyRef.nullable().optional(), secretKeyRef: KeyRef.nullable().optional() }).nullable().optional(),
@@ -43,7 +43,7 @@ export const EnvVarSchema = z.looseObject({
 
 const NameRef = z.looseObject({ name: z.string().optional() });
 
-export const ContainerSchema = z.looseObject({
+const ContainerSchema = z.looseObject({
   name: z.string().optional(),
   command: z.array(z.string({ error: "command entries must be strings" })).nullable().optional(),
   args: z.array(z.string({ error: "args entries must be strings" })).nullable().optional(),
@@ -58,7 +58,7 @@ const NodeSelectorTerm = z.looseObject({
   matchExpressions: z.array(z.looseObject({ key: z.string(), operator: z.string(), values: z.array(z.string()).nullable().optional() })).nullable().optional(),
 });
 
-export const PodSpecSchema = z.looseObject({
+const PodSpecSchema = z.looseObject({
   containers: z.array(ContainerSchema, { error: "containers must be a list" }).nullable().optional(),
   initContainers: z.array(ContainerSchema).nullable().optional(),
   nodeSelector: StringMap("nodeSelector").nullable().optional(),
@@ -81,7 +81,7 @@ export const PodSpecSchema = z.looseObject({
 });
 export type PodSpec = z.infer<typeof PodSpecSchema>;
 
-export const PodTemplateSchema = z.looseObject({
+const PodTemplateSchema = z.looseObject({
   metadata: z.looseObject({ labels: StringMap("label").nullable().optional(), annotations: StringMap("annotation").nullable().optional() }).nullable().optional(),
   spec: PodSpecSchema,
 });
@@ -90,20 +90,20 @@ const Replicas = z.int({ error: (iss) => `invalid replicas ${JSON.stringify(iss.
 
 const object = <S extends z.core.$ZodLooseShape>(spec: S) => z.looseObject({ apiVersion: z.string(), kind: z.string(), metadata: ObjectMetaSchema, ...spec });
 
-export const DeploymentSchema = object({
+const DeploymentSchema = object({
   spec: z.looseObject({ replicas: Replicas.nullable().optional(), selector: LabelSelectorSchema.nullable().optional(), template: PodTemplateSchema, serviceName: z.string().optional() }),
 });
-export const DaemonSetSchema = object({
+const DaemonSetSchema = object({
   spec: z.looseObject({ selector: LabelSelectorSchema.nullable().optional(), template: PodTemplateSchema }),
   status: z.looseObject({ desiredNumberScheduled: z.int().optional() }).nullable().optional(),
 });
-export const JobSchema = object({ spec: z.looseObject({ parallelism: Replicas.nullable().optional(), template: PodTemplateSchema }) });
-export const CronJobSchema = object({
+const JobSchema = object({ spec: z.looseObject({ parallelism: Replicas.nullable().optional(), template: PodTemplateSchema }) });
+const CronJobSchema = object({
   spec: z.looseObject({ schedule: z.string().optional(), jobTemplate: z.looseObject({ spec: z.looseObject({ parallelism: Replicas.nullable().optional(), template: PodTemplateSchema }) }) }),
 });
-export const PodSchema = object({ spec: PodSpecSchema });
+const PodSchema = object({ spec: PodSpecSchema });
 
-export const ServiceSchema = object({
+const ServiceSchema = object({
   spec: z
     .looseObject({
       type: z.string().optional(),
@@ -117,7 +117,7 @@ export const ServiceSchema = object({
 
 /** networking.k8s.io/v1 `service: {name}`; the older extensions/v1beta1 `serviceName` is read too. */
 const IngressBackend = z.looseObject({ service: z.looseObject({ name: z.string() }).nullable().optional(), serviceName: z.string().optional() });
-export const IngressSchema = object({
+const IngressSchema = object({
   spec: z
     .looseObject({
       defaultBackend: IngressBackend.nullable().optional(),
@@ -138,27 +138,27 @@ export const IngressSchema = object({
 
 const ParentRef = z.looseObject({ group: z.string().optional(), kind: z.string().optional(), namespace: z.string().optional(), name: z.string() });
 const BackendRef = z.looseObject({ group: z.string().optional(), kind: z.string().optional(), namespace: z.string().optional(), name: z.string(), weight: z.int().optional() });
-export const GatewaySchema = object({ spec: z.looseObject({ gatewayClassName: z.string().optional() }).nullable().optional() });
-export const RouteSchema = object({
+const GatewaySchema = object({ spec: z.looseObject({ gatewayClassName: z.string().optional() }).nullable().optional() });
+const RouteSchema = object({
   spec: z.looseObject({
     parentRefs: z.array(ParentRef).nullable().optional(),
     rules: z.array(z.looseObject({ backendRefs: z.array(BackendRef).nullable().optional() })).nullable().optional(),
   }),
 });
 
-export const HpaSchema = object({
+const HpaSchema = object({
   spec: z.looseObject({
     scaleTargetRef: z.looseObject({ kind: z.string(), name: z.string() }),
     minReplicas: z.int({ error: "minReplicas must be a whole number" }).min(1, { error: "minReplicas must be at least 1" }).nullable().optional(),
   }),
 });
-export const PdbSchema = object({ spec: z.looseObject({ selector: LabelSelectorSchema.nullable().optional() }).nullable().optional() });
-export const ConfigMapSchema = object({ data: z.record(z.string(), z.string({ error: "ConfigMap data values must be strings" })).nullable().optional() });
+const PdbSchema = object({ spec: z.looseObject({ selector: LabelSelectorSchema.nullable().optional() }).nullable().optional() });
+const ConfigMapSchema = object({ data: z.record(z.string(), z.string({ error: "ConfigMap data values must be strings" })).nullable().optional() });
 /** Values were dropped while parsing (load.ts); only the object's name matters here. */
-export const SecretSchema = object({});
-export const NamespaceSchema = object({});
-export const NodeSchema = object({});
-export const NetworkPolicySchema = object({ spec: z.looseObject({ podSelector: LabelSelectorSchema.nullable().optional() }).nullable().optional() });
+const SecretSchema = object({});
+const NamespaceSchema = object({});
+const NodeSchema = object({});
+const NetworkPolicySchema = object({ spec: z.looseObject({ podSelector: LabelSelectorSchema.nullable().optional() }).nullable().optional() });
 
 /**
  * Kinds read, by API group (the part of apiVersion before `/`; "" for core/v1). A kind under

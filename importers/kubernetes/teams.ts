@@ -17,7 +17,7 @@ import type { Labels } from "./selectors";
 
 /** The annotation prefix of everything Pinchpoint reads from a manifest: team, tier, kind, needs. */
 export const PINCHPOINT_ANNOTATION = "pinchpoint/";
-export const DEFAULT_TEAM_KEY = "team";
+const DEFAULT_TEAM_KEY = "team";
 
 export interface Settings {
   clusterDomain: string;

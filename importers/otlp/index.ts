@@ -5,7 +5,6 @@
 import type { ImportResult, InventoryIssue, ObservedEdge } from "@/lib/inventory/types";
 import { TraceFold, type FoldStats } from "@/lib/traces/fold";
 import { describeRejects, noRejects, type RejectedSpans } from "@/lib/traces/types";
-import { checkedText } from "../shared/body";
 import { checkOrigin } from "../shared/origin";
 import { loadStructured } from "../shared/structured";
 import { finishIssues, type PathSegment } from "../shared/text";
@@ -19,12 +18,6 @@ export interface OtlpOptions {
   body: string | Uint8Array;
   source?: string;
   environment?: string;
-}
-
-export function importOtlp(opts: OtlpOptions): ImportResult {
-  const text = checkedText(opts.body);
-  if (!text.ok) return text;
-  return parseOtlp({ ...opts, text: text.text });
 }
 
 /**

@@ -55,7 +55,7 @@ const ZEROES = /^0+$/;
  * the plain protobuf JSON mapping) is case-sensitive, so it is kept exactly as written.
  * Returns null for an id the specification calls invalid (wrong length, all zeroes, empty).
  */
-export function canonicalId(raw: string, bytes: 16 | 8): string | null {
+function canonicalId(raw: string, bytes: 16 | 8): string | null {
   if (raw.length === 0) return null;
   if (!HEX.test(raw)) return raw;
   if (raw.length !== bytes * 2 || ZEROES.test(raw)) return null;

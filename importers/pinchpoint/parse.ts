@@ -31,8 +31,8 @@ export interface ParsePinchpointOptions {
   positions?: boolean;
 }
 
-export const DEFAULT_TIER = 3;
-export const DEFAULT_REPLICAS = 1;
+const DEFAULT_TIER = 3;
+const DEFAULT_REPLICAS = 1;
 
 export function parsePinchpoint(opts: ParsePinchpointOptions): ImportResult {
   const loaded = loadStructured(opts.text, {

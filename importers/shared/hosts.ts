@@ -43,7 +43,7 @@ function authorityHosts(rest: string): string[] {
 }
 
 /** Every plausible host name in a configuration value, lower-cased, in order of appearance, without repeats. */
-export function hostsIn(value: string): string[] {
+function hostsIn(value: string): string[] {
   const found: string[] = [];
   const add = (h: string | null) => {
     if (h !== null && !found.includes(h)) found.push(h);
@@ -77,7 +77,7 @@ export function hostsIn(value: string): string[] {
  * The same for `;`-separated connection strings whose keys contain spaces ("Data Source=db"):
  * split on `;` only, so the key keeps its space.
  */
-export function hostsInConnectionString(value: string): string[] {
+function hostsInConnectionString(value: string): string[] {
   const found: string[] = [];
   for (const part of value.split(";")) {
     const eq = part.indexOf("=");

@@ -26,13 +26,13 @@ const ParseErrorCode = {
 } as const;
 type ParseErrorCode = (typeof ParseErrorCode)[keyof typeof ParseErrorCode];
 
-export interface JsonSyntaxError {
+interface JsonSyntaxError {
   offset: number;
   message: string;
 }
 
 /** A member name repeated in one object: JSON.parse keeps the last silently; we refuse it. */
-export interface JsonDuplicateKey {
+interface JsonDuplicateKey {
   offset: number;
   path: (string | number)[];
   key: string;

@@ -9,7 +9,7 @@ import { findExcessiveNesting } from "./nesting";
 import type { CountLimit, Loaded, StructuredSource } from "./source";
 import { formatPath, lineIndex } from "./text";
 
-export { isRecord, type CountLimit, type Loaded, type Position, type StructuredSource } from "./source";
+export { isRecord, type Loaded, type Position, type StructuredSource } from "./source";
 
 /** JSON when the first significant character opens an object or array; YAML otherwise. */
 export function looksLikeJson(text: string, contentType?: string): boolean {

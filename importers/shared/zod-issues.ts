@@ -60,7 +60,7 @@ function typeMatchedBranch(errors: readonly (readonly ZodIssue[])[]): number | n
   return fitting.length === 1 ? (fitting[0] ?? null) : null;
 }
 
-export function valueAt(value: unknown, path: readonly PathSegment[]): unknown {
+function valueAt(value: unknown, path: readonly PathSegment[]): unknown {
   let v = value;
   for (const seg of path) {
     if (typeof v !== "object" || v === null || !Object.hasOwn(v, seg)) return undefined;

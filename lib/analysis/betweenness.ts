@@ -38,9 +38,9 @@ export interface BetweennessResult {
   threadsUsed: number;
 }
 
-export const DEFAULT_EXACT_LIMIT = 50_000;
-export const DEFAULT_SAMPLE_SIZE = 2048;
-export const DEFAULT_SEED = 0x5eed;
+const DEFAULT_EXACT_LIMIT = 50_000;
+const DEFAULT_SAMPLE_SIZE = 2048;
+const DEFAULT_SEED = 0x5eed;
 
 /**
  * Adds the dependencies of every source in sources[start..end) to `bc`. Self-contained on
@@ -48,7 +48,7 @@ export const DEFAULT_SEED = 0x5eed;
  * The forward BFS records each node's shortest-path successors in `succ` (grouped by BFS
  * position, starts in `succStart`), so the backward sweep reads only DAG edges, contiguously.
  */
-export function brandesAccumulate(
+function brandesAccumulate(
   offsets: Int32Array,
   targets: Int32Array,
   sources: Int32Array,

@@ -123,8 +123,6 @@ export class BlastPropagation {
 }
 
 
-export const TIER_WEIGHTS: Readonly<Record<1 | 2 | 3 | 4, number>> = { 1: 8, 2: 4, 3: 2, 4: 1 };
-
 export function tierWeight(tier: number): number {
   return tier === 1 ? 8 : tier === 2 ? 4 : tier === 3 ? 2 : 1;
 }

@@ -14,7 +14,7 @@
 import type { CompactGraph } from "./graph";
 import type { SccResult } from "./scc";
 
-export interface BootBreak {
+interface BootBreak {
   /** The dependent that must start first … */
   from: number;
   /** … without this need. */
@@ -23,7 +23,7 @@ export interface BootBreak {
   strength: number;
 }
 
-export interface BootCyclePlan {
+interface BootCyclePlan {
   /** Members in a suggested start order. */
   order: number[];
   /** Needs inside the cycle that this order breaks, blocking ones first; at most `maxBreaks`. */
@@ -88,7 +88,7 @@ export function bootOrder(graph: CompactGraph, components: SccResult): BootOrder
 const MAX_BREAKS = 200;
 
 /** Eades–Lin–Smyth order over the cycle's blocking needs, read as "need starts before dependent". */
-export function breakCycle(graph: CompactGraph, members: readonly number[], comp: Int32Array): BootCyclePlan {
+function breakCycle(graph: CompactGraph, members: readonly number[], comp: Int32Array): BootCyclePlan {
   const { offsets, targets } = graph.boot;
   const strength = graph.bootStrength;
   const k = members.length;

@@ -20,7 +20,7 @@ export interface DominatorTree {
   idom: Int32Array;
 }
 
-export interface EntryDominance {
+interface EntryDominance {
   entry: number;
   /** Components this one strictly dominates from that entry. */
   dominated: number;
@@ -219,19 +219,6 @@ export function dominatorTree(graph: CompactGraph, root: number): DominatorTree 
     idom[i - 1] = w.vertex[w.idom[i]!]!;
   }
   return { root, nodes, idom };
-}
-
-/** Immediate dominators from a virtual root above `roots`: −1 for the virtual root itself. */
-export function virtualRootDominators(graph: CompactGraph, roots: readonly number[]): Int32Array {
-  const w = makeWork(graph.n, graph.edgeCount, roots.length);
-  const aug = withVirtualRoot(graph, roots);
-  const { count } = dominatorsFrom(aug.offsets, aug.targets, graph.n, w);
-  const idom = new Int32Array(graph.n).fill(-1);
-  for (let i = 2; i <= count; i++) {
-    const d = w.vertex[w.idom[i]!]!;
-    idom[w.vertex[i]!] = d === graph.n ? -1 : d;
-  }
-  return idom;
 }
 
 export function dominators(graph: CompactGraph, options: DominatorOptions = {}): DominatorSummary {

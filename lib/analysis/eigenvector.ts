@@ -30,7 +30,7 @@ export interface EigenvectorOptions {
   fillLimit?: number;
 }
 
-export type EigenvectorMethod = "exact" | "lanczos" | "shift-invert";
+type EigenvectorMethod = "exact" | "lanczos" | "shift-invert";
 
 export interface EigenvectorResult {
   values: Float64Array;

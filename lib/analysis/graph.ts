@@ -15,7 +15,7 @@ export interface Csr {
  * Needs as the blast radius sees them. Every need is a group: a plain need is a group of one,
  * an any_of need a group of its distinct members. A group is unmet when every member is down.
  */
-export interface NeedIndex {
+interface NeedIndex {
   count: number;
   owner: Int32Array;
   /** 1 = hard (owner goes down when unmet), 0 = soft (owner degraded). */

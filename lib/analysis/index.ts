@@ -28,20 +28,8 @@ import type { Strength } from "../inventory/types";
 
 export * from "./types";
 export { buildGraph, type CompactGraph } from "./graph";
-export { betweenness, betweennessParallel } from "./betweenness";
-export { pagerank } from "./pagerank";
-export { eigenvector } from "./eigenvector";
-export { clustering } from "./clustering";
-export { articulation } from "./articulation";
-export { scc } from "./scc";
-export { bootOrder } from "./boot-order";
-export { dominators, dominatorTree, entryRoots, passesThrough, virtualRootDominators } from "./dominators";
-export { competitionRanks } from "./ranks";
-export { blastRadius, failedByZones, singleFailureBlastByPropagation, TIER_WEIGHTS } from "./blast-radius";
-export { singleFailureBlast } from "./single-failures";
-export { pinchScores, isSinglePoint } from "./pinch-score";
-export { drill, type DrillRequest, type DrillResult } from "./drill";
-export { probableOrigin, type OriginResult, type OriginCandidate } from "./origin";
+export { passesThrough } from "./dominators";
+export { drill, type DrillRequest } from "./drill";
 
 const STRENGTH_OF_CODE: Record<number, Strength> = { 3: "hard", 2: "startup", 1: "soft" };
 

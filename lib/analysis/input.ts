@@ -3,7 +3,7 @@
 // view picks which needs take part at all.
 import { OBSERVED_SOURCE } from "../inventory/observed";
 import { provenanceOf, type SnapshotContent, type SnapshotDependency } from "../inventory/snapshot";
-import type { AnalysisView, EnvironmentSettings } from "../inventory/settings";
+import type { EnvironmentSettings } from "../inventory/settings";
 import type { Strength } from "../inventory/types";
 import type { AnalysisInput } from "./types";
 
@@ -21,21 +21,10 @@ export function effectiveStrength(d: Pick<SnapshotDependency, "strength" | "prov
 }
 
 /** Whether a need takes part in the chosen view; `null` (both, or whichever exists) keeps every need. */
-export function inView(d: Pick<SnapshotDependency, "provenance">, view: AnalysisSettings["analysisView"]): boolean {
+function inView(d: Pick<SnapshotDependency, "provenance">, view: AnalysisSettings["analysisView"]): boolean {
   if (view === null || view === "both") return true;
   const p = provenanceOf(d);
   return view === "observed" ? p.includes("observed") : p.some((x) => x !== "observed");
-}
-
-/**
- * The view a graph is analysed on: the setting, or when unset `both` if the graph has declared and
- * observed parts, else the one it has. Screens and API responses say which (DESIGN §10).
- */
-export function resolvedView(content: SnapshotContent, view: AnalysisSettings["analysisView"]): AnalysisView {
-  if (view !== null) return view;
-  const observed = content.dependencies.some((d) => provenanceOf(d).includes("observed"));
-  const declared = content.components.some((c) => c.source !== null && c.source !== OBSERVED_SOURCE);
-  return observed && declared ? "both" : observed ? "observed" : "declared";
 }
 
 export function analysisInputFromContent(content: SnapshotContent, settings: AnalysisSettings = DEFAULT_ANALYSIS_SETTINGS): AnalysisInput {

@@ -31,14 +31,14 @@ import { BlastPropagation, failedByZones, tierWeight } from "./blast-radius";
 import type { CompactGraph } from "./graph";
 import { pagerank } from "./pagerank";
 
-export interface Explanation {
+interface Explanation {
   /** Firing components down or degraded when this alone fails (a firing candidate itself included), sorted. */
   explains: string[];
   /** Of `explains`, the ones only degraded (a soft need unmet), sorted. */
   degraded: string[];
 }
 
-export interface OriginCandidate extends Explanation {
+interface OriginCandidate extends Explanation {
   key: string;
   /** Of `explains`, the ones not already explained by an earlier pick of the cover. */
   newlyExplained: string[];
@@ -46,7 +46,7 @@ export interface OriginCandidate extends Explanation {
   predicted: { down: string[]; degraded: string[] };
 }
 
-export interface SilentSuspect extends Explanation {
+interface SilentSuspect extends Explanation {
   kind: "component" | "zone";
   /** Component key or zone name. */
   key: string;
@@ -54,13 +54,13 @@ export interface SilentSuspect extends Explanation {
   predicted: { down: number; degraded: number };
 }
 
-export interface JointExplanation {
+interface JointExplanation {
   key: string;
   /** The members of its unmet needs when every other firing component fails. */
   by: string[];
 }
 
-export interface RankedFiring {
+interface RankedFiring {
   key: string;
   /** Firing components its failure explains, itself included. */
   explains: number;

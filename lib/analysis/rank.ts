@@ -14,7 +14,7 @@ type Ranked = Pick<NodeMetrics, "key" | "betweenness" | "pinchScore">;
  */
 const settle = significant;
 
-export function rankedByBetweenness<T extends Ranked>(nodes: readonly T[]): T[] {
+function rankedByBetweenness<T extends Ranked>(nodes: readonly T[]): T[] {
   return nodes
     .map((n) => ({ n, b: settle(n.betweenness), p: settle(n.pinchScore) }))
     .sort((x, y) => y.b - x.b || y.p - x.p || x.n.key.localeCompare(y.n.key))

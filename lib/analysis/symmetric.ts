@@ -21,7 +21,7 @@ import type { Csr } from "./graph";
  * diagonal `diag` and off-diagonal `off` (off[i] couples i and i+1). Column j of the returned
  * row-major m×m matrix is the eigenvector of values[j].
  */
-export function tridiagonalEigen(diag: Float64Array, off: Float64Array): { values: Float64Array; vectors: Float64Array } {
+function tridiagonalEigen(diag: Float64Array, off: Float64Array): { values: Float64Array; vectors: Float64Array } {
   const m = diag.length;
   const d = Float64Array.from(diag);
   const e = new Float64Array(m);
@@ -89,7 +89,7 @@ export function tridiagonalEigen(diag: Float64Array, off: Float64Array): { value
 }
 
 /** y = A x for the 0/1 adjacency `g` (rows in CSR). */
-export function multiply(g: Csr, x: Float64Array, y: Float64Array): void {
+function multiply(g: Csr, x: Float64Array, y: Float64Array): void {
   const { offsets, targets } = g;
   const n = offsets.length - 1;
   for (let v = 0; v < n; v++) {
@@ -124,7 +124,7 @@ export interface Eigenpair {
   products?: number;
 }
 
-export function residualOf(g: Csr, x: Float64Array, value: number): number {
+function residualOf(g: Csr, x: Float64Array, value: number): number {
   const ax = new Float64Array(x.length);
   multiply(g, x, ax);
   let s = 0;
@@ -340,14 +340,14 @@ export function symbolicLdl(g: Csr, fillLimit: number): Factorisation | null {
 }
 
 /** Numeric LDLᵀ of σI − A; null when a pivot is not positive (σ ≤ λ₁). */
-export interface Ldl {
+interface Ldl {
   /** Pivot of the k-th eliminated node. */
   d: Float64Array;
   /** L entries aligned with colTargets. */
   l: Float64Array;
 }
 
-export function numericLdl(f: Factorisation, sigma: number, work?: { diag: Float64Array; val: Float64Array }): Ldl | null {
+function numericLdl(f: Factorisation, sigma: number, work?: { diag: Float64Array; val: Float64Array }): Ldl | null {
   const { n, order, colOffsets, colEntry, pairOffsets, pairs } = f;
   const diag = work?.diag ?? new Float64Array(n);
   const val = work?.val ?? new Float64Array(f.entries);
@@ -380,7 +380,7 @@ export function numericLdl(f: Factorisation, sigma: number, work?: { diag: Float
 }
 
 /** Solves (σI − A) x = b in place with the factor. */
-export function solveLdl(f: Factorisation, ldl: Ldl, b: Float64Array): void {
+function solveLdl(f: Factorisation, ldl: Ldl, b: Float64Array): void {
   const { n, order, colOffsets, colTargets } = f;
   const { d, l } = ldl;
   for (let k = 0; k < n; k++) {

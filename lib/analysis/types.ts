@@ -66,7 +66,7 @@ export const analysisOptionsSchema = z.strictObject({
 
 export type AnalysisOptions = z.infer<typeof analysisOptionsSchema>;
 
-export interface DominatorInfo {
+interface DominatorInfo {
   /** Entry components (tier 1, no dependents; not this one) that reach this component. */
   reachedFrom: number;
   /** Of those, how many it strictly dominates at least one component from: every path from that entry to something passes through it. */
@@ -86,12 +86,12 @@ export const RANKED_MEASURES = ["betweenness", "pagerank", "eigenvector", "pinch
 export type RankedMeasure = (typeof RANKED_MEASURES)[number];
 
 /** Competition rank (1, 2, 2, 4), rank 1 the highest value, and how many share it; rank null where the measure is withheld. */
-export interface RankWithTies {
+interface RankWithTies {
   rank: number | null;
   tied: number;
 }
 
-export type NodeRanks = Record<RankedMeasure, RankWithTies>;
+type NodeRanks = Record<RankedMeasure, RankWithTies>;
 
 export interface NodeMetrics {
   key: string;
@@ -119,7 +119,7 @@ export interface NodeMetrics {
   dominator: DominatorInfo;
 }
 
-export interface BootCycleResult {
+interface BootCycleResult {
   /** Members in a suggested start order. */
   order: string[];
   /** Needs to break first: the dependent starts before what it needs (soft ones start degraded). */
@@ -142,7 +142,7 @@ export type AnalysisPhase =
   | "done";
 
 /** Whether an iterative measure reached its tolerance; when not, its values are withheld. */
-export interface IterativeMeasureStatus {
+interface IterativeMeasureStatus {
   converged: boolean;
   /** "did not converge: …" when not converged, else null. */
   reason: string | null;

@@ -11,7 +11,7 @@ export function etagOf(...parts: readonly string[]): string {
 }
 
 /** Whether If-None-Match names this ETag (weak comparison, RFC 9110 §8.8.3.2). */
-export function matches(req: Request, etag: string): boolean {
+function matches(req: Request, etag: string): boolean {
   const header = req.headers.get("if-none-match");
   if (!header) return false;
   if (header.trim() === "*") return true;
@@ -19,7 +19,7 @@ export function matches(req: Request, etag: string): boolean {
   return header.split(",").some((t) => bare(t) === bare(etag));
 }
 
-export const CACHE_HEADERS = { "cache-control": "private, no-cache", vary: "authorization, cookie" } as const;
+const CACHE_HEADERS = { "cache-control": "private, no-cache", vary: "authorization, cookie" } as const;
 
 /** 304 when the client already holds this version, else null. */
 export function notModified(req: Request, etag: string): Response | null {

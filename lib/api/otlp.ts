@@ -25,7 +25,7 @@ export type OtlpEncoding = "json" | "protobuf";
 const gunzipAsync = promisify(gunzip);
 
 /** An OTLP failure: HTTP status, developer-facing message, optional BadRequest field violations. */
-export class OtlpHttpError extends Error {
+class OtlpHttpError extends Error {
   constructor(
     readonly status: number,
     message: string,
@@ -36,7 +36,7 @@ export class OtlpHttpError extends Error {
   }
 }
 
-export function encodingOf(contentType: string | null): OtlpEncoding | null {
+function encodingOf(contentType: string | null): OtlpEncoding | null {
   const type = (contentType ?? "").split(";")[0]!.trim().toLowerCase();
   if (type === "application/x-protobuf" || type === "application/protobuf") return "protobuf";
   if (type === "application/json") return "json";

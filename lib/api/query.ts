@@ -20,7 +20,7 @@ export function parseParams<T extends z.ZodType>(params: unknown, schema: T): z.
 }
 
 /** JSON bodies of the API are small; inventories have their own, larger limit (lib/api/body.ts). */
-export const MAX_JSON_BODY_BYTES = 1024 * 1024;
+const MAX_JSON_BODY_BYTES = 1024 * 1024;
 
 /** `application/json`, with or without parameters (`; charset=utf-8`). */
 function isJsonContentType(value: string | null): boolean {

@@ -20,8 +20,6 @@ export const RANKING_SORT_KEYS = [
 ] as const;
 export type RankingSort = (typeof RANKING_SORT_KEYS)[number];
 
-export const isRankingSort = (s: string | null): s is RankingSort => (RANKING_SORT_KEYS as readonly string[]).includes(s ?? "");
-
 /** Text columns read naturally A→Z; measures read biggest first. */
 const ASCENDING_FIRST: ReadonlySet<RankingSort> = new Set(["key", "name", "team", "kind", "tier", "rank"]);
 export const defaultRankingOrder = (sort: RankingSort): "asc" | "desc" => (ASCENDING_FIRST.has(sort) ? "asc" : "desc");

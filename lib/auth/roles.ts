@@ -3,14 +3,12 @@
 export const ROLES = ["admin", "architect", "lead", "engineer", "viewer"] as const;
 export type Role = (typeof ROLES)[number];
 
-export const PERMISSIONS = [
-  "read", // read everything, run drills
-  "inventory:write", // upload or push inventory
-  "components:annotate", // assign owners and write notes (leads: their own team's components)
-  "reviews:write", // risk reviews and pinch-score weights
-  "admin", // users, roles, tokens, environments
-] as const;
-export type Permission = (typeof PERMISSIONS)[number];
+export type Permission =
+  | "read" // read everything, run drills
+  | "inventory:write" // upload or push inventory
+  | "components:annotate" // assign owners and write notes (leads: their own team's components)
+  | "reviews:write" // risk reviews and pinch-score weights
+  | "admin"; // users, roles, tokens, environments
 
 const ROLE_PERMISSIONS: Record<Role, readonly Permission[]> = {
   viewer: ["read"],
@@ -22,10 +20,6 @@ const ROLE_PERMISSIONS: Record<Role, readonly Permission[]> = {
 
 export function roleHas(role: Role, permission: Permission): boolean {
   return ROLE_PERMISSIONS[role].includes(permission);
-}
-
-export function permissionsOf(role: Role): readonly Permission[] {
-  return ROLE_PERMISSIONS[role];
 }
 
 /** Token scopes (DESIGN §4): a token carries scopes, never a role. */

@@ -11,7 +11,7 @@ const SAFE_METHODS = new Set(["GET", "HEAD", "OPTIONS"]);
 export const isWriteMethod = (method: string): boolean => !SAFE_METHODS.has(method.toUpperCase());
 
 /** The app's own origin, from NEXTAUTH_URL (the address people open in their browser). */
-export function appOrigin(): string {
+function appOrigin(): string {
   try {
     return new URL(appUrl()).origin;
   } catch {

@@ -8,7 +8,7 @@ import type { ComponentKind, Strength, Tier } from "@/lib/inventory/types";
 import { rankedMeasureOf, type RankingSort } from "@/lib/api/ranking-sorts";
 import type { AnalysisSummary } from "./analysis-runs";
 
-export interface AnalysisStatusInfo {
+interface AnalysisStatusInfo {
   status: "queued" | "running" | "done" | "failed" | "none";
   progress: number;
   phase: string | null;
@@ -183,7 +183,7 @@ export const METRIC_COLUMNS =
   "betweenness, pagerank, eigenvector, clustering, blast_down, blast_degraded, pinch_score, articulation, in_cycle, single_point, entries_dominated, dominated_all";
 
 /** Sort key → the SQL column it orders by (the keys are lib/api/ranking-sorts.ts). */
-export const RANKING_SORTS: Record<RankingSort, string> = {
+const RANKING_SORTS: Record<RankingSort, string> = {
   betweenness: "m.betweenness",
   pagerank: "m.pagerank",
   eigenvector: "m.eigenvector",

@@ -6,7 +6,7 @@ import { orderOf } from "@/lib/api/schemas/common";
 import { AUDIT_LIST, type AuditEntry, type AuditPage, type AuditQuery } from "@/lib/api/schemas/reviews";
 import { containsPattern, orderSql } from "./list-sql";
 
-export type { AuditEntry, AuditPage };
+export type { AuditPage };
 
 const SORTS: Record<AuditQuery["sort"], string> = { at: "ae.created_at", action: "ae.action", actor: "ae.actor_label" };
 

@@ -8,7 +8,7 @@ import { COMPONENT_SELECT, toComponentListItem, type ComponentListItem, type Com
 import { notFound } from "@/lib/errors";
 import { trafficByPair, type Traffic } from "./trace-traffic";
 
-export interface ComponentEdge {
+interface ComponentEdge {
   key: string;
   name: string;
   kind: ComponentKind;

@@ -26,7 +26,7 @@ interface SliceRow {
   dependencies: SnapshotDependency[] | null;
 }
 
-export const COMPONENT_HISTORY_DEPTH = 30;
+const COMPONENT_HISTORY_DEPTH = 30;
 
 export async function getComponentHistory({ environmentId, key, depth = COMPONENT_HISTORY_DEPTH }: { environmentId: string; key: string; depth?: number }): Promise<{ scanned: number; items: ComponentHistoryEntry[] }> {
   // depth + 1 rows: the oldest one only serves as the "before" of the next.

@@ -11,14 +11,14 @@ import { proposeAliases } from "@/lib/traces/aliases";
 import { loadCurrentContent } from "./graph-content";
 import { observedTraffic, type Traffic } from "./trace-traffic";
 
-export interface ObservedSource {
+interface ObservedSource {
   source: string;
   lastSeenAt: string;
   /** distinct from→to pairs this source's traces showed within the window */
   edges: number;
 }
 
-export interface SeenNotDeclared extends Traffic {
+interface SeenNotDeclared extends Traffic {
   from: string;
   to: string;
   /** calls within the window (the same as `calls`; kept for older clients of this API) */
@@ -39,7 +39,7 @@ export interface SeenNotDeclared extends Traffic {
   snippet: string;
 }
 
-export interface DeclaredNotSeen {
+interface DeclaredNotSeen {
   from: string;
   to: string;
   strength: Strength;
@@ -50,7 +50,7 @@ export interface DeclaredNotSeen {
   anyOf: boolean;
 }
 
-export interface AliasProposalRow {
+interface AliasProposalRow {
   key: string;
   alias: string;
   reason: string;

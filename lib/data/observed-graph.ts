@@ -21,16 +21,16 @@ import { loadCurrentContent, writeSourceRows } from "./graph-content";
 import { insertSnapshot, latestSnapshot } from "./snapshot-insert";
 
 /** Wait this long after the last new pair before snapshotting, so a burst of new pairs makes one snapshot. */
-export const DEBOUNCE_MS = Number(process.env.PINCHPOINT_TRACE_DEBOUNCE_MS ?? 5_000);
+const DEBOUNCE_MS = Number(process.env.PINCHPOINT_TRACE_DEBOUNCE_MS ?? 5_000);
 /** ...but never longer than this after the first one. */
-export const MAX_DELAY_MS = 60_000;
+const MAX_DELAY_MS = 60_000;
 
 const EMPTY: SnapshotContent = { components: [], dependencies: [] };
 
 const windowStart = (days: number, now: Date): Date => new Date(now.getTime() - days * 86_400_000);
 
 /** The pairs seen within the window, one per (caller, callee) across sources. */
-export async function activeObservedPairs(
+async function activeObservedPairs(
   { environmentId, windowDays, now = new Date() }: { environmentId: string; windowDays: number; now?: Date },
   transaction?: Transaction,
 ): Promise<ObservedPair[]> {
@@ -44,7 +44,7 @@ export async function activeObservedPairs(
 }
 
 /** One hash of a set of pairs (what trace_state.materialised_hash records). */
-export function pairSetHash(pairs: readonly ObservedPair[]): string {
+function pairSetHash(pairs: readonly ObservedPair[]): string {
   const lines = pairs.map((p) => `${p.from}>${p.to}:${p.toKind}:${p.via ?? ""}`).sort();
   return createHash("sha256").update(lines.join("\n")).digest("hex");
 }

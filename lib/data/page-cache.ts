@@ -54,8 +54,3 @@ export async function cachedPage(key: string, build: () => Promise<string>): Pro
     throw error;
   }
 }
-
-/** For tests and the bench: what the cache holds. */
-export function pageCacheStats(): { pages: number; bytes: number } {
-  return { pages: state.map.size, bytes: state.bytes };
-}

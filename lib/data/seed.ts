@@ -13,9 +13,9 @@ import { addMembership, upsertTeams } from "./teams";
 import { hashPassword } from "./users";
 
 export const DEMO_PASSWORD = "pinchpoint-demo";
-export const DEMO_DOMAIN = "harbor-pantry.example";
-export const DEMO_ENVIRONMENT = "production";
-export const demoEmail = (role: Role) => `${role}@${DEMO_DOMAIN}`;
+const DEMO_DOMAIN = "harbor-pantry.example";
+const DEMO_ENVIRONMENT = "production";
+const demoEmail = (role: Role) => `${role}@${DEMO_DOMAIN}`;
 
 const teamsFileSchema = z.object({
   teams: z.array(

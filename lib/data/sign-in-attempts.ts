@@ -3,7 +3,7 @@ import "server-only";
 import { Op } from "sequelize";
 import { db } from "@/models";
 
-export const SIGN_IN_WINDOW_MS = 15 * 60 * 1000;
+const SIGN_IN_WINDOW_MS = 15 * 60 * 1000;
 /** Failed attempts allowed in the window before further attempts are refused. */
 export const SIGN_IN_LIMITS = { account: 5, address: 20 } as const;
 

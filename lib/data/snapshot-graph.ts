@@ -145,7 +145,7 @@ export async function startupNeeds({ snapshotId }: { snapshotId: string }): Prom
   return out;
 }
 
-export type ChainHop = z.infer<typeof chainHopSchema>;
+type ChainHop = z.infer<typeof chainHopSchema>;
 export type ChainResponse = Omit<z.infer<typeof chainResponseSchema>, "snapshot">;
 
 /** Why does `from` depend on `to`? The shortest chain of runtime needs, in the snapshot's graph. */

@@ -13,7 +13,7 @@ import type { SnapshotContent } from "@/lib/inventory/snapshot";
 import type { SystemActor } from "./audit";
 
 /** The teams a source's current components name, sorted. */
-export function owningTeams(content: SnapshotContent, source: string): string[] {
+function owningTeams(content: SnapshotContent, source: string): string[] {
   const teams = new Set<string>();
   for (const c of content.components) if (c.source === source && c.team) teams.add(c.team);
   return [...teams].sort();

@@ -27,9 +27,9 @@ import { containsPattern, orderSql } from "./list-sql";
 import { teamsLedBy } from "./teams";
 
 /** A component is a team's pinch point when it is in its environment's top this many by pinch score. */
-export const PINCH_POINT_TOP = 10;
+const PINCH_POINT_TOP = 10;
 
-export type { TeamComponent, TeamDetail, TeamOverview, UnownedComponent };
+export type { TeamDetail, TeamOverview, UnownedComponent };
 
 // The newest analysed snapshot of each environment, and each component's place by pinch score in it.
 const SCORED_CTE = `

@@ -5,7 +5,7 @@ import type { Transaction } from "sequelize";
 import { db } from "@/models";
 import type { Role, TokenScope } from "@/lib/auth/roles";
 
-export const TOKEN_PREFIX = "ppt_";
+const TOKEN_PREFIX = "ppt_";
 
 export interface TokenInfo {
   id: string;
@@ -20,7 +20,7 @@ export interface TokenInfo {
   revokedAt: string | null;
 }
 
-export const hashToken = (token: string) => createHash("sha256").update(token).digest("hex");
+const hashToken = (token: string) => createHash("sha256").update(token).digest("hex");
 
 function newSecret(): string {
   // base64url of 30 random bytes: 40 characters, 240 bits.

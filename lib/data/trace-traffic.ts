@@ -21,7 +21,7 @@ export interface Traffic {
   lastSeenAt: string;
 }
 
-export interface ObservedEdgeTraffic extends Traffic {
+interface ObservedEdgeTraffic extends Traffic {
   /** component keys after alias resolution */
   from: string;
   to: string;
@@ -57,7 +57,7 @@ interface Row {
 }
 
 /** alias → component key of the environment's declared components. */
-export async function environmentAliases({ environmentId }: { environmentId: string }): Promise<Map<string, string>> {
+async function environmentAliases({ environmentId }: { environmentId: string }): Promise<Map<string, string>> {
   const rows = await db().sequelize.query<{ key: string; aliases: string[] }>(
     "SELECT key, aliases FROM components WHERE environment_id = $1 AND cardinality(aliases) > 0",
     { type: QueryTypes.SELECT, bind: [environmentId] },

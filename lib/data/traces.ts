@@ -29,14 +29,14 @@ import type { PushActor, PushResult } from "./push";
 import { lockEnvironment } from "./push";
 
 /** How long a half of a call waits for the other half (SDK batches are sent every 5 s by default). */
-export const GRACE_SECONDS = Number(process.env.PINCHPOINT_TRACE_GRACE_S ?? 60);
+const GRACE_SECONDS = Number(process.env.PINCHPOINT_TRACE_GRACE_S ?? 60);
 /** The receiver's source when the token is bound to none. */
-export const RECEIVER_SOURCE = "otlp";
+const RECEIVER_SOURCE = "otlp";
 
 const hour = (d: Date): Date => new Date(Math.floor(d.getTime() / 3_600_000) * 3_600_000);
 
 /** Write a fold's edges into the aggregates at time `at`; returns how many edges were new. */
-export async function storeFold({ environmentId, sourceId, fold, at }: { environmentId: string; sourceId: string; fold: TraceFold; at: Date }, transaction: Transaction): Promise<number> {
+async function storeFold({ environmentId, sourceId, fold, at }: { environmentId: string; sourceId: string; fold: TraceFold; at: Date }, transaction: Transaction): Promise<number> {
   if (fold.edges.size === 0) return 0;
   const bucket = hour(at).toISOString();
   const seen = at.toISOString();
@@ -106,12 +106,6 @@ async function sourceIdFor({ environmentId, name }: { environmentId: string; nam
   // Only cache what is committed: inside a transaction the row may yet roll back.
   if (!transaction) sourceIds.set(cacheKey, row.id);
   return row.id;
-}
-
-/** Forget cached source ids (an environment was deleted and its rows with it). */
-export function forgetTraceCaches(): void {
-  sourceIds.clear();
-  recentIds.clear();
 }
 
 interface WaitingCallJson {
@@ -320,7 +314,7 @@ export async function sweepWaitingCalls({ graceSeconds = GRACE_SECONDS, now = ne
 }
 
 /** Drop buckets older than every environment's window and edges not seen within their environment's window. */
-export async function pruneTraceAggregates({ now = new Date() }: { now?: Date } = {}): Promise<void> {
+async function pruneTraceAggregates({ now = new Date() }: { now?: Date } = {}): Promise<void> {
   const { sequelize } = db();
   await sequelize.query(
     `DELETE FROM trace_edge_buckets b USING trace_edges e, environments env

@@ -14,7 +14,7 @@ import { hashPassword } from "./users";
 import { noticeInvite } from "@/lib/mail";
 
 /** How long an invite link works (common practice for one-time sign-up links: a few days). */
-export const INVITE_TTL_HOURS = 72;
+const INVITE_TTL_HOURS = 72;
 
 export interface AdminUser {
   id: string;

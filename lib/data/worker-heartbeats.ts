@@ -5,7 +5,7 @@ import { QueryTypes } from "sequelize";
 import { db } from "@/models";
 
 /** A worker not heard from for this long is taken to be gone (the overview says so). */
-export const WORKER_MISSING_AFTER_S = 60;
+const WORKER_MISSING_AFTER_S = 60;
 export const WORKER_BEAT_MS = 10_000;
 
 export async function recordWorkerHeartbeat({ workerId, host, pid, startedAt, jobId }: { workerId: string; host: string; pid: number; startedAt: Date; jobId: string | null }): Promise<void> {

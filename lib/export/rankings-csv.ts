@@ -1,7 +1,7 @@
 // The ranking as RFC 4180 CSV. A dozen lines of quoting do not justify a CSV package.
 import type { RankingItem } from "@/lib/data/analysis-results";
 
-export const RANKINGS_CSV_COLUMNS = [
+const RANKINGS_CSV_COLUMNS = [
   "rank",
   "key",
   "name",

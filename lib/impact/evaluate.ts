@@ -31,7 +31,7 @@ export interface ReviewState {
 }
 
 /** A review covers a component at the top while the risk is accepted or being mitigated and its date has not passed. */
-export const reviewCovers = (r: ReviewState | undefined): boolean => r !== undefined && r.status !== "resolved" && !r.overdue;
+const reviewCovers = (r: ReviewState | undefined): boolean => r !== undefined && r.status !== "resolved" && !r.overdue;
 
 const SINGLE_POINT_REASON: Record<SinglePointReason, string> = {
   "new-need": "a new hard need",

@@ -24,7 +24,7 @@ export interface StoredAnalysis {
   exact: boolean;
 }
 
-export function componentFacts(content: SnapshotContent): Map<string, ComponentFacts> {
+function componentFacts(content: SnapshotContent): Map<string, ComponentFacts> {
   return new Map(content.components.map((c) => [c.key, { key: c.key, name: c.name, kind: c.kind, tier: c.tier, team: c.team }]));
 }
 

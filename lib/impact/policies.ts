@@ -5,7 +5,7 @@
 // rules metadata are made from.
 import { z } from "zod";
 
-export const POLICY_SEVERITIES = ["block", "warn"] as const;
+const POLICY_SEVERITIES = ["block", "warn"] as const;
 export type PolicySeverity = (typeof POLICY_SEVERITIES)[number];
 
 export const POLICY_RULES = ["no-new-hard-cycle", "tier1-single-point-need", "takes-down-growth", "new-tier1-articulation", "top-k-review"] as const;
@@ -52,10 +52,6 @@ export const RULE_INFO: Record<PolicyRuleId, RuleInfo> = {
 
 export function ruleTitle(rule: PolicyRuleId, policies: PolicySet): string {
   return RULE_INFO[rule].title.replace("{n}", String(parameterOf(rule, policies) ?? ""));
-}
-
-export function ruleDescription(rule: PolicyRuleId, policies: PolicySet): string {
-  return RULE_INFO[rule].description.replace("{n}", String(parameterOf(rule, policies) ?? ""));
 }
 
 const severity = z.enum(POLICY_SEVERITIES);

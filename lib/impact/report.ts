@@ -7,11 +7,11 @@ import { isBlocked, type PolicyFinding, type PolicyResult } from "./evaluate";
 import type { FilePosition } from "@/lib/inventory/types";
 
 /** Longest list of any one kind in the answer. */
-export const LIST_LIMIT = 100;
+const LIST_LIMIT = 100;
 /** Longest list of components inside one entry (who newly goes down, dominators of one entry). */
 const INNER_LIMIT = 25;
 
-export interface ComponentRef {
+interface ComponentRef {
   key: string;
   name: string;
   tier: Tier | null;
@@ -28,7 +28,7 @@ export interface ImpactBasis {
   exactBetweenness: boolean;
 }
 
-export interface ImpactSummary {
+interface ImpactSummary {
   changedComponents: number;
   moved: number;
   articulationAdded: number;
@@ -87,7 +87,7 @@ function blastEntry(b: BlastChange, before: ImpactSide | null, after: ImpactSide
   };
 }
 
-export function headlineOf({ changed, summary, policies }: { changed: boolean; summary: ImpactSummary; policies: readonly PolicyResult[] }): string {
+function headlineOf({ changed, summary, policies }: { changed: boolean; summary: ImpactSummary; policies: readonly PolicyResult[] }): string {
   if (!changed) return "No change to the analysed graph: no failure point moves.";
   const failing = policies.filter((p) => p.status === "fail");
   const blocking = failing.filter((p) => p.severity === "block");

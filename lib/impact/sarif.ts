@@ -7,14 +7,14 @@ import { POLICY_RULES, RULE_INFO, type PolicyRuleId } from "./policies";
 import type { ImpactReport } from "./report";
 
 /** Where the OASIS standard publishes the schema this log follows. */
-export const SARIF_SCHEMA_URI = "https://docs.oasis-open.org/sarif/sarif/v2.1.0/errata01/os/schemas/sarif-schema-2.1.0.json";
+const SARIF_SCHEMA_URI = "https://docs.oasis-open.org/sarif/sarif/v2.1.0/errata01/os/schemas/sarif-schema-2.1.0.json";
 
-export interface SarifRegion {
+interface SarifRegion {
   startLine: number;
   startColumn?: number;
 }
 
-export interface SarifResult {
+interface SarifResult {
   ruleId: PolicyRuleId;
   ruleIndex: number;
   level: "error" | "warning";

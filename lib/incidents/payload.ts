@@ -26,12 +26,12 @@ export const ALERT_FORMATS = ["pinchpoint", "alertmanager"] as const;
 export type AlertFormat = (typeof ALERT_FORMATS)[number];
 
 /** Most alerts one request may carry (an Alertmanager group with max_alerts 0 sends all of them). */
-export const MAX_ALERTS_PER_REQUEST = 5000;
+const MAX_ALERTS_PER_REQUEST = 5000;
 
 const rfc3339 = z.iso.datetime({ offset: true, error: "an RFC 3339 date-time with a time zone, e.g. 2026-12-03T09:14:00Z" });
 const httpUrl = z.url({ protocol: /^https?$/, error: "an http(s) URL" }).max(2000, "at most 2,000 characters");
 
-export const pinchpointAlertSchema = z.strictObject({
+const pinchpointAlertSchema = z.strictObject({
   component: z.string().trim().min(1, "name the component (its key or an alias)").max(200, "at most 200 characters"),
   status: z.enum(["firing", "resolved"]).default("firing"),
   severity: z.string().trim().min(1).max(40, "at most 40 characters").optional(),
@@ -49,7 +49,7 @@ export const pinchpointAlertsSchema = z.strictObject({
 
 const labelSet = z.record(z.string(), z.string({ error: "label values are strings" }));
 
-export const alertmanagerAlertSchema = z.looseObject({
+const alertmanagerAlertSchema = z.looseObject({
   status: z.enum(["firing", "resolved"]),
   labels: labelSet,
   annotations: labelSet.optional(),

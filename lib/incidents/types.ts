@@ -21,7 +21,7 @@ export interface IncidentAlert {
   named: { label: string | null; value: string } | null;
 }
 
-export interface IncidentSnapshotRef {
+interface IncidentSnapshotRef {
   number: number;
   createdAt: string;
 }

@@ -7,7 +7,7 @@ import type { TeamContact } from "@/lib/api/schemas/analysis";
 export type { TeamContact };
 
 export const PAGE_REASONS = ["origin", "silent", "firing", "predicted"] as const;
-export type PageReason = (typeof PAGE_REASONS)[number];
+type PageReason = (typeof PAGE_REASONS)[number];
 
 export interface PageEntry {
   /** null: components nobody owns — nobody is paged for them unless a person acts. */
@@ -63,7 +63,7 @@ const REASON_TEXT: Record<PageReason, (keys: string[]) => string> = {
   predicted: (ks) => `${ks.length} likely to fail next`,
 };
 
-export function pageLine(e: PageEntry): string {
+function pageLine(e: PageEntry): string {
   const why = e.reasons.map((r) => REASON_TEXT[r](e[r])).join("; ");
   if (e.team === null) return `unowned, nobody is paged: ${why}`;
   const contact = e.contact ? [e.contact.oncall ? `on-call ${e.contact.oncall}` : "", e.contact.email ?? ""].filter(Boolean).join(", ") || "no contact on file" : "no contact on file";

@@ -3,7 +3,7 @@
 import type { FilePosition, NormalisedInventory, Strength } from "./types";
 
 /** A preview lists this many; `total` tells the rest. */
-export const MAX_LISTED_INFERRED = 1_000;
+const MAX_LISTED_INFERRED = 1_000;
 
 export interface InferredNeed {
   from: string;

@@ -17,7 +17,7 @@ import {
 } from "./snapshot";
 import type { InventoryIssue, NormalisedInventory } from "./types";
 
-export interface MergeConflict {
+interface MergeConflict {
   /** The key or alias two components claim. */
   key: string;
   /** [the source that holds it now, the pushing source]; the same source twice for a clash within one push */

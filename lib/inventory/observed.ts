@@ -49,11 +49,6 @@ export function stripObserved(content: SnapshotContent): SnapshotContent {
   };
 }
 
-/** The observed pairs a graph carries, resolved (for tests and the drift screen's "agreeing" count). */
-export function observedPairsOf(content: SnapshotContent): Array<[string, string]> {
-  return content.dependencies.filter((d) => provenanceOf(d).includes("observed")).map((d) => [d.from, d.to]);
-}
-
 function weakComponent(key: string, kind: DeclaredKind): SnapshotComponent {
   return { key, name: key, kind, team: null, tier: 3, replicas: 1, zones: [], tags: [], links: {}, source: OBSERVED_SOURCE };
 }

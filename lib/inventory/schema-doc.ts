@@ -4,7 +4,7 @@
 
 type Json = Record<string, unknown>;
 
-export interface FieldDoc {
+interface FieldDoc {
   name: string;
   type: string;
   required: boolean;

@@ -6,7 +6,7 @@ import { z } from "zod";
 import { MAX_COMPONENTS, MAX_LABEL_LENGTH, MAX_NAME_LENGTH, MAX_URL_LENGTH } from "./limits";
 import { COMPONENT_KINDS, KEY_PATTERN, SLUG_PATTERN, SOURCE_PATTERN, STRENGTHS } from "./types";
 
-export const FORMAT_VERSION = 1;
+const FORMAT_VERSION = 1;
 
 const show = (v: unknown): string => (typeof v === "string" ? JSON.stringify(v) : String(v));
 
@@ -61,7 +61,7 @@ export const ReplicasSchema = z
   .min(1, { error: "replicas must be at least 1" })
   .max(1_000_000, { error: "replicas must be at most 1000000" });
 
-export const HttpUrlSchema = z
+const HttpUrlSchema = z
   .url({
     protocol: /^https?$/,
     error: (iss) => `invalid link ${show(iss.input)}: links must be http:// or https:// URLs`,
@@ -75,10 +75,10 @@ const LinkNameSchema = z.string().regex(/^[A-Za-z0-9][A-Za-z0-9._-]{0,63}$/, {
 const ViaSchema = LabelSchema("via").describe("Free protocol label, e.g. http, grpc, amqp");
 
 /** `key` shorthand (a hard need), `{ key, strength?, via? }` or `{ any_of: [...], strength?, via? }`. */
-export const NeedKeySchema = z
+const NeedKeySchema = z
   .object({ key: ComponentKeySchema, strength: StrengthSchema.optional(), via: ViaSchema.optional() })
   .strict();
-export const NeedAnyOfSchema = z
+const NeedAnyOfSchema = z
   .object({
     any_of: z
       .array(ComponentKeySchema, { error: "any_of must be a list of component keys" })
@@ -88,7 +88,7 @@ export const NeedAnyOfSchema = z
     via: ViaSchema.optional(),
   })
   .strict();
-export const NeedEntrySchema = z.union([
+const NeedEntrySchema = z.union([
   ComponentKeySchema.describe("Shorthand for a hard need on this key"),
   NeedKeySchema,
   NeedAnyOfSchema,
@@ -113,7 +113,7 @@ const sharedFields = {
     .optional(),
 };
 
-export const ComponentSchema = z
+const ComponentSchema = z
   .object({
     key: ComponentKeySchema,
     name: z
@@ -132,7 +132,7 @@ export const ComponentSchema = z
   })
   .strict();
 
-export const DefaultsSchema = z
+const DefaultsSchema = z
   .object(sharedFields)
   .strict()
   .describe("Merged into every component; a component's own fields win (links are merged name by name)");

@@ -5,7 +5,7 @@ import { z } from "zod";
 export const ANALYSIS_VIEWS = ["declared", "observed", "both"] as const;
 export type AnalysisView = (typeof ANALYSIS_VIEWS)[number];
 
-export const DEFAULT_ALERT_LABELS = ["service", "app", "job"] as const;
+const DEFAULT_ALERT_LABELS = ["service", "app", "job"] as const;
 
 /**
  * Label names as the Prometheus data model allows them (any UTF-8 since Prometheus 3; the classic

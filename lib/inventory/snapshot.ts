@@ -45,20 +45,20 @@ export interface SnapshotContent {
   dependencies: SnapshotDependency[];
 }
 
-export type ComponentField = Exclude<keyof SnapshotComponent, "key">;
-export type DependencyField = "strength" | "via" | "source" | "provenance";
+type ComponentField = Exclude<keyof SnapshotComponent, "key">;
+type DependencyField = "strength" | "via" | "source" | "provenance";
 
-export interface FieldChange<T> {
+interface FieldChange<T> {
   before: T;
   after: T;
 }
 
-export interface ComponentChange {
+interface ComponentChange {
   key: string;
   changes: Partial<{ [F in ComponentField]: FieldChange<SnapshotComponent[F]> }>;
 }
 
-export interface DependencyChange {
+interface DependencyChange {
   from: string;
   to: string;
   group: string | null;
@@ -92,7 +92,7 @@ export function anyOfGroupId(from: string, members: readonly string[]): string {
  * Identity of a dependency: a need written as an alias stays apart from one written as the key
  * (both resolve to the same component, and each must survive the alias going away).
  */
-export function dependencyId(d: Pick<SnapshotDependency, "from" | "to" | "group" | "written">): string {
+function dependencyId(d: Pick<SnapshotDependency, "from" | "to" | "group" | "written">): string {
   return `${d.from}\u0000${d.to}\u0000${d.group ?? ""}${d.written === undefined ? "" : `\u0000${d.written}`}`;
 }
 
@@ -104,7 +104,7 @@ function sortedRecord(r: Record<string, string>): Record<string, string> {
 
 const sortedSet = (values: readonly string[]): string[] => [...new Set(values)].sort(cmp);
 
-export function canonicaliseComponent(c: SnapshotComponent): SnapshotComponent {
+function canonicaliseComponent(c: SnapshotComponent): SnapshotComponent {
   const aliases = sortedSet(c.aliases ?? []);
   return {
     key: c.key,

@@ -26,8 +26,6 @@ export type ComponentKind = DeclaredKind | "undeclared";
  */
 export const STRENGTHS = ["hard", "soft", "startup"] as const;
 export type Strength = (typeof STRENGTHS)[number];
-/** Needs that hold while the dependent runs: what failure propagates along. */
-export const RUNTIME_STRENGTHS: readonly Strength[] = ["hard", "soft"];
 
 const STRENGTH_RANK: Record<Strength, number> = { hard: 2, soft: 1, startup: 0 };
 /** The stronger of two claims about one need: a repeat or merge keeps what an outage would honour. */

@@ -3,7 +3,7 @@
 import { computeMapLayouts, type MapLayoutJobData } from "@/lib/data/map-layouts";
 import { QUEUES, fetchJobs, jobQueue, workQueueData } from "@/lib/data/job-queue";
 
-export async function runMapLayoutJob(data: MapLayoutJobData): Promise<void> {
+async function runMapLayoutJob(data: MapLayoutJobData): Promise<void> {
   const done = await computeMapLayouts(data);
   if (done) console.log(`[map-layout] snapshot ${data.snapshotId}: ${done.views} views in ${done.ms} ms`);
 }

@@ -2,8 +2,8 @@
 import path from "node:path";
 import { demoMode } from "@/lib/config";
 
-export const DEFAULT_SMTP_URL = "smtp://127.0.0.1:2525";
-export const DEMO_FROM = "Pinchpoint <pinchpoint@harbor-pantry.example>";
+const DEFAULT_SMTP_URL = "smtp://127.0.0.1:2525";
+const DEMO_FROM = "Pinchpoint <pinchpoint@harbor-pantry.example>";
 
 export const smtpUrl = () => process.env.PINCHPOINT_SMTP_URL || DEFAULT_SMTP_URL;
 

@@ -14,10 +14,10 @@ export interface MailSink {
   close: () => Promise<void>;
 }
 
-export const SINK_MAX_BYTES = 10 * 1024 * 1024;
+const SINK_MAX_BYTES = 10 * 1024 * 1024;
 
 /** File names sort by arrival: an ISO timestamp made file-name safe, then a random id. */
-export function sinkFileName(now = new Date()): string {
+function sinkFileName(now = new Date()): string {
   return `${now.toISOString().replace(/[:.]/g, "-")}-${randomBytes(5).toString("hex")}.eml`;
 }
 

@@ -8,7 +8,7 @@ export const NODE_H = 60;
 export const TEAM_NODE_W = 220;
 export const TEAM_NODE_H = 76;
 /** Space above a team group's children for its title bar. */
-export const GROUP_HEADER = 34;
+const GROUP_HEADER = 34;
 /** Padding of a team group around its members (matches buildElkGraph). */
 export const GROUP_PAD = { top: GROUP_HEADER + 10, left: 14, bottom: 14, right: 14 } as const;
 
@@ -36,7 +36,7 @@ export interface LayoutResult {
 }
 
 /** Above this many nodes ELK's effort is turned down (fewer crossing-minimisation sweeps). */
-export const LOW_THOROUGHNESS_ABOVE = 400;
+const LOW_THOROUGHNESS_ABOVE = 400;
 
 export function layoutInputFromView(view: MapView): LayoutInput {
   return {
@@ -50,7 +50,7 @@ export function layoutInputFromView(view: MapView): LayoutInput {
   };
 }
 
-export function elkRootOptions(input: LayoutInput): Record<string, string> {
+function elkRootOptions(input: LayoutInput): Record<string, string> {
   const large = input.nodes.length > LOW_THOROUGHNESS_ABOVE;
   return {
     "elk.algorithm": "layered",

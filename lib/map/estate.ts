@@ -17,7 +17,7 @@ export const HUB_MIN_DEPENDENTS = 12;
 /** Above this many components the map opens on the team-to-team view. */
 export const TEAM_VIEW_ABOVE = 120;
 /** Up to this many components the worker also stores a flat (ungrouped) layout of the whole estate. */
-export const FLAT_STORED_LIMIT = 600;
+const FLAT_STORED_LIMIT = 600;
 
 export interface HubBundle {
   /** the needed node's id on the view */
@@ -52,7 +52,7 @@ export function bundleHubs(view: MapView, min = HUB_MIN_DEPENDENTS): { view: Map
 }
 
 /** Positions stored for one view of one snapshot (coordinates rounded: whole pixels are plenty). */
-export type StoredView = LayoutResult;
+type StoredView = LayoutResult;
 
 /**
  * Views the worker stores per snapshot:
@@ -82,7 +82,7 @@ async function run(elk: ElkLike, input: LayoutInput): Promise<LayoutResult> {
 }
 
 /** A group's outer size from its members' layout. */
-export function groupSize(inner: Pick<LayoutResult, "width" | "height">): { width: number; height: number } {
+function groupSize(inner: Pick<LayoutResult, "width" | "height">): { width: number; height: number } {
   return { width: inner.width + GROUP_PAD.left + GROUP_PAD.right, height: inner.height + GROUP_PAD.top + GROUP_PAD.bottom };
 }
 

@@ -4,17 +4,11 @@ import { strongerStrength, type ComponentKind, type Strength, type Tier } from "
 import type { MapEdge, MapGraph, MapNode } from "@/lib/api/schemas/map";
 
 /** Known only from a host name in configuration: drawn apart so nobody mistakes it for a declared need. */
-export const isInferredOnly = (e: Pick<MapEdge, "provenance">): boolean =>
+const isInferredOnly = (e: Pick<MapEdge, "provenance">): boolean =>
   e.provenance !== undefined && e.provenance.length > 0 && e.provenance.every((p) => p === "inferred");
 
 /** Team slot for components with no owner; never a valid slug (slugs start [a-z0-9]). */
 export const UNOWNED = "_unowned";
-/** Above this many visible components the map opens grouped and collapsed (ELK layered measured in Node: about 2 s at 200 nodes, 10 s at 1,000, 42 s at 3,000). */
-export const FULL_LAYOUT_LIMIT = 600;
-/** Above this many links between collapsed teams, ELK takes longer than a responder should wait (measured: 1,459 links, 13 s). */
-export const DENSE_TEAM_VIEW_EDGES = 400;
-/** How many of the highest-betweenness components the map opens on when even the team view is too dense. */
-export const PINCH_VIEW_SIZE = 150;
 
 export interface MapFilters {
   /** null means every team; UNOWNED stands for components with no team. */
@@ -84,14 +78,14 @@ export function neighbourhood(adj: Adjacency, key: string, hops: number): Set<st
   return result;
 }
 
-export function nodePasses(node: MapNode, f: MapFilters): boolean {
+function nodePasses(node: MapNode, f: MapFilters): boolean {
   if (f.teams && !f.teams.has(teamSlotOf(node))) return false;
   if (f.tiers && !f.tiers.has(node.tier)) return false;
   if (f.kinds && !f.kinds.has(node.kind)) return false;
   return true;
 }
 
-export function edgePasses(edge: MapEdge, f: MapFilters): boolean {
+function edgePasses(edge: MapEdge, f: MapFilters): boolean {
   return f[edge.strength];
 }
 

@@ -17,17 +17,6 @@ import { calleeFromAttributes, isDatabaseCall, isMessaging, messagingDestination
 import { lastHash, spanHash, SpanIdSet, SpanIndex, type SpanIdMemory } from "./seen";
 import { SPAN_KIND, type TraceSpan } from "./types";
 
-export interface ObservedCall {
-  from: string;
-  to: string;
-  kind: CalleeKind;
-  via: string | null;
-  async: boolean;
-  evidence: Evidence;
-  durationNs: number;
-  error: boolean;
-}
-
 export interface EdgeAggregate {
   from: string;
   to: string;

@@ -5,7 +5,7 @@
 // bounds the relative error of a quantile read from the buckets by √base − 1 ≈ 4.4 %.
 // Stored sparse, as { "<index>": count }, in microseconds (index 0 = (1, 1.09] µs).
 
-export const SCALE = 3;
+const SCALE = 3;
 export const BASE = 2 ** (2 ** -SCALE);
 /** The worst relative error of quantile() against the exact nearest-rank value. */
 export const RELATIVE_ERROR = Math.sqrt(BASE) - 1;

@@ -9,7 +9,7 @@ import { bundleHubs, composeStored, layoutEstate } from "../../lib/map/estate";
 import { NO_FILTERS, buildView, teamSlots } from "../../lib/map/view";
 import { generateGraph } from "./generate";
 
-export function mapGraphOf(n: number, seed = 7): MapGraph {
+function mapGraphOf(n: number, seed = 7): MapGraph {
   const g = generateGraph({ n, seed });
   return {
     environment: "bench",

@@ -74,7 +74,7 @@ function* workload(count: number, seed: number): Generator<GenSpan> {
   }
 }
 
-export function* batches(count: number, size: number, seed: number): Generator<GenSpan[]> {
+function* batches(count: number, size: number, seed: number): Generator<GenSpan[]> {
   let batch: GenSpan[] = [];
   for (const s of workload(count, seed)) {
     batch.push(s);
@@ -111,7 +111,7 @@ function request(spans: GenSpan[]) {
   };
 }
 
-export const protobuf = (spans: GenSpan[]): Buffer => Buffer.from(ExportTraceServiceRequest.encode(ExportTraceServiceRequest.fromObject(request(spans))).finish());
+const protobuf = (spans: GenSpan[]): Buffer => Buffer.from(ExportTraceServiceRequest.encode(ExportTraceServiceRequest.fromObject(request(spans))).finish());
 
 function jsonLine(spans: GenSpan[]): string {
   return JSON.stringify(request(spans), (_k, v: unknown) => (Buffer.isBuffer(v) ? v.toString("hex") : v && typeof v === "object" && (v as { type?: string }).type === "Buffer" ? Buffer.from((v as { data: number[] }).data).toString("hex") : v));

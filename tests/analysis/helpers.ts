@@ -1,7 +1,6 @@
 // Small builders shared by the analysis tests.
 import { buildGraph, type CompactGraph } from "@/lib/analysis/graph";
 import type { AnalysisEdge, AnalysisInput, AnalysisNode } from "@/lib/analysis/types";
-import type { Tier } from "@/lib/inventory/types";
 
 export type Pair = readonly [string, string];
 
@@ -29,7 +28,7 @@ export function directed(pairs: readonly Pair[], extra: readonly string[] = []):
 }
 
 /** An undirected graph as the directed graph with both directions of every edge. */
-export function symmetric(pairs: readonly Pair[]): AnalysisInput {
+function symmetric(pairs: readonly Pair[]): AnalysisInput {
   return directed(pairs.flatMap(([a, b]) => [[a, b] as const, [b, a] as const]));
 }
 
@@ -50,7 +49,3 @@ export const path = (n: number): Pair[] => range(n - 1).map((i) => [`p${i}`, `p$
 export const cycle = (n: number): Pair[] => range(n).map((i) => [`c${i}`, `c${(i + 1) % n}`] as const);
 export const complete = (n: number): Pair[] =>
   range(n).flatMap((i) => range(n).filter((j) => j > i).map((j) => [`k${i}`, `k${j}`] as const));
-
-export function withTier(input: AnalysisInput, key: string, tier: Tier): AnalysisInput {
-  return { ...input, nodes: input.nodes.map((n) => (n.key === key ? { ...n, tier } : n)) };
-}

@@ -18,7 +18,7 @@ export const ownOrigin = () => ({ origin: baseUrl() });
 
 export const SCREENSHOT_DIR = path.resolve(__dirname, "../../test-results/screenshots");
 
-export async function launch(): Promise<Browser> {
+async function launch(): Promise<Browser> {
   return chromium.launch({
     executablePath: process.env.PINCHPOINT_CHROMIUM ?? "/usr/bin/chromium",
     args: ["--headless", "--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run", "--disable-background-networking", "--disable-component-update", "--disable-sync"],

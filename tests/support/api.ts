@@ -60,7 +60,7 @@ export interface CallOptions<P> {
 }
 
 /** What Chromium attaches to a fetch() from a page served by the app itself. */
-export const OWN_PAGE_HEADERS = { origin: "http://127.0.0.1:3000", "sec-fetch-site": "same-origin", "sec-fetch-mode": "cors" } as const;
+const OWN_PAGE_HEADERS = { origin: "http://127.0.0.1:3000", "sec-fetch-site": "same-origin", "sec-fetch-mode": "cors" } as const;
 
 export async function call<P>(handler: Handler<P>, opts: CallOptions<P>): Promise<{ status: number; json: unknown; headers: Headers }> {
   const headers = new Headers(opts.headers);

@@ -2,7 +2,7 @@
 // padded to the 16 and 8 bytes OTLP requires (opentelemetry-proto trace.proto, Span.trace_id/span_id).
 import { ExportTraceServiceRequest } from "@/importers/otlp/proto";
 
-export type Kind = "internal" | "server" | "client" | "producer" | "consumer";
+type Kind = "internal" | "server" | "client" | "producer" | "consumer";
 const KIND: Record<Kind, number> = { internal: 1, server: 2, client: 3, producer: 4, consumer: 5 };
 
 export interface SpanSpec {
@@ -16,8 +16,8 @@ export interface SpanSpec {
   error?: boolean;
 }
 
-export const traceId = (t: string): string => t.padStart(32, "0");
-export const spanId = (s: string): string => s.padStart(16, "0");
+const traceId = (t: string): string => t.padStart(32, "0");
+const spanId = (s: string): string => s.padStart(16, "0");
 
 const START = 1_767_225_600_000_000_000n; // 2026-01-01T00:00:00Z in ns
 

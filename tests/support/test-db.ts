@@ -2,7 +2,7 @@
 // file is isolated and none touches the demo's data. Real PostgreSQL, never a stand-in.
 import pg from "pg";
 
-export function adminUrl(): string {
+function adminUrl(): string {
   const url = process.env.PINCHPOINT_TEST_ADMIN_URL;
   if (!url) throw new Error("PINCHPOINT_TEST_ADMIN_URL is not set: run the suite with `npm test`, which starts its own PostgreSQL");
   return url;

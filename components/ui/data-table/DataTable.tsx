@@ -48,7 +48,7 @@ declare module "@tanstack/react-table" {
 // eslint-disable-next-line @typescript-eslint/no-explicit-any
 export type Columns<T> = Array<ColumnDef<T, any>>;
 
-export type Paging =
+type Paging =
   | { mode: "server"; list: ListState; total: number | undefined }
   | { mode: "client"; pageSize?: number; initialSort?: SortingState; search?: { label: string; placeholder?: string } };
 

@@ -30,7 +30,7 @@ export const SERVER_ERROR = "root.server" as const;
  * `body.rules["top-k-review"].k`) names a field of the form goes beside it; everything else, and
  * the message when no issue names a field, goes to the form as a whole.
  */
-export function showServerError<T extends FieldValues>(form: UseFormReturn<T, unknown, unknown>, error: ApiError, messageFor?: (error: ApiError) => string | null): void {
+function showServerError<T extends FieldValues>(form: UseFormReturn<T, unknown, unknown>, error: ApiError, messageFor?: (error: ApiError) => string | null): void {
   const values = form.getValues() as Record<string, unknown>;
   const elsewhere: string[] = [];
   let placed = 0;

@@ -74,7 +74,7 @@ export { defaultRankingOrder };
 const convergenceSchema = z.object({ converged: z.boolean(), reason: z.string().nullable() }).nullable();
 
 /** Which needs an analysis ran on (DESIGN §10). */
-export const graphViewSchema = z.object({
+const graphViewSchema = z.object({
   view: z.enum(ANALYSIS_VIEWS),
   /** the environment's setting; null when the view follows what the graph holds */
   setting: z.enum(ANALYSIS_VIEWS).nullable(),
@@ -109,7 +109,7 @@ export type AnalysisMeta = z.infer<typeof analysisMetaSchema>;
 
 export const rankPositionSchema = z.object({ rank: z.int().nullable(), tied: z.int() });
 
-export const rankingItemSchema = z.object({
+const rankingItemSchema = z.object({
   key: z.string(),
   name: z.string(),
   kind: kindSchema,
@@ -146,16 +146,15 @@ export const rankingsResponseSchema = analysisMetaSchema.extend({
   total: z.int(),
   items: z.array(rankingItemSchema),
 });
-export type RankingsResponse = z.infer<typeof rankingsResponseSchema>;
 
-export const rankTrendSchema = z.object({
+const rankTrendSchema = z.object({
   snapshots: z.array(z.int()),
   series: z.array(z.object({ key: z.string(), points: z.array(z.object({ snapshot: z.int(), rank: z.int().nullable() })) })),
 });
 export const rankTrendResponseSchema = analysisMetaSchema.extend(rankTrendSchema.shape);
 export type RankTrendResponse = z.infer<typeof rankTrendResponseSchema>;
 
-export const storedCycleSchema = z.object({
+const storedCycleSchema = z.object({
   members: z.array(z.string()),
   /** boot cycles: a suggested start order and the needs to break first */
   startOrder: z.array(z.string()).nullable(),
@@ -175,7 +174,6 @@ export const bootOrderResponseSchema = bootCyclesResponseSchema.extend({
   /** with components=true: each component's start-up-only needs */
   startupNeeds: z.record(z.string(), z.array(z.string())).optional(),
 });
-export type BootOrderResponse = z.infer<typeof bootOrderResponseSchema>;
 
 export const teamContactSchema = z.object({ slug: z.string(), name: z.string(), email: z.string().nullable(), oncall: z.string().nullable() });
 export type TeamContact = z.infer<typeof teamContactSchema>;

@@ -5,7 +5,7 @@ import { z } from "zod";
 import { COMPONENT_KINDS, KEY_PATTERN, PROVENANCES, SLUG_PATTERN, SOURCE_PATTERN, STRENGTHS } from "@/lib/inventory/types";
 
 /** What each name may look like, in words, for messages here and in the screens' hints. */
-export const PATTERN_WORDS = {
+const PATTERN_WORDS = {
   slug: "1-63 characters of a-z, 0-9 and \"-\", starting with a letter or digit",
   key: "1-128 characters of a-z, 0-9, \".\", \"_\" or \"-\", starting with a letter or digit",
   source: "1-128 characters of a-z, 0-9, \".\", \"_\" or \"-\", starting with a letter or digit",
@@ -55,7 +55,7 @@ export function defineList<const T extends Record<string, SortOrder>>(spec: { so
   return spec;
 }
 
-export const sortKeys = <S extends string>(spec: ListSpec<S>) => Object.keys(spec.sorts) as [S, ...S[]];
+const sortKeys = <S extends string>(spec: ListSpec<S>) => Object.keys(spec.sorts) as [S, ...S[]];
 
 /** `limit`, `offset`, `sort` and `order` of one list; `order` defaults to the sort's own first order. */
 export function listQuery<S extends string>(spec: ListSpec<S>) {

@@ -13,7 +13,7 @@ export const COMPONENT_LIST = defineList({
 });
 
 /** The list's filters, each also a column of the screen. */
-export const componentFiltersSchema = z.object({
+const componentFiltersSchema = z.object({
   team: slugSchema.optional(),
   kind: kindSchema.optional(),
   tier: z.coerce.number().int().min(1).max(4).optional(),
@@ -36,7 +36,7 @@ export const annotateBodySchema = z
 // ---------------------------------------------------------------------------------------------
 // Responses
 
-export const componentListItemSchema = z.object({
+const componentListItemSchema = z.object({
   key: z.string(),
   name: z.string(),
   kind: kindSchema,
@@ -72,7 +72,7 @@ export const trafficSchema = z.object({
   lastSeenAt: instantSchema,
 });
 
-export const componentEdgeSchema = z.object({
+const componentEdgeSchema = z.object({
   key: z.string(),
   name: z.string(),
   kind: kindSchema,
@@ -86,7 +86,7 @@ export const componentEdgeSchema = z.object({
 });
 export type ComponentEdge = z.infer<typeof componentEdgeSchema>;
 
-export const componentMetricsSchema = z.object({
+const componentMetricsSchema = z.object({
   rank: z.int(),
   tied: z.int(),
   ranks: z.object({ betweenness: rankPositionSchema, pagerank: rankPositionSchema, eigenvector: rankPositionSchema, pinchScore: rankPositionSchema, blastDown: rankPositionSchema }),

@@ -26,12 +26,11 @@ function prefixedList<const P extends string, S extends string>(prefix: P, spec:
 }
 
 export const driftQuerySchema = z.object({ ...prefixedList("seen", DRIFT_SEEN_LIST), ...prefixedList("declared", DRIFT_DECLARED_LIST) }).strict();
-export type DriftQuery = z.infer<typeof driftQuerySchema>;
 
 // ---------------------------------------------------------------------------------------------
 // Responses
 
-export const seenNotDeclaredSchema = trafficSchema.extend({
+const seenNotDeclaredSchema = trafficSchema.extend({
   from: z.string(),
   to: z.string(),
   /** calls within the window (the same as `calls`; kept for older clients) */
@@ -51,7 +50,7 @@ export const seenNotDeclaredSchema = trafficSchema.extend({
 });
 export type SeenNotDeclared = z.infer<typeof seenNotDeclaredSchema>;
 
-export const declaredNotSeenSchema = z.object({
+const declaredNotSeenSchema = z.object({
   from: z.string(),
   to: z.string(),
   strength: strengthSchema,
@@ -62,7 +61,7 @@ export const declaredNotSeenSchema = z.object({
 });
 export type DeclaredNotSeen = z.infer<typeof declaredNotSeenSchema>;
 
-export const aliasProposalSchema = z.object({ key: z.string(), alias: z.string(), reason: z.string(), source: z.string(), team: z.string().nullable(), snippet: z.string() });
+const aliasProposalSchema = z.object({ key: z.string(), alias: z.string(), reason: z.string(), source: z.string(), team: z.string().nullable(), snippet: z.string() });
 export type AliasProposal = z.infer<typeof aliasProposalSchema>;
 
 export const driftResponseSchema = z.object({

@@ -25,7 +25,7 @@ export const deleteEnvironmentQuerySchema = z.object({
 });
 
 /** Every setting as lib/inventory/settings.ts defines it, without defaults. */
-export const settingsFieldsSchema = z.object({
+const settingsFieldsSchema = z.object({
   inferredNeeds: z.enum(["hard", "soft"]),
   observedNeeds: z.enum(["hard", "soft"]),
   analysisView: z.enum(ANALYSIS_VIEWS).nullable(),
@@ -77,7 +77,6 @@ export const environmentsResponseSchema = z.object({ items: z.array(environmentS
 
 /** GET /environments/{env}: the summary, its counts, and the zones its components run in (the drill screen's choices). */
 export const environmentResponseSchema = environmentSummarySchema.extend({ counts: environmentCountsSchema, zones: z.array(z.string()) });
-export type EnvironmentResponse = z.infer<typeof environmentResponseSchema>;
 
 /** DELETE /environments/{env}. */
 export const deletedEnvironmentSchema = z.object({

@@ -1,7 +1,7 @@
 // The response of GET /api/health (lib/data/health.ts builds it; the overview reads it).
 import { z } from "zod";
 
-export const workerHealthSchema = z.object({
+const workerHealthSchema = z.object({
   status: z.enum(["ok", "missing", "never"]),
   live: z.number().int(),
   lastSeenAt: z.string().nullable(),

@@ -4,14 +4,6 @@ import { z } from "zod";
 import { IMPORT_FORMATS } from "@/lib/inventory/types";
 import { defineList, instantSchema, kindSchema, listQuery, pageOf, provenanceSchema, slugSchema, strengthSchema, tierSchema } from "./common";
 
-/** A plain page (newest first) for lists that sort one way only. */
-export const pageQuerySchema = z
-  .object({
-    limit: z.coerce.number().int().min(1).max(500).default(50),
-    offset: z.coerce.number().int().min(0).default(0),
-  })
-  .strict();
-
 export const diffParamsSchema = z.object({ env: slugSchema, a: z.coerce.number().int().min(1), b: z.coerce.number().int().min(1) });
 
 export const SNAPSHOT_LIST = defineList({
@@ -40,7 +32,7 @@ export const importsQuerySchema = listQuery(IMPORT_LIST)
 // ---------------------------------------------------------------------------------------------
 // Responses
 
-export const snapshotComponentSchema = z.object({
+const snapshotComponentSchema = z.object({
   key: z.string(),
   name: z.string(),
   kind: kindSchema,
@@ -54,7 +46,7 @@ export const snapshotComponentSchema = z.object({
   aliases: z.array(z.string()).optional(),
 });
 
-export const snapshotDependencySchema = z.object({
+const snapshotDependencySchema = z.object({
   from: z.string(),
   to: z.string(),
   strength: strengthSchema,
@@ -69,9 +61,9 @@ export type SnapshotDependency = z.infer<typeof snapshotDependencySchema>;
 /** Before → after of one field; the values are whatever the field holds (text, number, list, map). */
 const fieldChangeSchema = z.object({ before: z.unknown(), after: z.unknown() });
 
-export const componentChangeSchema = z.object({ key: z.string(), changes: z.record(z.string(), fieldChangeSchema.optional()) });
+const componentChangeSchema = z.object({ key: z.string(), changes: z.record(z.string(), fieldChangeSchema.optional()) });
 export type ComponentChange = z.infer<typeof componentChangeSchema>;
-export const dependencyChangeSchema = z.object({ from: z.string(), to: z.string(), group: z.string().nullable(), changes: z.record(z.string(), fieldChangeSchema.optional()) });
+const dependencyChangeSchema = z.object({ from: z.string(), to: z.string(), group: z.string().nullable(), changes: z.record(z.string(), fieldChangeSchema.optional()) });
 export type DependencyChange = z.infer<typeof dependencyChangeSchema>;
 
 export const snapshotDiffSchema = z.object({
@@ -82,13 +74,12 @@ export const snapshotDiffSchema = z.object({
   dependenciesRemoved: z.array(snapshotDependencySchema),
   dependenciesChanged: z.array(dependencyChangeSchema),
 });
-export type SnapshotDiff = z.infer<typeof snapshotDiffSchema>;
 
 /** GET …/snapshots/{a}/diff/{b}. */
 export const diffResponseSchema = snapshotDiffSchema.extend({ from: z.int(), to: z.int() });
 export type DiffResponse = z.infer<typeof diffResponseSchema>;
 
-export const snapshotListItemSchema = z.object({
+const snapshotListItemSchema = z.object({
   id: z.string(),
   number: z.int(),
   createdAt: instantSchema,
@@ -106,7 +97,7 @@ export type SnapshotListItem = z.infer<typeof snapshotListItemSchema>;
 /** GET …/snapshots. */
 export const snapshotsResponseSchema = pageOf(snapshotListItemSchema);
 
-export const importRowSchema = z.object({
+const importRowSchema = z.object({
   id: z.string(),
   createdAt: instantSchema,
   source: z.string(),

@@ -19,9 +19,9 @@ const blastEntry = z.object({
   noLongerDownTotal: z.int(),
 });
 
-export const policyFindingSchema = z.object({ message: z.string(), key: z.string().optional(), need: z.object(needRef).optional(), at: filePositionSchema.optional() });
+const policyFindingSchema = z.object({ message: z.string(), key: z.string().optional(), need: z.object(needRef).optional(), at: filePositionSchema.optional() });
 
-export const policyResultSchema = z.object({
+const policyResultSchema = z.object({
   rule: z.enum(POLICY_RULES),
   title: z.string(),
   enabled: z.boolean(),

@@ -33,7 +33,7 @@ export const resolveIncidentSchema = z
 
 const unknownAlertGroupSchema = z.object({ value: z.string().nullable(), label: z.string().nullable(), alerts: z.int() });
 
-export const incidentAlertSchema = z.object({
+const incidentAlertSchema = z.object({
   id: z.string(),
   fingerprint: z.string(),
   format: z.enum(ALERT_FORMATS),
@@ -53,7 +53,7 @@ export type IncidentAlert = z.infer<typeof incidentAlertSchema>;
 
 const snapshotRefSchema = z.object({ number: z.int(), createdAt: instantSchema });
 
-export const storedRankingSchema = z.object({
+const storedRankingSchema = z.object({
   computedAt: instantSchema,
   snapshot: snapshotRefSchema.nullable(),
   firing: z.array(z.string()),
@@ -69,7 +69,7 @@ export const storedRankingSchema = z.object({
   predicted: z.object({ down: z.int(), degraded: z.int(), firstDown: z.array(z.string()) }),
 });
 
-export const incidentRowSchema = z.object({
+const incidentRowSchema = z.object({
   number: z.int(),
   status: z.enum(["open", "resolved"]),
   openedAt: instantSchema,
@@ -86,7 +86,7 @@ export type IncidentRow = z.infer<typeof incidentRowSchema>;
 const explanation = { explains: z.array(z.string()), degraded: z.array(z.string()) };
 
 /** The probable-origin result (lib/analysis/origin.ts). */
-export const originResultSchema = z.object({
+const originResultSchema = z.object({
   firing: z.array(z.string()),
   unknown: z.array(z.string()),
   origins: z.array(z.object({ ...explanation, key: z.string(), newlyExplained: z.array(z.string()), predicted: z.object({ down: z.array(z.string()), degraded: z.array(z.string()) }) })),
@@ -99,7 +99,7 @@ export const originResultSchema = z.object({
   predicted: z.object({ down: z.array(z.string()), degraded: z.array(z.string()) }),
 });
 
-export const pageEntrySchema = z.object({
+const pageEntrySchema = z.object({
   /** null: components nobody owns */
   team: z.string().nullable(),
   contact: teamContactSchema.nullable(),
@@ -126,11 +126,9 @@ export const currentIncidentResponseSchema = z.object({
   caution: z.string(),
   computedAt: instantSchema,
 });
-export type CurrentIncidentResponse = z.infer<typeof currentIncidentResponseSchema>;
 
 /** GET …/incidents/{number}. */
 export const incidentDetailResponseSchema = z.object({ environment: z.string(), incident: incidentRowSchema, alerts: z.array(incidentAlertSchema), caution: z.string() });
-export type IncidentDetailResponse = z.infer<typeof incidentDetailResponseSchema>;
 
 /** GET …/incidents: a page of incidents, what caused them, and the top of the ranking beside them. */
 export const incidentHistoryResponseSchema = pageOf(incidentRowSchema).extend({
@@ -138,7 +136,6 @@ export const incidentHistoryResponseSchema = pageOf(incidentRowSchema).extend({
   causes: z.array(z.object({ key: z.string(), incidents: z.int(), lastAt: instantSchema, pinchRank: z.int().nullable(), pinchScore: z.number().nullable() })),
   predicted: z.array(z.object({ key: z.string(), pinchRank: z.int(), pinchScore: z.number(), incidents: z.int() })),
 });
-export type IncidentHistoryResponse = z.infer<typeof incidentHistoryResponseSchema>;
 
 /** POST …/alerts. */
 export const receiveAlertsResponseSchema = z.object({

@@ -5,20 +5,20 @@ import { booleanParam, filePositionSchema, instantSchema, issueSchema, sourceSch
 import { snapshotDiffSchema } from "./history";
 import { impactReportSchema } from "./impact";
 
-export const IMPACT_FORMATS = ["json", "markdown", "sarif"] as const;
+const IMPACT_FORMATS = ["json", "markdown", "sarif"] as const;
 export type ImpactFormat = (typeof IMPACT_FORMATS)[number];
 
 /** Query parameters that only the `kubernetes` format reads (importers/README.md, Kubernetes). */
-export const KUBERNETES_PUSH_PARAMS = ["cluster_domain", "team_key", "teams", "namespace_teams", "aliases"] as const;
+const KUBERNETES_PUSH_PARAMS = ["cluster_domain", "team_key", "teams", "namespace_teams", "aliases"] as const;
 
 /** Compose profiles to include, as typed (Compose Specification, "Profiles": names are [a-zA-Z0-9][a-zA-Z0-9_.-]+). */
-export const profilesTextSchema = z.string().regex(/^[a-zA-Z0-9][a-zA-Z0-9_.-]*(,[a-zA-Z0-9][a-zA-Z0-9_.-]*)*$/, "must be profile names separated by commas, e.g. debug,test");
+const profilesTextSchema = z.string().regex(/^[a-zA-Z0-9][a-zA-Z0-9_.-]*(,[a-zA-Z0-9][a-zA-Z0-9_.-]*)*$/, "must be profile names separated by commas, e.g. debug,test");
 
 /** Why an architect or admin pushes past a blocking policy. */
-export const overrideReasonSchema = z.string().trim().min(10, "give a reason of at least 10 characters").max(1000);
+const overrideReasonSchema = z.string().trim().min(10, "give a reason of at least 10 characters").max(1000);
 
 /** Each query parameter of a push on its own (the upload form takes some of them). */
-export const pushQueryFields = z
+const pushQueryFields = z
   .object({
     dry_run: booleanParam.optional(),
     format: z.enum(IMPORT_FORMATS).optional(),
@@ -97,10 +97,10 @@ export function kubernetesOptionsOf(q: z.infer<typeof pushQuerySchema>): Kuberne
 // ---------------------------------------------------------------------------------------------
 // Responses
 
-export const importNoteSchema = z.object({ kind: z.enum(IMPORT_NOTE_KINDS), component: z.string(), target: z.string().optional(), reason: z.string(), at: filePositionSchema.optional() });
+const importNoteSchema = z.object({ kind: z.enum(IMPORT_NOTE_KINDS), component: z.string(), target: z.string().optional(), reason: z.string(), at: filePositionSchema.optional() });
 export type ImportNote = z.infer<typeof importNoteSchema>;
 
-export const inferredNeedSchema = z.object({
+const inferredNeedSchema = z.object({
   from: z.string(),
   /** one key, or the members of an any_of group */
   to: z.array(z.string()),
@@ -111,7 +111,7 @@ export const inferredNeedSchema = z.object({
 });
 export type InferredNeed = z.infer<typeof inferredNeedSchema>;
 
-export const diffSummarySchema = snapshotDiffSchema.extend({
+const diffSummarySchema = snapshotDiffSchema.extend({
   counts: z.object({ componentsAdded: z.int(), componentsRemoved: z.int(), componentsChanged: z.int(), dependenciesAdded: z.int(), dependenciesRemoved: z.int() }),
 });
 export type DiffSummary = z.infer<typeof diffSummarySchema>;

@@ -16,7 +16,7 @@ export const positionsResponseSchema = z.object({ positions: z.record(z.string()
 
 export const MAP_KINDS = [...COMPONENT_KINDS, "undeclared"] as const satisfies readonly ComponentKind[];
 
-export const mapMetricsSchema = z.object({
+const mapMetricsSchema = z.object({
   betweenness: z.number(),
   /** null: the measure did not converge in this analysis */
   pagerank: z.number().nullable(),
@@ -33,7 +33,7 @@ export const mapMetricsSchema = z.object({
   dominatedAll: z.number().nullable().optional(),
 });
 
-export const mapNodeSchema = z.object({
+const mapNodeSchema = z.object({
   key: z.string(),
   name: z.string(),
   kind: z.enum(MAP_KINDS),
@@ -45,7 +45,7 @@ export const mapNodeSchema = z.object({
   metrics: mapMetricsSchema.nullable(),
 });
 
-export const mapEdgeSchema = z.object({
+const mapEdgeSchema = z.object({
   from: z.string(),
   to: z.string(),
   strength: strengthSchema,
@@ -78,7 +78,7 @@ export type MapGraph = z.infer<typeof mapGraphSchema>;
 
 const boxSchema = z.object({ x: z.number(), y: z.number(), width: z.number(), height: z.number() });
 /** One stored view: absolute boxes per node id and edge routes per edge id (lib/map/estate.ts). */
-export const storedViewSchema = z.object({
+const storedViewSchema = z.object({
   boxes: z.record(z.string(), boxSchema),
   routes: z.record(z.string(), z.array(z.object({ x: z.number(), y: z.number() }))),
   width: z.number(),

@@ -7,19 +7,19 @@ import { booleanParam, defineList, instantSchema, listQuery, pageOf } from "./co
 const DATE_PATTERN = /^\d{4}-\d{2}-\d{2}$/;
 
 /** A calendar date that exists (2031-02-30 does not), as YYYY-MM-DD. */
-export function isCalendarDate(s: string): boolean {
+function isCalendarDate(s: string): boolean {
   if (!DATE_PATTERN.test(s)) return false;
   const d = new Date(`${s}T00:00:00Z`);
   return !Number.isNaN(d.getTime()) && d.toISOString().slice(0, 10) === s;
 }
 
-export const calendarDateSchema = z.string().refine(isCalendarDate, "must be a calendar date written YYYY-MM-DD");
+const calendarDateSchema = z.string().refine(isCalendarDate, "must be a calendar date written YYYY-MM-DD");
 
 /** Today in UTC as YYYY-MM-DD: the server's notion of "overdue" and of "in the past". */
 export const todayUtc = (now = new Date()) => now.toISOString().slice(0, 10);
 
 /** Far enough for a yearly review cycle with slack; further than this is a date nobody will keep. */
-export const MAX_REVIEW_HORIZON_DAYS = 731;
+const MAX_REVIEW_HORIZON_DAYS = 731;
 
 /** The fields of a review; reviewBodySchema adds the rules about dates. */
 export const reviewFieldsSchema = z.object({
@@ -76,7 +76,7 @@ export type AuditQuery = z.infer<typeof auditQuerySchema>;
 // ---------------------------------------------------------------------------------------------
 // Responses
 
-export const reviewSummarySchema = z.object({ status: z.enum(REVIEW_STATUSES), reviewBy: z.string().nullable(), overdue: z.boolean() });
+const reviewSummarySchema = z.object({ status: z.enum(REVIEW_STATUSES), reviewBy: z.string().nullable(), overdue: z.boolean() });
 export type ReviewSummary = z.infer<typeof reviewSummarySchema>;
 
 export const reviewViewSchema = reviewSummarySchema.extend({
@@ -108,7 +108,7 @@ export const weightsViewSchema = z.object({
 });
 export type WeightsView = z.infer<typeof weightsViewSchema>;
 
-export const auditEntrySchema = z.object({
+const auditEntrySchema = z.object({
   id: z.string(),
   at: instantSchema,
   actorType: z.enum(["user", "token", "system"]),

@@ -3,7 +3,7 @@ import { z } from "zod";
 import { defineList, kindSchema, listQuery, pageOf, slugSchema, tierSchema } from "./common";
 
 /** Path words under /api/v1/teams that are routes of their own, so no team may take them as a slug. */
-export const RESERVED_TEAM_SLUGS = ["unowned"] as const;
+const RESERVED_TEAM_SLUGS = ["unowned"] as const;
 
 const optionalText = (max: number) =>
   z
@@ -74,7 +74,6 @@ const ownedFilters = {
   q: z.string().max(128).optional(),
 };
 export const unownedQuerySchema = listQuery(OWNED_LIST).extend(ownedFilters).strict();
-export type UnownedQuery = z.infer<typeof unownedQuerySchema>;
 export const teamQuerySchema = listQuery(OWNED_LIST).extend(ownedFilters).strict();
 export type TeamQuery = z.infer<typeof teamQuerySchema>;
 
@@ -83,7 +82,7 @@ export type TeamQuery = z.infer<typeof teamQuerySchema>;
 
 export const teamRecordSchema = z.object({ slug: z.string(), name: z.string(), email: z.string().nullable(), oncall: z.string().nullable(), description: z.string().nullable() });
 
-export const teamOverviewSchema = teamRecordSchema.extend({
+const teamOverviewSchema = teamRecordSchema.extend({
   memberCount: z.int(),
   leadCount: z.int(),
   /** components it owns (assigned in Pinchpoint, else declared), over every environment */
@@ -94,7 +93,6 @@ export type TeamOverview = z.infer<typeof teamOverviewSchema>;
 
 /** GET /teams. */
 export const teamsResponseSchema = z.object({ items: z.array(teamOverviewSchema), unownedCount: z.int() });
-export type TeamsResponse = z.infer<typeof teamsResponseSchema>;
 
 export const teamMemberSchema = z.object({ userId: z.string(), name: z.string(), email: z.string(), role: z.string(), isLead: z.boolean() });
 export type TeamMember = z.infer<typeof teamMemberSchema>;
@@ -102,7 +100,7 @@ export type TeamMember = z.infer<typeof teamMemberSchema>;
 /** DELETE /teams/{slug}/members/{userId}. */
 export const memberRemovedSchema = z.object({ removed: z.literal(true) });
 
-export const teamComponentSchema = z.object({
+const teamComponentSchema = z.object({
   environment: z.string(),
   key: z.string(),
   name: z.string(),

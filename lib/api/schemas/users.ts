@@ -3,7 +3,7 @@ import { z } from "zod";
 import { ROLES } from "@/lib/auth/roles";
 import { instantSchema } from "./common";
 
-export const roleSchema = z.enum(ROLES);
+const roleSchema = z.enum(ROLES);
 
 export const inviteUserSchema = z
   .object({

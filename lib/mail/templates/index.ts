@@ -6,14 +6,10 @@ import { ownerAssigned } from "./owner-assigned";
 import { reviewDue } from "./review-due";
 import { riskDigest } from "./risk-digest";
 
-export const TEMPLATES = { ownerAssigned, newTopTen, reviewDue, invite, riskDigest } as const;
+const TEMPLATES = { ownerAssigned, newTopTen, reviewDue, invite, riskDigest } as const;
 
 export type TemplateName = keyof typeof TEMPLATES;
 export type TemplateData<T extends TemplateName> = Parameters<(typeof TEMPLATES)[T]>[0];
-
-export function isTemplateName(value: string): value is TemplateName {
-  return Object.hasOwn(TEMPLATES, value);
-}
 
 export function renderMail<T extends TemplateName>(template: T, data: TemplateData<T>, ctx: MailContext): RenderedMail {
   // TypeScript cannot narrow a generic index into a union of functions; the map above fixes the pairing.
@@ -22,8 +18,4 @@ export function renderMail<T extends TemplateName>(template: T, data: TemplateDa
 }
 
 export type { MailContext, RenderedMail } from "./layout";
-export type { OwnerAssignedData } from "./owner-assigned";
-export type { NewTopTenData, TopTenEntry } from "./new-top-ten";
-export type { ReviewDueData } from "./review-due";
-export type { InviteData } from "./invite";
-export type { RiskDigestData, DigestEnvironment, DigestMover, DigestOverdueReview, DigestSinglePoint } from "./risk-digest";
+export type { TopTenEntry } from "./new-top-ten";

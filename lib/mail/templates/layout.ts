@@ -29,7 +29,7 @@ export function appLink(ctx: MailContext, segments: string[], query?: Record<str
   return `${base}/${path}${qs}`;
 }
 
-export const COLOURS = {
+const COLOURS = {
   canvas: "#f4f1ea",
   surface: "#fbfaf6",
   line: "#d9d3c5",

@@ -5,7 +5,7 @@
 import { html } from "./html";
 import { appLink, button, formatScore, heading2, htmlDocument, link, mono, note, paragraph, small, subjectLine, table, textDocument, type MailContext, type RenderedMail } from "./layout";
 
-export interface DigestMover {
+interface DigestMover {
   key: string;
   name: string;
   before: number;
@@ -15,7 +15,7 @@ export interface DigestMover {
   rankAfter: number | null;
 }
 
-export interface DigestOverdueReview {
+interface DigestOverdueReview {
   key: string;
   name: string;
   status: string;
@@ -24,14 +24,14 @@ export interface DigestOverdueReview {
   reviewer: string | null;
 }
 
-export interface DigestSinglePoint {
+interface DigestSinglePoint {
   key: string;
   name: string;
   blastDown: number;
   team: string | null;
 }
 
-export interface DigestEnvironment {
+interface DigestEnvironment {
   environment: { slug: string; name: string };
   snapshotNumber: number;
   /** the analysed snapshot compared with (the newest one at least a week old, else the oldest in the week); null for the first */

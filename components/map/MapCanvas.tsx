@@ -416,11 +416,11 @@ function MapCanvasInner(props: MapCanvasProps) {
             </label>
             {effGrouping.byTeam ? (
               <>
-                <button type="button" className="pp-btn" onClick={() => setGrouping({ byTeam: true, collapsed: new Set(slots) })} aria-label="Collapse every team">
-                  Collapse all
+                <button type="button" className="pp-btn" onClick={() => setGrouping({ byTeam: true, collapsed: new Set(slots) })}>
+                  Collapse all teams
                 </button>
-                <button type="button" className="pp-btn" onClick={() => setGrouping({ byTeam: true, collapsed: new Set() })} aria-label="Expand every team">
-                  Expand all
+                <button type="button" className="pp-btn" onClick={() => setGrouping({ byTeam: true, collapsed: new Set() })}>
+                  Expand all teams
                 </button>
               </>
             ) : null}

@@ -63,7 +63,7 @@ describe("map at 2,000 components", () => {
     await page.getByTestId("hub-list").waitFor({ timeout: 10_000 });
 
     t0 = Date.now();
-    await page.getByRole("button", { name: "Expand every team", exact: true }).click();
+    await page.getByRole("button", { name: "Expand all teams", exact: true }).click();
     await expect.poll(() => page.getByTestId("team-box").count(), { timeout: 60_000 }).toBe(0);
     await page.locator(".react-flow__node").first().waitFor({ timeout: 60_000 });
     const all = Date.now() - t0;

@@ -62,7 +62,7 @@ describe("map", () => {
   it("bundles a hub's dependents into a marker that opens their list", async () => {
     await page.goto(`${baseUrl()}/environments/production/map`);
     await page.getByTestId("team-box").first().waitFor({ timeout: 60_000 });
-    await page.getByRole("button", { name: "Expand every team", exact: true }).click();
+    await page.getByRole("button", { name: "Expand all teams", exact: true }).click();
     await page.getByTestId("hub-marker").first().waitFor({ timeout: 60_000 });
     // The whole expanded demo is wider than the screen at a readable zoom: go to the hub first.
     const hubKey = await page.getByTestId("hub-marker").first().evaluate((el) => el.closest(".react-flow__node")?.getAttribute("data-id") ?? "");

@@ -3,7 +3,8 @@
 import "server-only";
 import { QueryTypes } from "sequelize";
 import { db } from "@/models";
-import type { MapGraph } from "@/lib/api/schemas/map";
+import type { MapGraph, MapNode } from "@/lib/api/schemas/map";
+import type { SnapshotContent } from "@/lib/inventory/snapshot";
 import { METRIC_COLUMNS, getAnalysisView, getCycles, type MetricColumns } from "./analysis-results";
 import { listTeams } from "./teams";
 import { effectiveOwners, getSnapshotGraph } from "./snapshot-graph";
@@ -39,14 +40,7 @@ export async function getMapGraph({ environmentId, slug }: { environmentId: stri
     nodes: content.components.map((c) => {
       const m = byKey.get(c.key);
       return {
-        key: c.key,
-        name: c.name,
-        kind: c.kind,
-        team: owners.has(c.key) ? (owners.get(c.key) ?? null) : c.team,
-        tier: c.tier,
-        replicas: c.replicas,
-        zones: c.zones,
-        undeclared: c.kind === "undeclared",
+        ...mapNodeOf(c, owners),
         metrics: m
           ? {
               betweenness: m.betweenness,
@@ -77,5 +71,19 @@ export async function getMapGraph({ environmentId, slug }: { environmentId: stri
         ...(t ? { traffic: { callsPerMinute: t.callsPerMinute, errorRate: t.errorRate, p95Ms: t.p95Ms } } : {}),
       };
     }),
+  };
+}
+
+/** A component as the map draws it, owner annotations applied; the measures are the caller's (null before an analysis). */
+export function mapNodeOf(c: SnapshotContent["components"][number], owners: Map<string, string | null>): Omit<MapNode, "metrics"> {
+  return {
+    key: c.key,
+    name: c.name,
+    kind: c.kind,
+    team: owners.has(c.key) ? (owners.get(c.key) ?? null) : c.team,
+    tier: c.tier,
+    replicas: c.replicas,
+    zones: c.zones,
+    undeclared: c.kind === "undeclared",
   };
 }

@@ -8,6 +8,7 @@ import type { MapGraph } from "@/lib/api/schemas/map";
 import type { MapLayoutsResponse } from "@/lib/api/schemas/map";
 import { layoutEstate, type StoredViews } from "@/lib/map/estate";
 import { getAnalysisView } from "./analysis-results";
+import { mapNodeOf } from "./map-graph";
 import { effectiveOwners, getSnapshotGraph } from "./snapshot-graph";
 import { listTeams } from "./teams";
 
@@ -20,17 +21,7 @@ export async function computeMapLayouts({ snapshotId, environmentId }: MapLayout
   const [{ content }, owners, teams] = await Promise.all([getSnapshotGraph({ snapshotId }), effectiveOwners({ environmentId }), listTeams()]);
   const graph: Pick<MapGraph, "nodes" | "edges" | "teams"> = {
     teams: teams.map((t) => ({ slug: t.slug, name: t.name })),
-    nodes: content.components.map((c) => ({
-      key: c.key,
-      name: c.name,
-      kind: c.kind,
-      team: owners.has(c.key) ? (owners.get(c.key) ?? null) : c.team,
-      tier: c.tier,
-      replicas: c.replicas,
-      zones: c.zones,
-      undeclared: c.kind === "undeclared",
-      metrics: null,
-    })),
+    nodes: content.components.map((c) => ({ ...mapNodeOf(c, owners), metrics: null })),
     edges: content.dependencies.map((d) => ({ from: d.from, to: d.to, strength: d.strength, group: d.group, inCycle: false, ...(d.provenance ? { provenance: d.provenance } : {}) })),
   };
   const started = performance.now();

@@ -15,20 +15,11 @@ import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { Readable } from "node:stream";
 import { ExportTraceServiceRequest } from "../../importers/otlp/proto";
+import { mulberry32 } from "../../lib/analysis/random";
 
 const SERVICES = 60;
 const DATASTORES = 20;
 
-function rng(seed: number) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 interface GenSpan {
   service: string;
@@ -44,14 +35,14 @@ interface GenSpan {
 
 /** `count` spans, four per trace, in trace order. */
 function* workload(count: number, seed: number): Generator<GenSpan> {
-  const rnd = rng(seed);
+  const rnd = mulberry32(seed);
   const id = (n: number) => {
     const b = Buffer.alloc(n);
     for (let i = 0; i < n; i += 4) b.writeUInt32BE(Math.floor(rnd() * 4294967296) >>> 0, i);
     return b;
   };
   // The estate: fixed callees and a datastore per service, from a seed of its own.
-  const shape = rng(42);
+  const shape = mulberry32(42);
   const callees = Array.from({ length: SERVICES }, (_, s) => [1, 2, 3].map((k) => (s + k + Math.floor(shape() * (SERVICES - 4))) % SERVICES));
   const stores = Array.from({ length: SERVICES }, () => Math.floor(shape() * DATASTORES));
   const t0 = BigInt(Date.now()) * 1_000_000n;

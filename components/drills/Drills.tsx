@@ -1,6 +1,7 @@
 "use client";
 // A what-if failure: pick components and/or zones, see what goes down or degraded, who to page.
 // The chosen set lives in the URL (?fail=a,b&zones=z) so the exact drill can be shared.
+import { SummaryCopy } from "@/components/ui/SummaryCopy";
 import Link from "next/link";
 import { useMemo, useState } from "react";
 import useSWR from "swr";
@@ -49,7 +50,6 @@ export function Drills({ env }: { env: string }) {
   const drill = useSWR<DrillResponse, ApiError>(hasInput ? [`/api/v1/environments/${env}/drills`, fail, zones] : null, postDrill, { keepPreviousData: true, revalidateOnFocus: false });
   // Tier, zones and placeholders of what went down come with the graph the mini-map draws anyway.
   const graph = useApi(mapGraphSchema, drill.data ? `/api/v1/environments/${env}/graph` : null, { revalidateOnFocus: false });
-  const [copied, setCopied] = useState<"idle" | "copied" | "failed">("idle");
 
   const byKey = useMemo(() => new Map(graph.data?.nodes.map((c) => [c.key, c]) ?? []), [graph.data]);
   const undeclared = useMemo(() => new Set(graph.data?.nodes.filter((c) => c.undeclared).map((c) => c.key) ?? []), [graph.data]);
@@ -61,16 +61,6 @@ export function Drills({ env }: { env: string }) {
   const teams = result ? drillPageOrder(result) : [];
   const failedSet = new Set(result?.failed.components ?? []);
   const what = failedWords({ components: fail, zones });
-
-  const copy = async () => {
-    try {
-      await navigator.clipboard.writeText(summary);
-      setCopied("copied");
-    } catch {
-      setCopied("failed");
-    }
-    setTimeout(() => setCopied("idle"), 4000);
-  };
 
   const keyLink = (k: string) => (
     <li key={k} className="flex flex-wrap items-center gap-1.5">
@@ -162,20 +152,7 @@ export function Drills({ env }: { env: string }) {
               <Stat key={t} label={`Tier ${t} down`} value={result.byTier[t]} tone={t === "1" && result.byTier[t] > 0 ? "down" : "ink"} />
             ))}
           </div>
-          <div className="flex flex-wrap items-center gap-3">
-            <Button type="button" variant="primary" onClick={copy}>
-              Copy incident summary
-            </Button>
-            <span role="status" className="text-sm text-muted">
-              {copied === "copied" ? "Copied to the clipboard." : copied === "failed" ? "The browser refused the clipboard: select the text below instead." : ""}
-            </span>
-          </div>
-          <details className="rounded-md border border-line bg-surface px-3 py-2 text-sm" open={copied === "failed"}>
-            <summary className="cursor-pointer text-muted">Summary text</summary>
-            <pre className="mt-2 whitespace-pre-wrap font-mono text-xs text-ink" data-testid="incident-summary">
-              {summary}
-            </pre>
-          </details>
+          <SummaryCopy summary={summary} />
 
           <Card title="Affected part of the graph">
             {graph.data ? (

@@ -2,6 +2,7 @@
 // The live incident screen: what fires, the probable origin(s) in two readings, what will likely
 // fail next, who to page in order, and a summary to paste. Polls the API (swr) so it follows the
 // alerts without a reload; the caution that this is a probability, not a diagnosis, stays on top.
+import { SummaryCopy } from "@/components/ui/SummaryCopy";
 import Link from "next/link";
 import { useState } from "react";
 import { Badge } from "@/components/ui/Badge";
@@ -148,19 +149,7 @@ function ResolveByHand({ env, number, onDone }: { env: string; number: number; o
 
 export function IncidentScreen({ env, canWrite }: { env: string; canWrite: boolean }) {
   const current = useApi(currentIncidentResponseSchema, `/api/v1/environments/${env}/incidents/current`, { refreshInterval: INCIDENT_REFRESH_MS });
-  const [copied, setCopied] = useState<"idle" | "copied" | "failed">("idle");
   const data = current.data;
-  const copy = async () => {
-    if (!data) return;
-    try {
-      await navigator.clipboard.writeText(data.summary);
-      setCopied("copied");
-    } catch {
-      setCopied("failed");
-    }
-    setTimeout(() => setCopied("idle"), 4000);
-  };
-
   const r = data?.result;
   const firingSet = new Set(r?.firing ?? []);
   const firingCount = r?.firing.length ?? 0;
@@ -349,21 +338,9 @@ export function IncidentScreen({ env, canWrite }: { env: string; canWrite: boole
             </Card>
           </div>
 
-          <div className="flex flex-wrap items-center gap-3">
-            <Button type="button" variant="primary" onClick={copy}>
-              Copy incident summary
-            </Button>
-            <span role="status" className="text-sm text-muted">
-              {copied === "copied" ? "Copied to the clipboard." : copied === "failed" ? "The browser refused the clipboard: select the text below instead." : ""}
-            </span>
+          <SummaryCopy summary={data.summary}>
             {canWrite && <ResolveByHand env={env} number={data.incident.number} onDone={() => void current.mutate()} />}
-          </div>
-          <details className="rounded-md border border-line bg-surface px-3 py-2 text-sm" open={copied === "failed"}>
-            <summary className="cursor-pointer text-muted">Summary text</summary>
-            <pre className="mt-2 whitespace-pre-wrap font-mono text-xs text-ink" data-testid="incident-summary">
-              {data.summary}
-            </pre>
-          </details>
+          </SummaryCopy>
 
           <Card title={`Firing alerts (${data.firingAlerts.length})`}>
             <AlertsTable env={env} alerts={data.firingAlerts} show="firing" />

@@ -6,7 +6,6 @@
 // business).
 import { QueryTypes } from "sequelize";
 import type { AnalysisInput } from "../../lib/analysis/types";
-import { snapshotHash, type SnapshotContent } from "../../lib/inventory/snapshot";
 import { generateGraph } from "./generate";
 import { withBenchDatabase } from "./push";
 
@@ -34,7 +33,7 @@ export async function benchScale(): Promise<ScaleResult[]> {
     const { db, closeDb } = await import("../../models");
     const { migrateToLatest } = await import("../../models/migrate");
     const { claimNextJob, runJob } = await import("../../lib/jobs/analysis");
-    const { queueAnalysis } = await import("../../lib/data/analysis-runs");
+    const { writeScaleSnapshot } = await import("./scale-snapshot");
     const { stopAnalysisThread } = await import("../../lib/analysis/thread");
     await migrateToLatest(db().sequelize);
     const results: ScaleResult[] = [];
@@ -43,25 +42,8 @@ export async function benchScale(): Promise<ScaleResult[]> {
       ["100,000-component estate with a 5,000-component cycle", generateGraph({ n: 100_000, seed: 42, ring: 5000 })],
     ];
     for (const [i, [label, input]] of cases.entries()) {
-      const { models, sequelize } = db();
-      const env = await models.Environment.create({ slug: `scale-${i}`, name: label });
-      const content: SnapshotContent = {
-        components: input.nodes.map((n) => ({ key: n.key, name: n.key, kind: "service", team: n.team, tier: n.tier, replicas: n.replicas, zones: n.zones, tags: [], links: {}, source: "scale" })),
-        dependencies: input.edges.map((e) => ({ from: e.from, to: e.to, strength: e.strength, group: e.group, via: null, source: "scale" })),
-      };
-      const snap = await models.Snapshot.create({
-        environmentId: env.id,
-        number: 1,
-        hash: snapshotHash(content),
-        content,
-        componentCount: content.components.length,
-        dependencyCount: content.dependencies.length,
-        undeclaredCount: 0,
-        sourceName: "scale",
-        format: "pinchpoint",
-        actorLabel: "bench",
-      });
-      await queueAnalysis({ environmentId: env.id, snapshotId: snap.id });
+      const { sequelize } = db();
+      await writeScaleSnapshot({ slug: `scale-${i}`, name: label, input, actor: "bench" });
       const job = await claimNextJob("bench-worker");
       if (!job) throw new Error("no job to claim");
       let running = true;

@@ -13,13 +13,12 @@ import { GET as bootOrder } from "@/app/api/v1/environments/[env]/boot-order/rou
 import { GET as component, PATCH as annotate } from "@/app/api/v1/environments/[env]/components/[key]/route";
 import { db } from "@/models";
 import { claimNextJob, drainAnalysisQueue, runJob } from "@/lib/jobs/analysis";
-import { queueAnalysis } from "@/lib/data/analysis-runs";
 import { jobQueue, QUEUES } from "@/lib/data/job-queue";
 import { pushInventory } from "@/lib/data/push";
 import { stopAnalysisThread } from "@/lib/analysis/thread";
 import type { AnalysisInput } from "@/lib/analysis/types";
-import { snapshotHash, type SnapshotContent } from "@/lib/inventory/snapshot";
 import { generateGraph } from "@/scripts/bench/generate";
+import { writeScaleSnapshot } from "@/scripts/bench/scale-snapshot";
 import { call, createUser, type TestUser } from "../support/api";
 
 const system = { type: "system" as const, label: "test", canCreateEnvironments: true as const };
@@ -30,29 +29,7 @@ beforeAll(async () => {
 });
 afterAll(() => stopAnalysisThread());
 
-/** A snapshot written straight into the tables (a 100,000-component push is the bench's business, not this test's). */
-async function snapshotOf(slug: string, input: AnalysisInput): Promise<{ environmentId: string; snapshotId: string }> {
-  const { models } = db();
-  const env = await models.Environment.create({ slug, name: slug });
-  const content: SnapshotContent = {
-    components: input.nodes.map((n) => ({ key: n.key, name: n.key, kind: "service", team: n.team, tier: n.tier, replicas: n.replicas, zones: n.zones, tags: [], links: {}, source: "scale" })),
-    dependencies: input.edges.map((e) => ({ from: e.from, to: e.to, strength: e.strength, group: e.group, via: null, source: "scale" })),
-  };
-  const snap = await models.Snapshot.create({
-    environmentId: env.id,
-    number: 1,
-    hash: snapshotHash(content),
-    content,
-    componentCount: content.components.length,
-    dependencyCount: content.dependencies.length,
-    undeclaredCount: 0,
-    sourceName: "scale",
-    format: "pinchpoint",
-    actorLabel: "test",
-  });
-  await queueAnalysis({ environmentId: env.id, snapshotId: snap.id });
-  return { environmentId: env.id, snapshotId: snap.id };
-}
+const snapshotOf = (slug: string, input: AnalysisInput) => writeScaleSnapshot({ slug, name: slug, input, actor: "test" });
 
 /** Runs the queued job while a second worker tries to claim work every 250 ms; returns what that worker got. */
 async function runContested(): Promise<{ outcome: string; stolen: number; attempts: number; status: string; thread: boolean }> {

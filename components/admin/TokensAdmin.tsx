@@ -95,7 +95,7 @@ function columns(revoke: (t: TokenInfo) => Promise<void>) {
           <span className="text-ok">live</span>
         ),
     }),
-    col.accessor("createdBy", { header: "Made by", meta: { hidden: true }, cell: (i) => i.getValue() ?? "—" }),
+    col.accessor("createdByEmail", { header: "Made by", cell: (i) => i.getValue() ?? "—" }),
     col.display({
       id: "actions",
       header: () => <span className="sr-only">Actions</span>,

@@ -15,6 +15,8 @@ export interface TokenInfo {
   environment: string | null;
   source: string | null;
   createdBy: string | null;
+  /** the creator's e-mail, what the admin screen shows (null when the account is gone) */
+  createdByEmail: string | null;
   createdAt: string;
   lastUsedAt: string | null;
   revokedAt: string | null;
@@ -29,8 +31,10 @@ function newSecret(): string {
 
 type TokenRow = InstanceType<ReturnType<typeof db>["models"]["ApiToken"]>;
 
-async function toTokenInfo(row: TokenRow, envSlugs?: Map<string, string>): Promise<TokenInfo> {
+async function toTokenInfo(row: TokenRow, envSlugs?: Map<string, string>, emails?: Map<string, string>): Promise<TokenInfo> {
   let environment: string | null = null;
+  let createdByEmail: string | null = null;
+  if (row.createdBy) createdByEmail = emails ? (emails.get(row.createdBy) ?? null) : ((await db().models.User.findByPk(row.createdBy))?.email ?? null);
   if (row.environmentId) {
     environment =
       envSlugs?.get(row.environmentId) ?? (await db().models.Environment.findByPk(row.environmentId))?.slug ?? null;
@@ -43,6 +47,7 @@ async function toTokenInfo(row: TokenRow, envSlugs?: Map<string, string>): Promi
     environment,
     source: row.sourceName,
     createdBy: row.createdBy,
+    createdByEmail,
     createdAt: row.createdAt.toISOString(),
     lastUsedAt: row.lastUsedAt?.toISOString() ?? null,
     revokedAt: row.revokedAt?.toISOString() ?? null,
@@ -75,10 +80,11 @@ export async function createToken(
 }
 
 export async function listTokens(): Promise<TokenInfo[]> {
-  const { ApiToken, Environment } = db().models;
-  const [rows, envs] = await Promise.all([ApiToken.findAll({ order: [["createdAt", "DESC"]] }), Environment.findAll()]);
+  const { ApiToken, Environment, User } = db().models;
+  const [rows, envs, users] = await Promise.all([ApiToken.findAll({ order: [["createdAt", "DESC"]] }), Environment.findAll(), User.findAll({ attributes: ["id", "email"] })]);
   const slugs = new Map(envs.map((e) => [e.id, e.slug]));
-  return Promise.all(rows.map((row) => toTokenInfo(row, slugs)));
+  const emails = new Map(users.map((u) => [u.id, u.email]));
+  return Promise.all(rows.map((row) => toTokenInfo(row, slugs, emails)));
 }
 
 /** Revoke; returns the token as it was before, or null when no such token exists. */

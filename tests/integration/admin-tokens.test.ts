@@ -67,7 +67,10 @@ describe("token admin routes", () => {
 
     const list = await call(listTokensRoute, { url: "/api/v1/tokens", as: users.admin });
     expect(JSON.stringify(list.json)).not.toContain(created.token);
-    expect((list.json as { items: { id: string; prefix: string }[] }).items.find((t) => t.id === created.id)?.prefix).toBe(created.token.slice(0, 12));
+    const listed = (list.json as { items: { id: string; prefix: string; createdByEmail: string | null }[] }).items.find((t) => t.id === created.id);
+    expect(listed?.prefix).toBe(created.token.slice(0, 12));
+    // The admin screen's "Made by" column: the creator by e-mail, not by account id.
+    expect(listed?.createdByEmail).toBe(users.admin.email);
 
     // The token works until it is revoked.
     const asToken = { token: created.token };

@@ -27,6 +27,8 @@ export const tokenInfoSchema = z.object({
   environment: z.string().nullable(),
   source: z.string().nullable(),
   createdBy: z.string().nullable(),
+  /** the creator's e-mail (null when the account is gone) */
+  createdByEmail: z.string().nullable(),
   createdAt: instantSchema,
   lastUsedAt: instantSchema.nullable(),
   revokedAt: instantSchema.nullable(),

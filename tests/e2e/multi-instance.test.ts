@@ -5,9 +5,8 @@
 // e-mail is sent once though two workers deliver; a session made on one instance is valid on the
 // other, and signing out on either ends it on both; a killed worker is started again.
 // It lives with the end-to-end tests because it runs the built app.
-import { spawn, execFileSync, type ChildProcess } from "node:child_process";
+import { execFileSync } from "node:child_process";
 import { mkdtemp, readdir, readFile, rm } from "node:fs/promises";
-import { createServer } from "node:net";
 import { tmpdir } from "node:os";
 import path from "node:path";
 import pg from "pg";
@@ -15,45 +14,17 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { startMailSink, type MailSink } from "@/lib/mail/sink";
 import { dropDatabase, urlFor, withAdmin } from "../support/test-db";
 import { http, signInOverHttp, signOutOverHttp } from "./http";
+import { Children, freePort, until } from "./processes";
 
 const DB = "pp_multi_instance";
 const root = path.resolve(__dirname, "../..");
 const tsx = path.join(root, "node_modules/tsx/dist/cli.mjs");
-const children: ChildProcess[] = [];
+const children = new Children();
 let sink: MailSink;
 let mailDir = "";
 let client: pg.Client;
 let a = "";
 let b = "";
-
-async function freePort(): Promise<number> {
-  const s = createServer();
-  await new Promise<void>((r) => s.listen(0, "127.0.0.1", () => r()));
-  const { port } = s.address() as { port: number };
-  await new Promise((r) => s.close(r));
-  return port;
-}
-
-function start(name: string, args: string[], env: NodeJS.ProcessEnv): ChildProcess {
-  const child = spawn(process.execPath, [tsx, ...args], { cwd: root, env });
-  const out = (chunk: Buffer) => {
-    if (process.env.PINCHPOINT_E2E_VERBOSE) process.stderr.write(`[${name}] ${chunk}`);
-  };
-  child.stdout?.on("data", out);
-  child.stderr?.on("data", out);
-  children.push(child);
-  return child;
-}
-
-async function until<T>(what: string, probe: () => Promise<T | null | undefined | false>, timeoutMs = 60_000): Promise<T> {
-  const deadline = Date.now() + timeoutMs;
-  for (;;) {
-    const value = await probe().catch(() => null);
-    if (value) return value;
-    if (Date.now() > deadline) throw new Error(`${what}: not within ${timeoutMs / 1000} s`);
-    await new Promise((r) => setTimeout(r, 250));
-  }
-}
 
 const q = async <R extends pg.QueryResultRow>(sql: string, params: unknown[] = []) => (await client.query<R>(sql, params)).rows;
 const ownPage = (base: string) => ({ "sec-fetch-site": "same-origin", origin: base });
@@ -80,10 +51,10 @@ beforeAll(async () => {
   const [pa, pb] = [await freePort(), await freePort()];
   a = `http://127.0.0.1:${pa}`;
   b = `http://127.0.0.1:${pb}`;
-  start("app-a", ["scripts/serve.ts", "-H", "127.0.0.1", "-p", String(pa)], { ...base, NEXTAUTH_URL: a });
-  start("app-b", ["scripts/serve.ts", "-H", "127.0.0.1", "-p", String(pb)], { ...base, NEXTAUTH_URL: b });
-  start("worker-1", ["scripts/supervise-worker.ts"], base);
-  start("worker-2", ["scripts/supervise-worker.ts"], base);
+  children.startTsx({ name: "app-a", cwd: root, args: ["scripts/serve.ts", "-H", "127.0.0.1", "-p", String(pa)], env: { ...base, NEXTAUTH_URL: a } });
+  children.startTsx({ name: "app-b", cwd: root, args: ["scripts/serve.ts", "-H", "127.0.0.1", "-p", String(pb)], env: { ...base, NEXTAUTH_URL: b } });
+  children.startTsx({ name: "worker-1", cwd: root, args: ["scripts/supervise-worker.ts"], env: base });
+  children.startTsx({ name: "worker-2", cwd: root, args: ["scripts/supervise-worker.ts"], env: base });
   for (const url of [a, b]) {
     await until(`${url}/api/health says ok with two workers`, async () => {
       const res = await http(url, "/api/health");
@@ -94,8 +65,7 @@ beforeAll(async () => {
 }, 240_000);
 
 afterAll(async () => {
-  for (const child of children) if (child.exitCode === null) child.kill("SIGTERM");
-  await Promise.all(children.map((c) => new Promise((r) => (c.exitCode !== null ? r(null) : c.once("exit", r)))));
+  await children.stopAll();
   await client?.end();
   await sink?.close();
   await rm(mailDir, { recursive: true, force: true });

@@ -4,9 +4,8 @@
 // analyses on the analysis thread), serves the built app and runs the supervised worker, which
 // analyses a snapshot pushed over HTTP and reports a heartbeat that /api/health shows.
 // It lives with the end-to-end tests because it needs the built app (.next).
-import { execFile, spawn, type ChildProcess } from "node:child_process";
+import { execFile } from "node:child_process";
 import { cpSync, existsSync, mkdirSync, mkdtempSync, rmSync } from "node:fs";
-import { createServer } from "node:net";
 import { tmpdir } from "node:os";
 import path from "node:path";
 import { promisify } from "node:util";
@@ -14,34 +13,17 @@ import pg from "pg";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { dropDatabase, urlFor, withAdmin } from "../support/test-db";
 import { http, signInOverHttp } from "./http";
+import { Children, freePort, until } from "./processes";
 
 const run = promisify(execFile);
 const DB = "pp_production_install";
 const root = path.resolve(__dirname, "../..");
 const dist = process.env.PINCHPOINT_DIST_DIR || ".next";
-const children: ChildProcess[] = [];
+const children = new Children();
 let copy = "";
 let base = "";
 let env: NodeJS.ProcessEnv = { NODE_ENV: "production" };
 let client: pg.Client;
-
-async function freePort(): Promise<number> {
-  const s = createServer();
-  await new Promise<void>((r) => s.listen(0, "127.0.0.1", () => r()));
-  const { port } = s.address() as { port: number };
-  await new Promise((r) => s.close(r));
-  return port;
-}
-
-async function until<T>(what: string, probe: () => Promise<T | null | undefined | false>, timeoutMs = 60_000): Promise<T> {
-  const deadline = Date.now() + timeoutMs;
-  for (;;) {
-    const value = await probe().catch(() => null);
-    if (value) return value;
-    if (Date.now() > deadline) throw new Error(`${what}: not within ${timeoutMs / 1000} s`);
-    await new Promise((r) => setTimeout(r, 250));
-  }
-}
 
 /** What git knows of the checkout (tracked files and new ones not ignored), then the build without its cache. */
 async function copyCheckout(to: string): Promise<void> {
@@ -52,17 +34,6 @@ async function copyCheckout(to: string): Promise<void> {
     cpSync(path.join(root, file), path.join(to, file));
   }
   cpSync(path.join(root, dist), path.join(to, dist), { recursive: true, filter: (src) => !src.startsWith(path.join(root, dist, "cache")) && !src.startsWith(path.join(root, dist, "dev")) });
-}
-
-function start(name: string, args: string[]): ChildProcess {
-  const child = spawn(process.execPath, [path.join(copy, "node_modules/tsx/dist/cli.mjs"), ...args], { cwd: copy, env });
-  const out = (chunk: Buffer) => {
-    if (process.env.PINCHPOINT_E2E_VERBOSE) process.stderr.write(`[${name}] ${chunk}`);
-  };
-  child.stdout?.on("data", out);
-  child.stderr?.on("data", out);
-  children.push(child);
-  return child;
 }
 
 beforeAll(async () => {
@@ -95,8 +66,7 @@ beforeAll(async () => {
 }, 420_000);
 
 afterAll(async () => {
-  for (const child of children) if (child.exitCode === null) child.kill("SIGTERM");
-  await Promise.all(children.map((c) => new Promise((r) => (c.exitCode !== null ? r(null) : c.once("exit", r)))));
+  await children.stopAll();
   await client?.end();
   await dropDatabase(DB);
   if (copy) rmSync(copy, { recursive: true, force: true });
@@ -122,8 +92,8 @@ describe("a production install (npm ci --omit=dev)", () => {
   }, 180_000);
 
   it("serves the built app and runs the supervised worker, which analyses a pushed snapshot", async () => {
-    start("app", ["scripts/serve.ts", "-H", "127.0.0.1", "-p", new URL(base).port]);
-    start("worker", ["scripts/supervise-worker.ts"]);
+    children.startTsx({ name: "app", cwd: copy, args: ["scripts/serve.ts", "-H", "127.0.0.1", "-p", new URL(base).port], env });
+    children.startTsx({ name: "worker", cwd: copy, args: ["scripts/supervise-worker.ts"], env });
     await until(
       "/api/health says ok with one worker",
       async () => {

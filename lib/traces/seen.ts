@@ -32,6 +32,16 @@ function hash64(trace: string, span: string): [number, number] {
   return [lastHash.hi, lastHash.lo];
 }
 
+/** Open addressing with linear probing on a 64-bit key (hi, lo; hi never 0): the key's slot, or the empty one it would take. */
+function slotOf(hi: Uint32Array, lo: Uint32Array, mask: number, h: number, l: number): number {
+  let i = (h ^ Math.imul(l, 0x9e3779b1)) & mask;
+  for (;;) {
+    const s = hi[i]!;
+    if (s === 0 || (s === h && lo[i] === l)) return i;
+    i = (i + 1) & mask;
+  }
+}
+
 /** A growing set of span ids (the whole of one file). */
 export class SpanIdSet {
   private hi: Uint32Array;
@@ -46,12 +56,7 @@ export class SpanIdSet {
   }
 
   private find(h: number, l: number): number {
-    let i = (h ^ Math.imul(l, 0x9e3779b1)) & this.mask;
-    for (;;) {
-      const s = this.hi[i]!;
-      if (s === 0 || (s === h && this.lo[i] === l)) return i;
-      i = (i + 1) & this.mask;
-    }
+    return slotOf(this.hi, this.lo, this.mask, h, l);
   }
 
   hasHash(h: number, l: number): boolean {
@@ -157,12 +162,7 @@ export class SpanIndex {
   }
 
   private find(h: number, l: number): number {
-    let i = (h ^ Math.imul(l, 0x9e3779b1)) & this.mask;
-    for (;;) {
-      const s = this.hi[i]!;
-      if (s === 0 || (s === h && this.lo[i] === l)) return i;
-      i = (i + 1) & this.mask;
-    }
+    return slotOf(this.hi, this.lo, this.mask, h, l);
   }
 
   /** Keeps the first value set for a key. */
